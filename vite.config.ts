@@ -1,0 +1,14 @@
+/// <reference types="vitest/config" />
+import { defineConfig } from 'vitest/config';
+
+// Root Vitest config: one project per workspace, all run by `npm run test:unit`.
+export default defineConfig({
+  test: {
+    projects: [
+      { test: { name: 'domain', root: 'packages/domain', include: ['src/**/*.test.ts'], environment: 'node' } },
+      { test: { name: 'db', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node' } },
+      { test: { name: 'api', root: 'apps/api', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 30000 } },
+      { test: { name: 'web', root: 'apps/web', include: ['src/**/*.test.{ts,tsx}'], environment: 'node' } },
+    ],
+  },
+});
