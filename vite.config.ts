@@ -1,4 +1,3 @@
-/// <reference types="vitest/config" />
 import { defineConfig } from 'vitest/config';
 
 // Root Vitest config: one project per workspace, all run by `npm run test:unit`.
