@@ -1,0 +1,3 @@
+export * from './fuel';
+export * from './tyre';
+export * from './drivetrain';
