@@ -1,0 +1,164 @@
+import { AbilityBuilder, createMongoAbility, subject as caslSubject, type MongoAbility } from '@casl/ability';
+import type { Actor } from './roles';
+
+/**
+ * The one definition of who may do what. The API checks it on every route; the web hides what it forbids.
+ * Row-level conditions use the same column names as the API objects (camelCase).
+ */
+export type Action =
+  | 'manage'
+  | 'read'
+  | 'create'
+  | 'update'
+  | 'delete'
+  | 'invite'
+  | 'suspend'
+  | 'assign'
+  | 'take'
+  | 'transition'
+  | 'upload'
+  | 'upload_revision'
+  | 'download'
+  | 'refund';
+
+export const SUBJECTS = [
+  'Platform',
+  'Shop',
+  'Member',
+  'Invitation',
+  'Dealer',
+  'Customer',
+  'Vehicle',
+  'Package',
+  'Job',
+  'Message',
+  'Payment',
+  'Subscription',
+  'Ledger',
+  'AuditEvent',
+  'ShopSettings',
+] as const;
+export type SubjectName = (typeof SUBJECTS)[number];
+
+export type AppAbility = MongoAbility<[Action, SubjectName | 'all' | Record<string, unknown>]>;
+
+/** Tags a plain object so CASL checks it against the rules of `type`. */
+export const asSubject = <T extends Record<string, unknown>>(type: SubjectName, object: T) =>
+  caslSubject(type, object);
+
+const WRITE_ACTIONS: Action[] = [
+  'create',
+  'update',
+  'delete',
+  'invite',
+  'assign',
+  'take',
+  'transition',
+  'upload',
+  'upload_revision',
+  'refund',
+];
+
+export function defineAbilityFor(actor: Actor | null): AppAbility {
+  const { can, cannot, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
+  if (!actor) return build();
+
+  if (actor.platformAdmin) {
+    can('manage', 'Platform');
+    can(['read', 'create', 'update', 'suspend'], 'Shop');
+    can('read', 'Subscription');
+    can('read', 'AuditEvent');
+    // Platform admins never read a shop's jobs, files or logs without an audited support grant.
+    return build();
+  }
+
+  const shopId = actor.shopId;
+  if (!shopId || !actor.role) return build();
+  const me = actor.userId;
+  const inShop = { shopId };
+
+  can('read', 'Shop', { id: shopId });
+  can('read', 'Package', inShop);
+
+  switch (actor.role) {
+    case 'owner':
+      can('update', 'Shop', { id: shopId });
+      can('manage', 'ShopSettings', inShop);
+      can(['read', 'invite', 'update', 'delete'], ['Member', 'Invitation'], inShop);
+      can('create', 'Invitation', inShop);
+      can('manage', ['Dealer', 'Customer', 'Vehicle', 'Package', 'Message', 'Payment', 'Ledger'], inShop);
+      can('manage', 'Subscription', inShop);
+      can('read', 'AuditEvent', inShop);
+      can(
+        ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
+        'Job',
+        inShop,
+      );
+      can('refund', 'Payment', inShop);
+      break;
+    case 'tuner':
+      can('read', 'Member', inShop);
+      can('read', 'Dealer', inShop);
+      can(['read', 'create', 'update'], ['Customer', 'Vehicle'], inShop);
+      can('create', 'Job', inShop);
+      can(['read', 'update', 'transition', 'upload', 'upload_revision', 'download'], 'Job', {
+        shopId,
+        assignedTunerId: { $in: [me, null] },
+      });
+      can('take', 'Job', { shopId, assignedTunerId: null });
+      can(['read', 'create'], 'Message', inShop);
+      can('read', 'Payment', inShop);
+      break;
+    case 'dealer': {
+      const dealerId = actor.dealerId;
+      if (!dealerId) break;
+      const ofDealer = { shopId, dealerId };
+      can('read', 'Dealer', { shopId, id: dealerId });
+      can(['read', 'create', 'update'], ['Customer', 'Vehicle'], ofDealer);
+      can(['read', 'create', 'upload', 'download'], 'Job', ofDealer);
+      can(['read', 'create'], 'Message', ofDealer);
+      can('read', 'Ledger', ofDealer);
+      can(['read', 'create'], 'Payment', ofDealer);
+      break;
+    }
+    case 'customer': {
+      const mine = { shopId, customerUserId: me };
+      can(['read', 'create', 'update'], 'Vehicle', { shopId, ownerUserId: me });
+      can(['read', 'create', 'upload', 'download'], 'Job', mine);
+      can(['read', 'create'], 'Message', mine);
+      can(['read', 'create'], 'Payment', mine);
+      break;
+    }
+  }
+
+  if (actor.shopReadOnly) {
+    // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
+    cannot(WRITE_ACTIONS, ['Member', 'Invitation', 'Dealer', 'Customer', 'Vehicle', 'Package', 'Job', 'Message', 'ShopSettings']);
+    cannot('update', 'Shop');
+  }
+  return build();
+}
+
+/** Row scope for list queries: the SQL twin of the Job conditions above, so lists and checks agree. */
+export type JobScope =
+  | { kind: 'none' }
+  | { kind: 'shop' }
+  | { kind: 'tuner'; userId: string }
+  | { kind: 'dealer'; dealerId: string }
+  | { kind: 'customer'; userId: string };
+
+export function jobScopeFor(actor: Actor): JobScope {
+  if (actor.platformAdmin || !actor.shopId) return { kind: 'none' };
+  switch (actor.role) {
+    case 'owner':
+      return { kind: 'shop' };
+    case 'tuner':
+      return { kind: 'tuner', userId: actor.userId };
+    case 'dealer':
+      return actor.dealerId ? { kind: 'dealer', dealerId: actor.dealerId } : { kind: 'none' };
+    case 'customer':
+      return { kind: 'customer', userId: actor.userId };
+    default:
+      return { kind: 'none' };
+  }
+}

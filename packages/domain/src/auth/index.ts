@@ -1,0 +1,3 @@
+export * from './roles';
+export * from './ability';
+export * from './password-policy';
