@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { evaluate } from 'mathjs';
-import { engineRpmAt, gearFromRpmAndSpeed, kmhToMph, mphToKmh, roadSpeedKmh, speedTable } from './drivetrain';
+import {
+  engineRpmAt,
+  gearFromRpmAndSpeed,
+  kmhToMph,
+  mphToKmh,
+  roadSpeedKmh,
+  speedTable,
+} from './drivetrain';
 import { parseTyreSize } from './tyre';
 
 const C_245_40R20 = parseTyreSize('245/40R20').circumferenceMm;
@@ -22,14 +29,19 @@ describe('roadSpeedKmh / engineRpmAt', () => {
         fc.double({ min: 2, max: 5, noNaN: true }),
         fc.double({ min: 1500, max: 2600, noNaN: true }),
         (rpm, gear, final, circ) => {
-          expect(engineRpmAt(roadSpeedKmh(rpm, gear, final, circ), gear, final, circ)).toBeCloseTo(rpm, 6);
+          expect(engineRpmAt(roadSpeedKmh(rpm, gear, final, circ), gear, final, circ)).toBeCloseTo(
+            rpm,
+            6,
+          );
         },
       ),
     );
   });
 
   it('refuses a zero ratio', () => {
-    expect(() => roadSpeedKmh(3000, 0, 3.15, C_245_40R20)).toThrow(expect.objectContaining({ code: 'validation' }));
+    expect(() => roadSpeedKmh(3000, 0, 3.15, C_245_40R20)).toThrow(
+      expect.objectContaining({ code: 'validation' }),
+    );
   });
 });
 
@@ -58,13 +70,20 @@ describe('gearFromRpmAndSpeed', () => {
   });
 
   it('refuses an empty gearbox', () => {
-    expect(() => gearFromRpmAndSpeed(3000, 50, [], 3.15, C_245_40R20)).toThrow(expect.objectContaining({ code: 'validation' }));
+    expect(() => gearFromRpmAndSpeed(3000, 50, [], 3.15, C_245_40R20)).toThrow(
+      expect.objectContaining({ code: 'validation' }),
+    );
   });
 });
 
 describe('speedTable', () => {
   it('lists each gear per 1000 rpm and at the limiter', () => {
-    const rows = speedTable({ gearRatios: [1.0], finalDrive: 3.15, tyreCircumferenceMm: C_245_40R20, revLimitRpm: 6000 });
+    const rows = speedTable({
+      gearRatios: [1.0],
+      finalDrive: 3.15,
+      tyreCircumferenceMm: C_245_40R20,
+      revLimitRpm: 6000,
+    });
     // same [CALC] rule as above: 126.38 km/h at 3000 rpm, so 42.13 per 1000 and 252.77 at 6000
     expect(rows).toHaveLength(1);
     expect(rows[0]!.kmhPer1000Rpm).toBeCloseTo(126.38 / 3, 2);

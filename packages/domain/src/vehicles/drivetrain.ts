@@ -20,12 +20,22 @@ function assertGearing(gearRatio: number, finalDrive: number, tyreCircumferenceM
 }
 
 /** km/h = rpm · C[m] · 60 / (1000 · gear · final): wheel turns per minute times the rolling circumference. */
-export function roadSpeedKmh(rpm: number, gearRatio: number, finalDrive: number, tyreCircumferenceMm: number): number {
+export function roadSpeedKmh(
+  rpm: number,
+  gearRatio: number,
+  finalDrive: number,
+  tyreCircumferenceMm: number,
+): number {
   assertGearing(gearRatio, finalDrive, tyreCircumferenceMm);
   return (rpm * (tyreCircumferenceMm / 1000) * 60) / (1000 * gearRatio * finalDrive);
 }
 
-export function engineRpmAt(speedKmh: number, gearRatio: number, finalDrive: number, tyreCircumferenceMm: number): number {
+export function engineRpmAt(
+  speedKmh: number,
+  gearRatio: number,
+  finalDrive: number,
+  tyreCircumferenceMm: number,
+): number {
   assertGearing(gearRatio, finalDrive, tyreCircumferenceMm);
   return (speedKmh * 1000 * gearRatio * finalDrive) / ((tyreCircumferenceMm / 1000) * 60);
 }
@@ -39,11 +49,18 @@ export function gearFromRpmAndSpeed(
   tyreCircumferenceMm: number,
   tolerance: number = DEFAULT_GEAR_TOLERANCE,
 ): number | null {
-  if (gearRatios.length === 0) throw new DomainError('validation', 'At least one gear ratio is needed to detect the gear.');
+  if (gearRatios.length === 0)
+    throw new DomainError('validation', 'At least one gear ratio is needed to detect the gear.');
   gearRatios.forEach((ratio, i) => assertPositive(`Gear ${i + 1} ratio`, ratio));
   assertGearing(1, finalDrive, tyreCircumferenceMm);
   assertPositive('Gear tolerance', tolerance);
-  if (!Number.isFinite(rpm) || !Number.isFinite(speedKmh) || rpm <= 0 || speedKmh < MIN_GEAR_DETECT_SPEED_KMH) return null;
+  if (
+    !Number.isFinite(rpm) ||
+    !Number.isFinite(speedKmh) ||
+    rpm <= 0 ||
+    speedKmh < MIN_GEAR_DETECT_SPEED_KMH
+  )
+    return null;
 
   // The gearbox ratio the sample implies: the rpm this speed would need in a 1.00 gear.
   const observedRatio = rpm / engineRpmAt(speedKmh, 1, finalDrive, tyreCircumferenceMm);
@@ -74,7 +91,12 @@ export interface SpeedTableInput {
 }
 
 /** One row per gear: road speed per 1000 rpm and at the rev limit. */
-export function speedTable({ gearRatios, finalDrive, tyreCircumferenceMm, revLimitRpm }: SpeedTableInput): SpeedTableRow[] {
+export function speedTable({
+  gearRatios,
+  finalDrive,
+  tyreCircumferenceMm,
+  revLimitRpm,
+}: SpeedTableInput): SpeedTableRow[] {
   assertPositive('Rev limit', revLimitRpm);
   return gearRatios.map((ratio, i) => ({
     gear: i + 1,

@@ -54,9 +54,12 @@ describe('parseFuelOption', () => {
     expect(parseFuelOption(text)).toEqual(spec);
   });
 
-  it.each(['', 'petrol95', 'e', 'e101', 'stoich=', 'stoich=abc', 'stoich=50'])('refuses %j with a validation error', (text) => {
-    expect(() => parseFuelOption(text)).toThrow(expect.objectContaining({ code: 'validation' }));
-  });
+  it.each(['', 'petrol95', 'e', 'e101', 'stoich=', 'stoich=abc', 'stoich=50'])(
+    'refuses %j with a validation error',
+    (text) => {
+      expect(() => parseFuelOption(text)).toThrow(expect.objectContaining({ code: 'validation' }));
+    },
+  );
 });
 
 describe('lambda ↔ AFR', () => {
@@ -67,9 +70,13 @@ describe('lambda ↔ AFR', () => {
 
   it('round-trips (property)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 0.5, max: 2, noNaN: true }), fc.double({ min: 6, max: 17, noNaN: true }), (lambda, stoich) => {
-        expect(afrToLambda(lambdaToAfr(lambda, stoich), stoich)).toBeCloseTo(lambda, 10);
-      }),
+      fc.property(
+        fc.double({ min: 0.5, max: 2, noNaN: true }),
+        fc.double({ min: 6, max: 17, noNaN: true }),
+        (lambda, stoich) => {
+          expect(afrToLambda(lambdaToAfr(lambda, stoich), stoich)).toBeCloseTo(lambda, 10);
+        },
+      ),
     );
   });
 });

@@ -36,7 +36,11 @@ export function parseTyreSize(code: string): TyreSize {
   const widthMm = Number(width);
   const aspectRatio = Number(aspect);
   const rimIn = Number(rim);
-  if (outOfRange(widthMm, WIDTH_RANGE_MM) || outOfRange(aspectRatio, ASPECT_RANGE) || outOfRange(rimIn, RIM_RANGE_IN)) {
+  if (
+    outOfRange(widthMm, WIDTH_RANGE_MM) ||
+    outOfRange(aspectRatio, ASPECT_RANGE) ||
+    outOfRange(rimIn, RIM_RANGE_IN)
+  ) {
     throw new DomainError(
       'validation',
       `Tyre size "${code}" is out of range: width ${WIDTH_RANGE_MM.join('–')} mm, aspect ${ASPECT_RANGE.join('–')}, rim ${RIM_RANGE_IN.join('–')} in.`,

@@ -1,0 +1,123 @@
+/** VIN checks per 49 CFR 565: 17 characters, transliteration, check digit at position 9, model year at position 10. */
+
+export interface VinCheck {
+  /** Upper-cased, whitespace removed. */
+  vin: string;
+  wellFormed: boolean;
+  checkDigitOk: boolean;
+  expectedCheckDigit: string | null;
+  modelYear: number | null;
+  /** Problems that make the VIN unusable. */
+  errors: string[];
+  /** Problems a user may override, e.g. a wrong check digit on an imported car. */
+  warnings: string[];
+}
+
+export const VIN_LENGTH = 17;
+
+// 49 CFR 565.15(c) Table III: letters to numeric values; digits stand for themselves.
+const TRANSLITERATION: Readonly<Record<string, number>> = {
+  A: 1,
+  B: 2,
+  C: 3,
+  D: 4,
+  E: 5,
+  F: 6,
+  G: 7,
+  H: 8,
+  J: 1,
+  K: 2,
+  L: 3,
+  M: 4,
+  N: 5,
+  P: 7,
+  R: 9,
+  S: 2,
+  T: 3,
+  U: 4,
+  V: 5,
+  W: 6,
+  X: 7,
+  Y: 8,
+  Z: 9,
+};
+
+// 49 CFR 565 Table V: position weights; position 9 (the check digit itself) weighs 0.
+const WEIGHTS = [8, 7, 6, 5, 4, 3, 2, 10, 0, 9, 8, 7, 6, 5, 4, 3, 2] as const;
+
+// 49 CFR 565.15(b): year codes in order from 1980 (and again from 2010), repeating every 30 years.
+const YEAR_CODES = 'ABCDEFGHJKLMNPRSTVWXY123456789';
+
+const CHECK_DIGIT_POSITION = 9;
+const YEAR_POSITION = 10;
+const YEAR_CYCLE_POSITION = 7;
+
+function transliterate(char: string): number | undefined {
+  if (/^[0-9]$/.test(char)) return Number(char);
+  return TRANSLITERATION[char];
+}
+
+/** The check digit for a 17-character VIN (position 9 is ignored), or null when a character has no value. */
+export function vinCheckDigit(vin: string): string | null {
+  if (vin.length !== VIN_LENGTH) return null;
+  let sum = 0;
+  for (let i = 0; i < VIN_LENGTH; i += 1) {
+    const value = transliterate(vin.charAt(i));
+    if (value === undefined) return null;
+    sum += value * (WEIGHTS[i] ?? 0);
+  }
+  const remainder = sum % 11;
+  return remainder === 10 ? 'X' : String(remainder);
+}
+
+/**
+ * Model year from position 10. Position 7 numeric → 1980–2009 cycle, letter → 2010–2039; that rule is defined
+ * for passenger cars, MPVs and light trucks, the vehicles a tuning shop sees.
+ */
+export function vinModelYear(vin: string): number | null {
+  const index = YEAR_CODES.indexOf(vin.charAt(YEAR_POSITION - 1));
+  const cycleChar = vin.charAt(YEAR_CYCLE_POSITION - 1);
+  if (index < 0 || cycleChar === '') return null;
+  return (/[0-9]/.test(cycleChar) ? 1980 : 2010) + index;
+}
+
+export function checkVin(input: string): VinCheck {
+  const vin = input.replace(/\s+/g, '').toUpperCase();
+  const errors: string[] = [];
+  const warnings: string[] = [];
+
+  if (vin.length !== VIN_LENGTH)
+    errors.push(`A VIN has ${VIN_LENGTH} characters; this one has ${vin.length}.`);
+  const forbidden = [...new Set(vin.match(/[IOQ]/g) ?? [])];
+  if (forbidden.length > 0)
+    errors.push(`A VIN never contains ${forbidden.join(', ')} (they look like 1 and 0).`);
+  const unknown = [...new Set(vin.match(/[^A-Z0-9]/g) ?? [])];
+  if (unknown.length > 0)
+    errors.push(
+      `A VIN holds only letters and digits; found ${unknown.map((c) => `"${c}"`).join(', ')}.`,
+    );
+
+  const checkChar = vin.charAt(CHECK_DIGIT_POSITION - 1);
+  if (vin.length === VIN_LENGTH && !/^[0-9X]$/.test(checkChar)) {
+    errors.push(
+      `Position ${CHECK_DIGIT_POSITION} is the check digit and must be 0–9 or X, not "${checkChar}".`,
+    );
+  }
+  const modelYear = vin.length === VIN_LENGTH ? vinModelYear(vin) : null;
+  if (vin.length === VIN_LENGTH && modelYear === null) {
+    errors.push(
+      `Position ${YEAR_POSITION} ("${vin.charAt(YEAR_POSITION - 1)}") is not a model-year code.`,
+    );
+  }
+
+  const wellFormed = errors.length === 0;
+  const expectedCheckDigit = wellFormed ? vinCheckDigit(vin) : null;
+  const checkDigitOk = expectedCheckDigit !== null && expectedCheckDigit === checkChar;
+  if (wellFormed && !checkDigitOk) {
+    warnings.push(
+      `Check digit is "${checkChar}" but the other characters give "${expectedCheckDigit}": check for a typo. ` +
+        'Vehicles built for markets outside North America may not use the check digit.',
+    );
+  }
+  return { vin, wellFormed, checkDigitOk, expectedCheckDigit, modelYear, errors, warnings };
+}
