@@ -1,0 +1,17 @@
+export { createMemoryImage, imageByteAt, imageByteCount, imageRanges, imagesEqual } from './memory-image';
+export type { AddressRange, ImageSegment, MemoryImage } from './memory-image';
+export { crc32, formatCrc32, imageCrc32 } from './crc32';
+export { parseIntelHex, toIntelHex } from './intel-hex';
+export type { IntelHexFile } from './intel-hex';
+export { parseSrec, toSrec } from './srec';
+export type { SrecAddressBytes, SrecFile, SrecWriteOptions } from './srec';
+export { detectFormat, parseCalibration } from './calibration-file';
+export type { CalibrationFormat, ParsedCalibration } from './calibration-file';
+export { diffImages, pageDiffRanges } from './image-diff';
+export type { DiffOptions, DiffPage, DiffRange, ImageDiff } from './image-diff';
+export { hexView } from './hex-view';
+export type { HexViewOptions, HexViewRow } from './hex-view';
+export { revisionDownloadName, safeUploadName, slug } from './file-names.rules';
+export type { RevisionNameParts } from './file-names.rules';
+export { generateCalibrationImage, reviseImage } from './demo-image';
+export type { DemoImageOptions, ReviseOptions } from './demo-image';
