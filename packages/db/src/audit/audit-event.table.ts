@@ -1,0 +1,14 @@
+import type { Insertable, Selectable } from 'kysely';
+
+export interface AuditEventTable {
+  id: string;
+  shop_id: string | null;
+  actor_user_id: string | null;
+  action: string;
+  subject_type: string;
+  subject_id: string | null;
+  details: string;
+  created_at: string;
+}
+export type AuditEventRow = Selectable<AuditEventTable>;
+export type InsertableAuditEventRow = Insertable<AuditEventTable>;

@@ -1,0 +1,17 @@
+import type { AuditEventTable } from './audit/audit-event.table';
+import type { DealerTable } from './dealers/dealer.table';
+import type { InvitationTable } from './invitations/invitation.table';
+import type { SessionTable } from './sessions/session.table';
+import type { ShopTable } from './shops/shop.table';
+import type { MembershipTable, PasswordResetTable, UserTable } from './users/user.table';
+
+export interface Database {
+  shops: ShopTable;
+  users: UserTable;
+  memberships: MembershipTable;
+  dealers: DealerTable;
+  sessions: SessionTable;
+  invitations: InvitationTable;
+  password_resets: PasswordResetTable;
+  audit_events: AuditEventTable;
+}

@@ -1,0 +1,17 @@
+import { Migrator, type Migration, type MigrationProvider } from 'kysely';
+import type { Db } from './client';
+import * as foundation from './migrations/2026-12-02-001-foundation';
+
+/** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
+const MIGRATIONS: Record<string, Migration> = {
+  '2026-12-02-001-foundation': foundation,
+};
+
+const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
+
+export async function migrateToLatest(db: Db): Promise<string[]> {
+  const migrator = new Migrator({ db, provider });
+  const { error, results } = await migrator.migrateToLatest();
+  if (error) throw error instanceof Error ? error : new Error(String(error));
+  return (results ?? []).filter((r) => r.status === 'Success').map((r) => r.migrationName);
+}
