@@ -1,7 +1,7 @@
 import { DomainError } from '../errors';
 import { ImageBuilder, hexAddress } from './memory-image';
 import type { MemoryImage } from './memory-image';
-import { bigEndianBytes, byteHex, byteSum, checkRecordLength, decodeHexDigits, formatRecord, lineError, readBigEndian, splitLines } from './record-text';
+import { bigEndianBytes, byteHex, byteSum, checkRecordLength, decodeHexDigits, forEachLine, lineError, readBigEndian, RecordWriter, twosComplement } from './record-text';
 
 export interface IntelHexFile {
   image: MemoryImage;
@@ -35,20 +35,16 @@ export function parseIntelHex(text: string): IntelHexFile {
   let startAddress: number | undefined;
   let endLine = 0;
   let records = 0;
-  const lines = splitLines(text);
-  for (let index = 0; index < lines.length; index += 1) {
-    const line = index + 1;
-    const record = lines[index]!.trimEnd();
-    if (record === '') continue;
+  forEachLine(text, (from, to, line) => {
     if (endLine > 0) throw lineError(line, `there is data after the end-of-file record on line ${endLine}.`);
-    if (record[0] !== ':') throw lineError(line, 'the record does not start with ":"; this is not an Intel HEX record.');
-    const bytes = decodeHexDigits(record, 1, line, scratch);
+    if (text[from] !== ':') throw lineError(line, 'the record does not start with ":"; this is not an Intel HEX record.');
+    const bytes = decodeHexDigits(text, from + 1, to, line, scratch);
     if (bytes.length < OVERHEAD) throw lineError(line, 'the record is truncated: too short to hold length, address, type and checksum.');
     const length = bytes[0]!;
     if (length !== bytes.length - OVERHEAD) {
       throw lineError(line, `the length byte says ${length} data bytes but the record holds ${bytes.length - OVERHEAD}; it is truncated or garbled.`);
     }
-    const expected = (0x100 - byteSum(bytes, 0, bytes.length - 1)) & 0xff;
+    const expected = twosComplement(byteSum(bytes, 0, bytes.length - 1));
     if (bytes[bytes.length - 1] !== expected) {
       throw lineError(line, `checksum ${byteHex(bytes[bytes.length - 1]!)} does not match the record (expected ${byteHex(expected)}).`);
     }
@@ -82,7 +78,7 @@ export function parseIntelHex(text: string): IntelHexFile {
         startAddress = readBigEndian(bytes, 4, 4);
         break;
     }
-  }
+  });
   if (records === 0) throw new DomainError('invalid_file', 'The file holds no Intel HEX records.');
   if (endLine === 0) {
     throw new DomainError('invalid_file', 'The file has no end-of-file record (:00000001FF); it may have been cut short.');
@@ -91,10 +87,8 @@ export function parseIntelHex(text: string): IntelHexFile {
   return startAddress === undefined ? { image } : { image, startAddress };
 }
 
-function record(type: number, offset: number, data: readonly number[] | Uint8Array): string {
-  const bytes = [data.length, ...bigEndianBytes(offset, 2), type, ...data];
-  const checksum = (0x100 - bytes.reduce((sum, byte) => sum + byte, 0)) & 0xff;
-  return formatRecord(':', [...bytes, checksum]);
+function record(writer: RecordWriter, type: number, offset: number, data: readonly number[] | Uint8Array): void {
+  writer.record(':', [data.length, ...bigEndianBytes(offset, 2), type], data, twosComplement);
 }
 
 /**
@@ -104,7 +98,7 @@ function record(type: number, offset: number, data: readonly number[] | Uint8Arr
  */
 export function toIntelHex(image: MemoryImage, { recordLength = 16 }: { recordLength?: number } = {}): string {
   checkRecordLength(recordLength, 255);
-  const lines: string[] = [];
+  const writer = new RecordWriter();
   let upper = 0;
   for (const segment of image.segments) {
     let position = 0;
@@ -112,15 +106,15 @@ export function toIntelHex(image: MemoryImage, { recordLength = 16 }: { recordLe
       const address = segment.start + position;
       const high = Math.floor(address / SEGMENT_SIZE);
       if (high !== upper) {
-        lines.push(record(0x04, 0, bigEndianBytes(high, 2)));
+        record(writer, 0x04, 0, bigEndianBytes(high, 2));
         upper = high;
       }
       const low = address % SEGMENT_SIZE;
       const count = Math.min(recordLength, segment.data.length - position, SEGMENT_SIZE - low);
-      lines.push(record(0x00, low, segment.data.subarray(position, position + count)));
+      record(writer, 0x00, low, segment.data.subarray(position, position + count));
       position += count;
     }
   }
-  lines.push(record(0x01, 0, []));
-  return `${lines.join('\n')}\n`;
+  record(writer, 0x01, 0, []);
+  return writer.toString();
 }

@@ -1,7 +1,7 @@
 import { DomainError } from '../errors';
 import { ImageBuilder, imageRanges } from './memory-image';
 import type { MemoryImage } from './memory-image';
-import { bigEndianBytes, byteHex, byteSum, checkRecordLength, decodeHexDigits, formatRecord, lineError, readBigEndian, splitLines } from './record-text';
+import { bigEndianBytes, byteHex, byteSum, checkRecordLength, decodeHexDigits, forEachLine, lineError, onesComplement, readBigEndian, RecordWriter } from './record-text';
 
 export type SrecAddressBytes = 2 | 3 | 4;
 
@@ -32,25 +32,21 @@ export function parseSrec(text: string): SrecFile {
   let endLine = 0;
   let dataRecords = 0;
   let records = 0;
-  const lines = splitLines(text);
-  for (let index = 0; index < lines.length; index += 1) {
-    const line = index + 1;
-    const record = lines[index]!.trimEnd();
-    if (record === '') continue;
+  forEachLine(text, (from, to, line) => {
     if (endLine > 0) throw lineError(line, `there is data after the end record on line ${endLine}.`);
-    if (record[0] !== 'S') throw lineError(line, 'the record does not start with "S"; this is not an S-record.');
-    const type = record[1] ?? '';
+    if (text[from] !== 'S') throw lineError(line, 'the record does not start with "S"; this is not an S-record.');
+    const type = from + 1 < to ? text[from + 1]! : '';
     if (type === '4') throw lineError(line, 'S4 is a reserved record type.');
     const addressBytes = ADDRESS_BYTES[type];
     if (addressBytes === undefined) throw lineError(line, `"S${type}" is not an S-record type (S0–S9).`);
-    const bytes = decodeHexDigits(record, 2, line, scratch);
+    const bytes = decodeHexDigits(text, from + 2, to, line, scratch);
     if (bytes.length < 1) throw lineError(line, 'the record is truncated: it has no length byte.');
     const count = bytes[0]!;
     if (count !== bytes.length - 1) {
       throw lineError(line, `the length byte says ${count} bytes follow but the record holds ${bytes.length - 1}; it is truncated or garbled.`);
     }
     if (count < addressBytes + 1) throw lineError(line, `the record is truncated: an S${type} record needs ${addressBytes} address bytes and a checksum.`);
-    const expected = ~byteSum(bytes, 0, bytes.length - 1) & 0xff;
+    const expected = onesComplement(byteSum(bytes, 0, bytes.length - 1));
     if (bytes[bytes.length - 1] !== expected) {
       throw lineError(line, `checksum ${byteHex(bytes[bytes.length - 1]!)} does not match the record (expected ${byteHex(expected)}).`);
     }
@@ -77,7 +73,7 @@ export function parseSrec(text: string): SrecFile {
         startAddress = address;
         endLine = line;
     }
-  }
+  });
   if (records === 0) throw new DomainError('invalid_file', 'The file holds no S-records.');
   if (endLine === 0) throw new DomainError('invalid_file', 'The file has no S7/S8/S9 end record; it may have been cut short.');
   const result: SrecFile = { image: builder.build() };
@@ -95,10 +91,8 @@ export interface SrecWriteOptions {
   recordLength?: number;
 }
 
-function record(type: string, address: number, addressBytes: number, data: readonly number[] | Uint8Array): string {
-  const bytes = [addressBytes + data.length + 1, ...bigEndianBytes(address, addressBytes), ...data];
-  const checksum = ~bytes.reduce((sum, byte) => sum + byte, 0) & 0xff;
-  return formatRecord(`S${type}`, [...bytes, checksum]);
+function record(writer: RecordWriter, type: string, address: number, addressBytes: number, data: readonly number[] | Uint8Array): void {
+  writer.record(`S${type}`, [addressBytes + data.length + 1, ...bigEndianBytes(address, addressBytes)], data, onesComplement);
 }
 
 function narrowestAddressBytes(lastAddress: number): SrecAddressBytes {
@@ -127,18 +121,18 @@ export function toSrec(image: MemoryImage, options: SrecWriteOptions = {}): stri
   const maxData = 255 - addressBytes - 1;
   const recordLength = options.recordLength ?? 16;
   checkRecordLength(recordLength, maxData);
-  const lines: string[] = [];
-  if (options.header !== undefined) lines.push(record('0', 0, 2, headerBytes(options.header, 255 - 3)));
+  const writer = new RecordWriter();
+  if (options.header !== undefined) record(writer, '0', 0, 2, headerBytes(options.header, 255 - 3));
   let dataRecords = 0;
   for (const segment of image.segments) {
     for (let position = 0; position < segment.data.length; position += recordLength) {
       const chunk = segment.data.subarray(position, position + recordLength);
-      lines.push(record(DATA_TYPE[addressBytes], segment.start + position, addressBytes, chunk));
+      record(writer, DATA_TYPE[addressBytes], segment.start + position, addressBytes, chunk);
       dataRecords += 1;
     }
   }
-  if (dataRecords <= 0xffff) lines.push(record('5', dataRecords, 2, []));
-  else if (dataRecords <= 0xff_ffff) lines.push(record('6', dataRecords, 3, []));
-  lines.push(record(END_TYPE[addressBytes], 0, addressBytes, []));
-  return `${lines.join('\n')}\n`;
+  if (dataRecords <= 0xffff) record(writer, '5', dataRecords, 2, []);
+  else if (dataRecords <= 0xff_ffff) record(writer, '6', dataRecords, 3, []);
+  record(writer, END_TYPE[addressBytes], 0, addressBytes, []);
+  return writer.toString();
 }
