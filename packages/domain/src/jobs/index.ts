@@ -1,0 +1,2 @@
+export * from './job-states';
+export * from './job-machine';

@@ -1,0 +1,252 @@
+import type { Actor } from '../auth/roles';
+import { DomainError } from '../errors';
+import { JOB_STATE_LABELS, type JobState, isOpenState } from './job-states';
+
+/** What the state machine needs to know about a job; the API derives the flags from its rows. */
+export interface JobFacts {
+  state: JobState;
+  /** The state a job on hold returns to; null unless `state` is `on_hold`. */
+  heldFrom: JobState | null;
+  /** Revisions sent to the customer so far: 0 until Rev 1 goes out. */
+  round: number;
+  assignedTunerId: string | null;
+  customerUserId: string;
+  dealerId: string | null;
+  /** A stock read is on file (set by file upload, or recorded by hand by a tuner). */
+  hasStockRead: boolean;
+  /** The revision being prepared on the bench (number round + 1) is uploaded. */
+  hasRevisionForRound: boolean;
+  /** A datalog for the revision now on the car (number round) is uploaded. */
+  hasLogForRound: boolean;
+}
+
+export type Audience = 'customer' | 'dealer' | 'shop';
+
+export interface AvailableTransition {
+  to: JobState;
+  /** Button text for the move. */
+  label: string;
+}
+
+type Who = 'owner' | 'tuner' | 'assigned_tuner' | 'job_customer' | 'job_dealer';
+
+interface Move {
+  from: JobState;
+  to: JobState;
+  label: string;
+  who: readonly Who[];
+  /** Null when the move can be made now, else the reason it cannot. */
+  guard?: (facts: JobFacts) => string | null;
+}
+
+export const canMarkReady = (facts: JobFacts): boolean =>
+  facts.state === 'intake' && facts.hasStockRead;
+export const canSendRevision = (facts: JobFacts): boolean =>
+  facts.state === 'on_bench' && facts.hasRevisionForRound;
+export const canStartLogReview = (facts: JobFacts): boolean =>
+  facts.state === 'with_customer' && facts.hasLogForRound;
+export const canResume = (facts: JobFacts): boolean =>
+  facts.state === 'on_hold' &&
+  facts.heldFrom !== null &&
+  isOpenState(facts.heldFrom) &&
+  facts.heldFrom !== 'on_hold';
+
+const SHOP_STAFF: readonly Who[] = ['owner', 'tuner'];
+const BENCH_STAFF: readonly Who[] = ['owner', 'assigned_tuner'];
+
+const FORWARD_MOVES: readonly Move[] = [
+  {
+    from: 'intake',
+    to: 'ready',
+    label: 'Mark ready',
+    who: SHOP_STAFF,
+    guard: (f) => (canMarkReady(f) ? null : 'The stock read has not been received yet.'),
+  },
+  { from: 'ready', to: 'on_bench', label: 'Start work', who: SHOP_STAFF },
+  {
+    from: 'on_bench',
+    to: 'with_customer',
+    label: 'Send revision',
+    who: BENCH_STAFF,
+    guard: (f) => (canSendRevision(f) ? null : `Upload revision ${f.round + 1} before sending it.`),
+  },
+  {
+    from: 'with_customer',
+    to: 'log_review',
+    label: 'Submit log for review',
+    who: [...SHOP_STAFF, 'job_customer', 'job_dealer'],
+    guard: (f) =>
+      canStartLogReview(f) ? null : `No datalog has been uploaded for revision ${f.round} yet.`,
+  },
+  { from: 'log_review', to: 'on_bench', label: 'Revise again', who: BENCH_STAFF },
+  { from: 'log_review', to: 'dialed_in', label: 'Mark dialed in', who: BENCH_STAFF },
+];
+
+/** Every move from `facts.state`, forward moves first, then hold/resume and cancel. */
+function movesFrom(facts: JobFacts): Move[] {
+  const { state } = facts;
+  if (!isOpenState(state)) return [];
+  const moves = FORWARD_MOVES.filter((move) => move.from === state);
+  if (state === 'on_hold') {
+    if (facts.heldFrom !== null) {
+      moves.push({
+        from: state,
+        to: facts.heldFrom,
+        label: 'Resume',
+        who: SHOP_STAFF,
+        guard: (f) => (canResume(f) ? null : 'This job does not know which state to resume to.'),
+      });
+    }
+  } else {
+    moves.push({ from: state, to: 'on_hold', label: 'Put on hold', who: SHOP_STAFF });
+  }
+  const cancellers: Who[] =
+    state === 'intake' ? ['owner', 'job_customer', 'job_dealer'] : ['owner'];
+  moves.push({ from: state, to: 'cancelled', label: 'Cancel job', who: cancellers });
+  return moves;
+}
+
+function actorIs(who: Who, facts: JobFacts, actor: Actor): boolean {
+  switch (who) {
+    case 'owner':
+      return actor.role === 'owner';
+    case 'tuner':
+      // A tuner works on jobs assigned to them or not yet assigned (the same scope as the abilities).
+      return (
+        actor.role === 'tuner' &&
+        (facts.assignedTunerId === null || facts.assignedTunerId === actor.userId)
+      );
+    case 'assigned_tuner':
+      return actor.role === 'tuner' && facts.assignedTunerId === actor.userId;
+    case 'job_customer':
+      return actor.role === 'customer' && actor.userId === facts.customerUserId;
+    case 'job_dealer':
+      return (
+        actor.role === 'dealer' && actor.dealerId !== null && actor.dealerId === facts.dealerId
+      );
+  }
+}
+
+/** Why this actor may not move any job at all, or null. */
+function actorBlock(actor: Actor): DomainError | null {
+  if (actor.platformAdmin || actor.role === null) {
+    return new DomainError('forbidden', 'Only members of the shop can move its jobs.');
+  }
+  if (actor.shopReadOnly) {
+    return new DomainError(
+      'shop_read_only',
+      'This shop is read-only, so its jobs cannot be moved.',
+    );
+  }
+  return null;
+}
+
+const mayMake = (move: Move, facts: JobFacts, actor: Actor): boolean =>
+  actorBlock(actor) === null && move.who.some((who) => actorIs(who, facts, actor));
+
+/** Moves this actor can make now: allowed for their role and with every precondition met. */
+export function availableTransitions(facts: JobFacts, actor: Actor): AvailableTransition[] {
+  return movesFrom(facts)
+    .filter((move) => mayMake(move, facts, actor) && (move.guard?.(facts) ?? null) === null)
+    .map(({ to, label }) => ({ to, label }));
+}
+
+/**
+ * Throws unless `actor` may move the job to `to` now: 'invalid_transition' for a move the job cannot make
+ * (or whose precondition is unmet), 'forbidden' for one this actor may not make, 'shop_read_only' in a
+ * read-only shop.
+ */
+export function assertTransition(facts: JobFacts, actor: Actor, to: JobState): void {
+  const from = JOB_STATE_LABELS[facts.state];
+  const move = movesFrom(facts).find((candidate) => candidate.to === to);
+  if (!move) {
+    throw new DomainError(
+      'invalid_transition',
+      `A job in ${from} cannot move to ${JOB_STATE_LABELS[to]}.`,
+    );
+  }
+  const blocked = actorBlock(actor);
+  if (blocked) throw blocked;
+  if (!mayMake(move, facts, actor)) {
+    throw new DomainError(
+      'forbidden',
+      `You may not move this job from ${from} to ${JOB_STATE_LABELS[to]}.`,
+    );
+  }
+  const unmet = move.guard?.(facts) ?? null;
+  if (unmet !== null) throw new DomainError('invalid_transition', unmet);
+}
+
+/**
+ * The job's facts after moving to `to` (call `assertTransition` first). Sending a revision starts the
+ * next round; holding remembers where to resume. Pass the actor so a tuner who starts an unassigned job
+ * takes it.
+ */
+export function applyTransition(facts: JobFacts, to: JobState, actor?: Actor): JobFacts {
+  const next: JobFacts = { ...facts, state: to, heldFrom: to === 'on_hold' ? facts.state : null };
+  if (facts.state === 'on_bench' && to === 'with_customer') {
+    next.round = facts.round + 1;
+    next.hasRevisionForRound = false;
+    next.hasLogForRound = false;
+  }
+  if (to === 'on_bench' && facts.assignedTunerId === null && actor?.role === 'tuner') {
+    next.assignedTunerId = actor.userId;
+  }
+  return next;
+}
+
+/** One plain sentence telling this audience what happens next. */
+export function nextStep(facts: JobFacts, audience: Audience): string {
+  const { state, round } = facts;
+  const coming = round + 1;
+  if (audience === 'shop') {
+    switch (state) {
+      case 'intake':
+        return facts.hasStockRead
+          ? 'The stock read is in: mark the job ready.'
+          : 'Waiting for the stock read.';
+      case 'ready':
+        return 'Waiting for a tuner: start work to put it on the bench.';
+      case 'on_bench':
+        return facts.hasRevisionForRound
+          ? `Revision ${coming} is uploaded: send it to the customer.`
+          : `Prepare revision ${coming}${round > 0 ? ` from the log of revision ${round}` : ''}.`;
+      case 'with_customer':
+        return facts.hasLogForRound
+          ? `The log for revision ${round} is in: start the log review.`
+          : `Waiting for the customer to flash revision ${round} and send a log.`;
+      case 'log_review':
+        return `Review the log for revision ${round}, then revise again or mark the job dialed in.`;
+      case 'dialed_in':
+        return `Done: revision ${round} is the final calibration.`;
+      case 'on_hold':
+        return `On hold${facts.heldFrom ? ` from ${JOB_STATE_LABELS[facts.heldFrom]}` : ''}: resume when the payment or information arrives.`;
+      case 'cancelled':
+        return 'This job was cancelled.';
+    }
+  }
+  const forDealer = audience === 'dealer';
+  const car = forDealer ? "the customer's vehicle" : 'your vehicle';
+  switch (state) {
+    case 'intake':
+      return `Read the calibration off ${car} and upload it as the stock read.`;
+    case 'ready':
+      return 'The stock read is in; a tuner will start work on it soon.';
+    case 'on_bench':
+      return round === 0
+        ? 'A tuner is preparing revision 1.'
+        : `A tuner is preparing revision ${coming} from the log of revision ${round}.`;
+    case 'with_customer':
+      return forDealer
+        ? `Have the customer flash revision ${round}, warm up, then log as requested.`
+        : `Flash revision ${round}, warm up, then log as requested.`;
+    case 'log_review':
+      return `The log for revision ${round} is being reviewed.`;
+    case 'dialed_in':
+      return `Finished: revision ${round} is the final calibration.`;
+    case 'on_hold':
+      return 'The job is on hold: check the messages for what the shop needs.';
+    case 'cancelled':
+      return 'This job was cancelled.';
+  }
+}
