@@ -1,0 +1,16 @@
+import { z } from 'zod';
+import { CANONICAL_CHANNELS } from './channels';
+
+/** `--vehicle vehicle.json` and the API's vehicle facts for gear detection. */
+export const datalogVehicleSchema = z.object({
+  gearRatios: z.array(z.number().positive()).min(1),
+  finalDrive: z.number().positive(),
+  tyreSize: z.string().min(1),
+});
+
+export const logRequestSchema = z.object({
+  channels: z.array(z.enum(CANONICAL_CHANNELS)),
+  warmupMinutes: z.number().min(0).max(60),
+  wotGears: z.number().int().min(1).max(10),
+  notes: z.string().max(2000),
+});

@@ -1,0 +1,99 @@
+import type { CanonicalChannel } from './channels';
+
+/** Every threshold the analysis uses; callers override single fields. Sources in the comments ([CP] = common practice). */
+export interface AnalysisSettings {
+  /** Below this the engine is off or cranking; idle is 600–900 rpm [CP]. */
+  engineRunningRpm: number;
+  /** Coolant at or above this is a warm engine: REFERENCES "warm engine" 80–105 °C [CP]. */
+  warmCoolantC: number;
+  /** Pedal (or throttle) at or above this is full throttle, "pedal on the floor" [CP]. */
+  wotThresholdPct: number;
+  /** Shortest full-throttle stretch that counts as a pull. */
+  wotMinDurationS: number;
+  /** Pedal dips shorter than this do not split a pull (a foot wobble, a logger hiccup). */
+  wotGapS: number;
+  /** First part of a pull left out of the lambda comparison: the tip-in transient while the wideband catches up. */
+  wotSettleS: number;
+  /** A sustained pedal above this that never reaches full throttle is a half-hearted pull. */
+  partialPedalPct: number;
+  wotRpmBinWidth: number;
+  wotMinSamplesPerBin: number;
+  /** Target when commanded lambda is not logged: NA gasoline 0.85–0.90 (REFERENCES "full-throttle λ target") [CP]. */
+  wotDefaultTargetLambda: number;
+  /** Trim grid: 500 rpm × 10 kPa cells [CP]. */
+  trimRpmBinWidth: number;
+  trimMapBinWidthKpa: number;
+  /** Fewer samples than this in a cell is noise, not a trend. */
+  trimMinSamples: number;
+  /** Closed loop means commanded λ within this of 1 (where commanded λ is logged). */
+  closedLoopLambdaTolerance: number;
+  /** Pedal at or below this with rpm above decelMinRpm is a coast-down, often with fuel cut. */
+  decelPedalPct: number;
+  decelMinRpm: number;
+  /** Measured λ above this means the injectors are off (fuel cut). */
+  fuelCutLambda: number;
+  /** Knock samples closer than this belong to one burst. */
+  knockGapS: number;
+  /** Relative ratio mismatch allowed when the gear is worked out from rpm and road speed. */
+  gearTolerance: number;
+  /** A gear counts in a pull when it was held at least this long. */
+  gearMinS: number;
+  /** A channel stuck on one value this long while rpm swings by flatlineRpmSwing is a dead sensor. */
+  flatlineMinS: number;
+  flatlineRpmSwing: number;
+  /** Temperatures change slowly: stuck for the whole drive and at least this long. */
+  temperatureFlatlineMinS: number;
+  /** Blank runs or time gaps at least this long are dropouts. */
+  dropoutMinS: number;
+  /** Samples outside the physical range needed before a channel is flagged (one spike is not a sensor fault). */
+  outOfRangeMinSamples: number;
+  /** Physical limits per channel in canonical units. */
+  physicalLimits: Partial<Record<CanonicalChannel, readonly [number, number]>>;
+}
+
+export const DEFAULT_ANALYSIS_SETTINGS: Readonly<AnalysisSettings> = {
+  engineRunningRpm: 400,
+  warmCoolantC: 80,
+  wotThresholdPct: 95,
+  wotMinDurationS: 1.5,
+  wotGapS: 0.3,
+  wotSettleS: 0.3,
+  partialPedalPct: 40,
+  wotRpmBinWidth: 500,
+  wotMinSamplesPerBin: 3,
+  wotDefaultTargetLambda: 0.85,
+  trimRpmBinWidth: 500,
+  trimMapBinWidthKpa: 10,
+  trimMinSamples: 20,
+  closedLoopLambdaTolerance: 0.03,
+  decelPedalPct: 1,
+  decelMinRpm: 1500,
+  fuelCutLambda: 1.3,
+  knockGapS: 0.5,
+  gearTolerance: 0.05,
+  gearMinS: 0.5,
+  flatlineMinS: 60,
+  flatlineRpmSwing: 1000,
+  temperatureFlatlineMinS: 300,
+  dropoutMinS: 0.5,
+  outOfRangeMinSamples: 3,
+  // Sensor and physical ranges: OBD-II scaling limits (SAE J1979) and what an engine can do [CP].
+  physicalLimits: {
+    rpm: [0, 12000],
+    vehicle_speed: [0, 400],
+    coolant_temp: [-40, 150],
+    intake_air_temp: [-40, 120],
+    map: [10, 400],
+    maf: [0, 655.35],
+    throttle_pos: [-1, 101],
+    pedal_pos: [-1, 101],
+    stft_b1: [-100, 100],
+    ltft_b1: [-100, 100],
+    stft_b2: [-100, 100],
+    ltft_b2: [-100, 100],
+    lambda_cmd: [0.5, 1.6],
+    lambda_meas: [0.5, 1.6],
+    knock_retard: [0, 30],
+    spark_advance: [-64, 64],
+  },
+};
