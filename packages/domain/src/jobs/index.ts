@@ -1,2 +1,3 @@
 export * from './job-states';
 export * from './job-machine';
+export * from './job.schemas';

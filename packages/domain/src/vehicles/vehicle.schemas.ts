@@ -68,7 +68,8 @@ const vinSchema = z
     return errors.length === 0 ? vin : z.NEVER;
   });
 
-const tyreSizeSchema = z
+/** A tyre size, normalised to its plain designation (e.g. "P245/40ZR20 95Y" → "245/40R20"). */
+export const tyreSizeSchema = z
   .string()
   .trim()
   .transform((value, ctx) => {
