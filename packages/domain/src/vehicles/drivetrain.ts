@@ -51,7 +51,8 @@ export function gearFromRpmAndSpeed(
 ): number | null {
   if (gearRatios.length === 0)
     throw new DomainError('validation', 'At least one gear ratio is needed to detect the gear.');
-  gearRatios.forEach((ratio, i) => assertPositive(`Gear ${i + 1} ratio`, ratio));
+  const badGear = gearRatios.findIndex((ratio) => !(Number.isFinite(ratio) && ratio > 0));
+  if (badGear >= 0) assertPositive(`Gear ${badGear + 1} ratio`, gearRatios[badGear] ?? Number.NaN);
   assertGearing(1, finalDrive, tyreCircumferenceMm);
   assertPositive('Gear tolerance', tolerance);
   if (

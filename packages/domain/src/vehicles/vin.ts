@@ -15,32 +15,12 @@ export interface VinCheck {
 
 export const VIN_LENGTH = 17;
 
-// 49 CFR 565.15(c) Table III: letters to numeric values; digits stand for themselves.
-const TRANSLITERATION: Readonly<Record<string, number>> = {
-  A: 1,
-  B: 2,
-  C: 3,
-  D: 4,
-  E: 5,
-  F: 6,
-  G: 7,
-  H: 8,
-  J: 1,
-  K: 2,
-  L: 3,
-  M: 4,
-  N: 5,
-  P: 7,
-  R: 9,
-  S: 2,
-  T: 3,
-  U: 4,
-  V: 5,
-  W: 6,
-  X: 7,
-  Y: 8,
-  Z: 9,
-};
+// 49 CFR 565.15(c) Table III: letters to numeric values, written as the table prints them; digits stand for themselves.
+const TRANSLITERATION: ReadonlyMap<string, number> = new Map(
+  'A1 B2 C3 D4 E5 F6 G7 H8 J1 K2 L3 M4 N5 P7 R9 S2 T3 U4 V5 W6 X7 Y8 Z9'
+    .split(' ')
+    .map((pair) => [pair.charAt(0), Number(pair.charAt(1))]),
+);
 
 // 49 CFR 565 Table V: position weights; position 9 (the check digit itself) weighs 0.
 const WEIGHTS = [8, 7, 6, 5, 4, 3, 2, 10, 0, 9, 8, 7, 6, 5, 4, 3, 2] as const;
@@ -54,7 +34,7 @@ const YEAR_CYCLE_POSITION = 7;
 
 function transliterate(char: string): number | undefined {
   if (/^[0-9]$/.test(char)) return Number(char);
-  return TRANSLITERATION[char];
+  return TRANSLITERATION.get(char);
 }
 
 /** The check digit for a 17-character VIN (position 9 is ignored), or null when a character has no value. */
