@@ -125,6 +125,8 @@ describe('stripe fake: checkout in payment mode', () => {
     expect(refunds.data.map((r) => r.amount)).toEqual([5500, 2000]);
     await h.fake.control.settle();
     const refundedEvents = h.receiver.ofType('charge.refunded').map((w) => w.event.data.object as Stripe.Charge);
+    const [firstRefunded] = h.receiver.ofType('charge.refunded');
+    expect(firstRefunded?.event.request).toMatchObject({ id: expect.stringMatching(/^req_/), idempotency_key: expect.any(String) });
     expect(refundedEvents.map((c) => [c.amount_refunded, c.refunded])).toEqual([
       [2000, false],
       [7500, true],

@@ -68,7 +68,8 @@ function matches(query: Params, name: string, value: unknown): boolean {
 
 export function apiRouter(state: FakeState, publicUrl: (req: Request) => string): Router {
   const router = Router();
-  router.use(withRequestContext, authenticate, express.urlencoded({ extended: true, limit: '1mb' }), idempotency(state));
+  // The context starts after body parsing: parser callbacks would otherwise run outside it.
+  router.use(authenticate, express.urlencoded({ extended: true, limit: '1mb' }), withRequestContext, idempotency(state));
 
   const lineItemsOf = (session: FakeCheckoutSession): ListObject<FakeLineItem> => ({
     object: 'list',
