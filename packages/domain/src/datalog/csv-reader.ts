@@ -135,11 +135,15 @@ function tryCandidate(lines: { text: string }[], headerIndex: number, delimiter:
   const dataLines = lines.slice(dataIndex, dataIndex + DATA_LINES_CHECKED);
   if (dataLines.length === 0) return 'header_only';
   let good = 0;
+  let judged = 0;
   let commaDecimals = 0;
   let dotDecimals = 0;
   for (const line of dataLines) {
     const cells = splitFields(line.text, delimiter);
-    if (cells.length < 2 || cells.length > width + 1) continue;
+    // Single-cell lines are comments or footers ("End of log"), not evidence either way.
+    if (cells.length < 2) continue;
+    judged++;
+    if (cells.length > width + 1) continue;
     const filled = cells.filter((c) => c !== '');
     const numeric = filled.filter(isNumber);
     if (numeric.length === 0 || numeric.length < filled.length / 2) continue;
@@ -149,7 +153,7 @@ function tryCandidate(lines: { text: string }[], headerIndex: number, delimiter:
       else if (/\d\.\d/.test(c)) dotDecimals++;
     }
   }
-  if (good < Math.max(1, dataLines.length * 0.8)) return null;
+  if (good === 0 || good < judged * 0.8) return null;
   return { delimiter, headerIndex, unitsRow, dataIndex, width, decimalComma: delimiter !== ',' && commaDecimals > dotDecimals };
 }
 
@@ -307,7 +311,8 @@ export function parseCsvColumns(
         if (valid && digits > 0) {
           value = fractionDigits < POW10.length ? mantissa / (POW10[fractionDigits] as number) : mantissa / 10 ** fractionDigits;
           value += clock;
-          if (exponent !== 0) value *= 10 ** exponent;
+          if (exponent > 0) value *= 10 ** exponent;
+          else if (exponent < 0) value /= 10 ** -exponent;
           if (negative) value = -value;
           numericCells++;
         }

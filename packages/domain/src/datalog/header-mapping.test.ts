@@ -1,0 +1,64 @@
+import { describe, expect, it } from 'vitest';
+import { DomainError } from '../errors';
+import { headerSignature, mapHeaders } from './header-mapping';
+
+const headerOf = (headers: string[], overrides?: Record<string, string>) => {
+  const mapping = mapHeaders(headers, overrides);
+  return Object.fromEntries(Object.entries(mapping.channels).map(([c, m]) => [c, m.header]));
+};
+
+describe('mapHeaders', () => {
+  it('reads OBD-II PID names (SAE J1979 titles)', () => {
+    const headers = [
+      'Time (s)', 'Engine RPM', 'Vehicle speed (km/h)', 'Calculated load (%)', 'Intake manifold absolute pressure (kPa)',
+      'Short term fuel trim—Bank 1 (%)', 'Long term fuel trim—Bank 1 (%)', 'Short term fuel trim—Bank 2 (%)',
+      'Absolute throttle position (%)', 'Accelerator pedal position D (%)', 'Accelerator pedal position E (%)', 'Commanded equivalence ratio',
+    ];
+    expect(headerOf(headers)).toEqual({
+      time: 'Time (s)', rpm: 'Engine RPM', vehicle_speed: 'Vehicle speed (km/h)', engine_load: 'Calculated load (%)',
+      map: 'Intake manifold absolute pressure (kPa)', stft_b1: 'Short term fuel trim—Bank 1 (%)', ltft_b1: 'Long term fuel trim—Bank 1 (%)',
+      stft_b2: 'Short term fuel trim—Bank 2 (%)', throttle_pos: 'Absolute throttle position (%)',
+      pedal_pos: 'Accelerator pedal position D (%)', lambda_cmd: 'Commanded equivalence ratio',
+    });
+  });
+
+  it('reads abbreviations, bank suffixes and units in brackets or as a last word', () => {
+    const mapping = mapHeaders(['Time', 'RPM', 'ECT', 'IAT [°F]', 'Boost psi', 'STFT1', 'LTFT B1', 'STFT B2 (%)', 'Lambda', 'AFR Target', 'KR', 'Gear']);
+    const c = mapping.channels;
+    expect(c.coolant_temp?.header).toBe('ECT');
+    expect(c.intake_air_temp?.unitText).toBe('°F');
+    expect(c.map).toMatchObject({ header: 'Boost psi', unitText: 'psi', gauge: true });
+    expect(c.stft_b1?.header).toBe('STFT1');
+    expect(c.ltft_b1?.header).toBe('LTFT B1');
+    expect(c.stft_b2?.header).toBe('STFT B2 (%)');
+    expect(c.lambda_meas).toMatchObject({ header: 'Lambda', lambdaUnit: 'lambda' });
+    expect(c.lambda_cmd).toMatchObject({ header: 'AFR Target', lambdaUnit: 'afr' });
+    expect(c.knock_retard?.header).toBe('KR');
+    expect(c.gear?.header).toBe('Gear');
+    expect(mapping.unmapped).toEqual([]);
+  });
+
+  it('reads "MAP (psi)" as absolute and "Vehicle Speed (mph)" in mph', () => {
+    const c = mapHeaders(['Time', 'MAP (psi)', 'Vehicle Speed (mph)', 'Engine Speed (rpm)']).channels;
+    expect(c.map).toMatchObject({ unitText: 'psi', gauge: false });
+    expect(c.vehicle_speed?.unitText).toBe('mph');
+    expect(c.rpm?.header).toBe('Engine Speed (rpm)');
+  });
+
+  it('lets overrides win, including afr_* aliases, and rejects unknown names plainly', () => {
+    const mapping = mapHeaders(['t', 'Engine RPM', 'WB1', 'Lambda'], { time: 't', afr_meas: 'WB1' });
+    expect(mapping.channels.lambda_meas).toMatchObject({ header: 'WB1', lambdaUnit: 'afr' });
+    expect(mapping.unmapped).toEqual(['Lambda']);
+    expect(() => mapHeaders(['a', 'b'], { speedo: 'a' })).toThrow(DomainError);
+    expect(() => mapHeaders(['a', 'b'], { rpm: 'c' })).toThrow(/no column "c"/);
+  });
+});
+
+describe('headerSignature', () => {
+  it('ignores case, quotes and spacing but not the columns or their order', () => {
+    const a = headerSignature(['Time (s)', 'Engine RPM']);
+    expect(headerSignature(['"time (s)"', '  engine   rpm '])).toBe(a);
+    expect(headerSignature(['Engine RPM', 'Time (s)'])).not.toBe(a);
+    expect(a).toMatch(/^hdr1-[0-9a-f]{16}$/);
+  });
+});
