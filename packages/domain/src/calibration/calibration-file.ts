@@ -31,11 +31,16 @@ function extensionOf(fileName: string | undefined): string {
 
 // Control bytes other than tab, LF, FF and CR never occur in text, and an erased-flash 0xFF never occurs
 // in UTF-8, so either marks a binary image.
+const BINARY_BYTE = (() => {
+  const table = new Uint8Array(256);
+  for (let byte = 0; byte < 0x20; byte += 1) table[byte] = 1;
+  for (const allowed of [0x09, 0x0a, 0x0c, 0x0d]) table[allowed] = 0;
+  table[0x7f] = 1;
+  return table;
+})();
+
 function isText(bytes: Uint8Array): boolean {
-  for (let i = 0; i < bytes.length; i += 1) {
-    const byte = bytes[i]!;
-    if ((byte < 0x20 && byte !== 0x09 && byte !== 0x0a && byte !== 0x0c && byte !== 0x0d) || byte === 0x7f) return false;
-  }
+  for (let i = 0; i < bytes.length; i += 1) if (BINARY_BYTE[bytes[i]!] === 1) return false;
   try {
     utf8.decode(bytes);
     return true;

@@ -20,6 +20,7 @@ describe('parseIntelHex', () => {
     // same records as above; line-end tolerance is common practice among parsers (nrf-intel-hex README) [CP]
     const crlf = parseIntelHex(`${EXAMPLE.toLowerCase().replace(/\n/g, '\r\n')}\r\n`);
     expect(imagesEqual(crlf.image, parseIntelHex(EXAMPLE).image)).toBe(true);
+    expect(imagesEqual(parseIntelHex(EXAMPLE.replace(/\n/g, '\r')).image, crlf.image)).toBe(true);
   });
 
   it('applies extended linear (04) and extended segment (02) addresses and reads start addresses (03, 05)', () => {
