@@ -11,3 +11,4 @@ export type * from './report';
 export { readDatalog, type DatalogSeries, type ReadDatalogOptions } from './series';
 export { DEFAULT_ANALYSIS_SETTINGS, type AnalysisSettings } from './settings';
 export { STANDARD_ATMOSPHERE_KPA, unitConversion } from './units';
+export { trimGridToCsv, wotTableToCsv } from './report-export';

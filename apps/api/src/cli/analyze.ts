@@ -1,0 +1,72 @@
+// `npm run -s analyze -- FILE.csv [--fuel …] [--map channel=header …] [--vehicle vehicle.json]`: report JSON on stdout.
+// Exit 0 on success, 2 with one line on stderr for unreadable input or bad options, 1 for a bug.
+import { readFileSync } from 'node:fs';
+import { parseArgs } from 'node:util';
+import { analyzeDatalog, datalogVehicleSchema, type AnalyzeOptions } from '@revloop/domain/datalog';
+import { isDomainError } from '@revloop/domain';
+import { parseFuelOption } from '@revloop/domain/vehicles';
+
+const USAGE = 'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
+
+class UsageError extends Error {}
+
+function readInput(path: string, what: string): Buffer {
+  try {
+    return readFileSync(path);
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : String(code ?? error);
+    throw new UsageError(`cannot read ${what} "${path}": ${reason}`);
+  }
+}
+
+function parseMap(pairs: string[]): Record<string, string> {
+  return Object.fromEntries(
+    pairs.map((pair) => {
+      const at = pair.indexOf('=');
+      if (at <= 0) throw new UsageError(`--map needs <channel>=<header>, got "${pair}"`);
+      return [pair.slice(0, at).trim(), pair.slice(at + 1).trim()];
+    }),
+  );
+}
+
+function parseVehicle(path: string): AnalyzeOptions['vehicle'] {
+  let json: unknown;
+  try {
+    json = JSON.parse(readInput(path, 'vehicle file').toString('utf8'));
+  } catch (error) {
+    if (error instanceof UsageError) throw error;
+    throw new UsageError(`vehicle file "${path}" is not valid JSON`);
+  }
+  const parsed = datalogVehicleSchema.safeParse(json);
+  if (!parsed.success) {
+    throw new UsageError(`vehicle file "${path}" needs { gearRatios: number[], finalDrive: number, tyreSize: "245/40R20" }`);
+  }
+  return parsed.data;
+}
+
+function main(argv: string[]): number {
+  try {
+    const { values, positionals } = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      options: { fuel: { type: 'string' }, map: { type: 'string', multiple: true }, vehicle: { type: 'string' } },
+    });
+    const [file, ...extra] = positionals;
+    if (file === undefined || extra.length > 0) throw new UsageError(USAGE);
+    const options: AnalyzeOptions = { map: parseMap(values.map ?? []) };
+    if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
+    if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
+    const bytes = readInput(file, 'log');
+    const report = analyzeDatalog(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), options);
+    process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+    return 0;
+  } catch (error) {
+    const known = error instanceof UsageError || isDomainError(error) || (error as { code?: string }).code?.startsWith('ERR_PARSE_ARGS');
+    if (!known) throw error;
+    process.stderr.write(`analyze: ${(error as Error).message.replace(/\s*\n\s*/g, ' ')}\n`);
+    return 2;
+  }
+}
+
+process.exitCode = main(process.argv.slice(2));
