@@ -76,6 +76,12 @@ describe('stripe fake: errors', () => {
     expect(raw.body).toEqual({ error: { type: 'invalid_request_error', code: 'resource_missing', message: "No such subscription: 'sub_missing'", param: 'id' } });
   });
 
+  it('answers an endpoint it does not implement with a 404 in Stripe shape', async () => {
+    const raw = await h.http().get('/v1/payouts').set('Authorization', 'Bearer sk_test_x');
+    expect(raw.status).toBe(404);
+    expect(raw.body.error).toMatchObject({ type: 'invalid_request_error', message: expect.stringContaining('Unrecognized request URL (GET: /v1/payouts)') });
+  });
+
   it('requires a test secret key', async () => {
     const none = await h.http().get('/v1/customers');
     expect(none.status).toBe(401);

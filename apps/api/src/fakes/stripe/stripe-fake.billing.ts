@@ -547,9 +547,9 @@ function markInvoicePaid(state: FakeState, invoice: FakeInvoice): void {
 export type InvoicePaymentOutcome = { paid: true } | { paid: false; decline: Decline; intent?: FakePaymentIntent };
 
 const NO_PAYMENT_METHOD: Decline = {
-  code: 'invoice_payment_intent_requires_action',
+  code: 'resource_missing',
   declineCode: 'no_payment_method',
-  message: 'The customer has no attached payment method.',
+  message: 'This customer has no attached payment source or default payment method.',
 };
 
 /** One collection attempt: charges the card on file, then applies Stripe's retry and dunning rules on failure. */
@@ -745,6 +745,7 @@ export function payCheckoutSession(state: FakeState, sessionId: string, cardNumb
   };
 
   if (session.mode === 'payment') {
+    if (!session.customer && session.customer_creation === 'always') session.customer = createCustomer(state, { email }).id;
     const existing = session.payment_intent ? state.paymentIntents.get(session.payment_intent) : undefined;
     const result = attemptPayment(state, {
       amount: session.amount_total ?? 0,

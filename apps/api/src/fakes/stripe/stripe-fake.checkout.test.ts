@@ -158,6 +158,35 @@ describe('stripe fake: checkout in payment mode', () => {
   });
 });
 
+describe('stripe fake: setup mode, customer creation, lists', () => {
+  it('saves a card for an existing customer', async () => {
+    const customer = await h.stripe.customers.create({ email: 'card@shop.test' });
+    const session = await h.stripe.checkout.sessions.create({ mode: 'setup', customer: customer.id, currency: 'usd', success_url: 'http://127.0.0.1:5173/ok' });
+    expect(session).toMatchObject({ mode: 'setup', payment_status: 'no_payment_required', amount_total: null });
+    expect((await h.submitCheckout(session.id)).headers.location).toBe('http://127.0.0.1:5173/ok');
+    const done = await h.stripe.checkout.sessions.retrieve(session.id, { expand: ['setup_intent'] });
+    expect(done.setup_intent).toMatchObject({ object: 'setup_intent', status: 'succeeded', customer: customer.id });
+    const updated = await h.stripe.customers.retrieve(customer.id);
+    expect(updated).toMatchObject({ invoice_settings: { default_payment_method: expect.stringMatching(/^pm_/) } });
+  });
+
+  it('creates a customer in payment mode when asked to', async () => {
+    const session = await paymentSession({ customer_creation: 'always' });
+    await h.submitCheckout(session.id);
+    const done = await h.stripe.checkout.sessions.retrieve(session.id, { expand: ['customer'] });
+    expect(done.customer).toMatchObject({ object: 'customer', email: 'driver@owner.test' });
+  });
+
+  it('lists payment intents by customer', async () => {
+    const customer = await h.stripe.customers.create({ email: 'pi@shop.test' });
+    const session = await paymentSession({ customer: customer.id, customer_email: undefined });
+    await h.submitCheckout(session.id);
+    await paymentSession().then((other) => h.submitCheckout(other.id));
+    const intents = await h.stripe.paymentIntents.list({ customer: customer.id });
+    expect(intents.data.map((pi) => [pi.customer, pi.status])).toEqual([[customer.id, 'succeeded']]);
+  });
+});
+
 describe('stripe fake: webhook delivery', () => {
   it('retries a failing endpoint with backoff and logs each attempt', async () => {
     h.receiver.failNext(2, 'checkout.session.completed');

@@ -374,7 +374,7 @@ export function apiRouter(state: FakeState, publicUrl: (req: Request) => string)
       currency,
       custom_fields: [],
       customer: customerId ?? null,
-      customer_creation: mode === 'payment' && !customerId ? 'if_required' : null,
+      customer_creation: mode === 'payment' && !customerId ? (optEnum(body, 'customer_creation', ['always', 'if_required'] as const) ?? 'if_required') : null,
       customer_details: null,
       customer_email: customerEmail ?? null,
       expires_at: expiresAt,

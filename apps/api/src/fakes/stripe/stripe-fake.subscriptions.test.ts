@@ -201,6 +201,30 @@ describe('stripe fake: subscriptions', () => {
   });
 });
 
+describe('stripe fake: dunning set to mark unpaid', () => {
+  it('marks the subscription unpaid after the last retry fails', async () => {
+    const other = await startHarness({ now: () => JAN_31_2030, afterFailedRetries: 'mark_unpaid' });
+    try {
+      const price = await createMonthlyPrice(other.stripe);
+      const session = await other.stripe.checkout.sessions.create({
+        mode: 'subscription',
+        line_items: [{ price: price.id, quantity: 1 }],
+        customer_email: 'late@shop.test',
+        subscription_data: { trial_period_days: 1 },
+      });
+      await other.submitCheckout(session.id);
+      const subscriptionId = (await other.stripe.checkout.sessions.retrieve(session.id)).subscription as string;
+      for (const days of [1, 3, 5, 7]) {
+        other.fake.control.failNextPayment(subscriptionId);
+        other.fake.control.advanceTime(days * DAY + 1);
+      }
+      expect((await other.stripe.subscriptions.retrieve(subscriptionId)).status).toBe('unpaid');
+    } finally {
+      await other.close();
+    }
+  });
+});
+
 describe('stripe fake: control over HTTP', () => {
   it('advances time, fails payments and resets through /_control', async () => {
     const { subscriptionId } = await subscribe({ trialDays: 3 });
