@@ -1,4 +1,4 @@
-import type { Insertable, Selectable } from 'kysely';
+import type { Generated, Insertable, Selectable } from 'kysely';
 
 export interface AuditEventTable {
   id: string;
@@ -7,7 +7,7 @@ export interface AuditEventTable {
   action: string;
   subject_type: string;
   subject_id: string | null;
-  details: string;
+  details: Generated<string>;
   created_at: string;
 }
 export type AuditEventRow = Selectable<AuditEventTable>;

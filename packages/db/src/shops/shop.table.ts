@@ -1,14 +1,14 @@
-import type { Insertable, Selectable, Updateable } from 'kysely';
+import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
 
 export type ShopStatus = 'active' | 'suspended';
 
 export interface ShopTable {
   id: string;
   name: string;
-  status: ShopStatus;
-  currency: string;
+  status: Generated<ShopStatus>;
+  currency: Generated<string>;
   /** JSON object of shop settings; parsed by the API with its zod schema. */
-  settings: string;
+  settings: Generated<string>;
   created_at: string;
   suspended_at: string | null;
 }

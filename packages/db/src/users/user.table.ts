@@ -1,4 +1,4 @@
-import type { Insertable, Selectable, Updateable } from 'kysely';
+import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
 import type { ShopRole } from '@revloop/domain/auth';
 
 export interface UserTable {
@@ -6,9 +6,9 @@ export interface UserTable {
   email: string;
   name: string;
   password_hash: string | null;
-  platform_admin: number;
-  unit_system: 'metric' | 'imperial';
-  notification_prefs: string;
+  platform_admin: Generated<number>;
+  unit_system: Generated<'metric' | 'imperial'>;
+  notification_prefs: Generated<string>;
   created_at: string;
   last_sign_in_at: string | null;
 }
@@ -22,7 +22,7 @@ export interface MembershipTable {
   user_id: string;
   role: ShopRole;
   dealer_id: string | null;
-  status: 'active' | 'deactivated';
+  status: Generated<'active' | 'deactivated'>;
   created_at: string;
 }
 export type MembershipRow = Selectable<MembershipTable>;

@@ -1,4 +1,11 @@
-import { AbilityBuilder, createMongoAbility, subject as caslSubject, type MongoAbility } from '@casl/ability';
+import {
+  AbilityBuilder,
+  createMongoAbility,
+  subject as caslSubject,
+  type ForcedSubject,
+  type MongoAbility,
+  type MongoQuery,
+} from '@casl/ability';
 import type { Actor } from './roles';
 
 /**
@@ -40,11 +47,15 @@ export const SUBJECTS = [
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
-export type AppAbility = MongoAbility<[Action, SubjectName | 'all' | Record<string, unknown>]>;
+/** A plain API object tagged with its subject name, one union member per name so CASL can type conditions. */
+export type TaggedSubject = { [N in SubjectName]: Record<string, unknown> & ForcedSubject<N> }[SubjectName];
+export type AppSubject = SubjectName | 'all' | TaggedSubject;
+// Conditions are loose Mongo queries over the API objects' camelCase fields.
+export type AppAbility = MongoAbility<[Action, AppSubject], MongoQuery>;
 
 /** Tags a plain object so CASL checks it against the rules of `type`. */
-export const asSubject = <T extends Record<string, unknown>>(type: SubjectName, object: T) =>
-  caslSubject(type, object);
+export const asSubject = <N extends SubjectName, T extends object>(type: N, object: T) =>
+  caslSubject(type, object) as T & Record<string, unknown> & ForcedSubject<N>;
 
 const WRITE_ACTIONS: Action[] = [
   'create',

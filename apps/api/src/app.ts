@@ -1,0 +1,103 @@
+import express, { Router, type Express } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import helmet from 'helmet';
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Logger } from 'pino';
+import { pinoHttp } from 'pino-http';
+import type { Db } from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import type { Env } from './env';
+import type { Mailbox } from './fakes/smtp/smtp-fake';
+import { createAdminRouter } from './features/admin/admin.router';
+import { createAuditRouter } from './features/audit/audit.router';
+import { createAuthRouter } from './features/auth/auth.router';
+import type { SignInThrottle } from './features/auth/sign-in-throttle';
+import { sessionPolicyOf, secureCookiesOf } from './features/auth/start-session';
+import { createDealersRouter } from './features/dealers/dealers.router';
+import { createDevRouter } from './features/dev/dev.router';
+import { createInvitationsRouter } from './features/invitations/invitations.router';
+import type { Mailer } from './features/mail/mailer';
+import { createMeRouter } from './features/me/me.router';
+import { createMembersRouter } from './features/members/members.router';
+import { sessionMiddleware } from './http/auth-context';
+import type { Clock } from './http/clock';
+import { errorHandler } from './http/error-handler';
+import { sameOrigin } from './http/same-origin';
+
+export interface AppDeps {
+  db: Db;
+  env: Env;
+  clock: Clock;
+  mailer: Mailer;
+  logger: Logger;
+  throttle: SignInThrottle;
+  /** Present when the local SMTP stand-in runs: exposes the development mailbox page. */
+  mailbox?: Mailbox | undefined;
+}
+
+/** Builds the app without listening, so tests drive it with supertest. */
+export function createApp(deps: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          // Charts set inline style attributes; scripts stay self-only.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          connectSrc: ["'self'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+      strictTransportSecurity: deps.env.APP_ORIGIN.startsWith('https:'),
+    }),
+  );
+  app.use(pinoHttp({ logger: deps.logger, autoLogging: deps.env.NODE_ENV !== 'test' }));
+
+  const api = Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.get('/health', (_req, res) => {
+    res.json({ status: 'ok' });
+  });
+  api.use(sameOrigin([deps.env.APP_ORIGIN]));
+  api.use(
+    sessionMiddleware({
+      db: deps.db,
+      clock: deps.clock,
+      policy: sessionPolicyOf(deps.env),
+      secureCookies: secureCookiesOf(deps.env),
+    }),
+  );
+  const accountLimiter = rateLimit({
+    windowMs: 15 * 60_000,
+    limit: deps.env.NODE_ENV === 'test' ? 1000 : 50,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(new DomainError('rate_limited', 'Too many requests from this address. Try again later.')),
+  });
+  api.use(['/auth/sign-up', '/auth/password-reset'], accountLimiter);
+  api.use('/auth', createAuthRouter(deps));
+  api.use('/me', createMeRouter(deps));
+  api.use('/invitations', createInvitationsRouter(deps));
+  api.use('/members', createMembersRouter(deps));
+  api.use('/dealers', createDealersRouter(deps));
+  api.use('/admin', createAdminRouter(deps));
+  api.use('/audit', createAuditRouter(deps));
+  if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
+  api.use((_req, _res, next) => next(new DomainError('not_found', 'No such API route.')));
+  app.use('/api', api);
+
+  const webDist = deps.env.WEB_DIST_DIR;
+  if (webDist && fs.existsSync(path.join(webDist, 'index.html'))) {
+    app.use(express.static(webDist, { index: false, maxAge: '1h' }));
+    app.get('/{*path}', (_req, res) => {
+      res.sendFile(path.join(webDist, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

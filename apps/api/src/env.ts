@@ -1,0 +1,45 @@
+import path from 'node:path';
+import { z } from 'zod';
+
+const flag = z
+  .enum(['true', 'false', '1', '0'])
+  .transform((v) => v === 'true' || v === '1');
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(8080),
+  DATA_DIR: z.string().default('./data'),
+  /** The address people reach the app at; links in e-mails and the same-origin check use it. */
+  APP_ORIGIN: z.string().url().optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+  MAIL_FROM: z.string().default('Revloop <no-reply@revloop.test>'),
+  /** Start the local SMTP stand-in and its mailbox page (development and tests). */
+  LOCAL_SMTP: flag.optional(),
+  SESSION_IDLE_DAYS: z.coerce.number().positive().default(7),
+  SESSION_ABSOLUTE_DAYS: z.coerce.number().positive().default(30),
+  WEB_DIST_DIR: z.string().optional(),
+});
+
+export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP'> & {
+  APP_ORIGIN: string;
+  LOCAL_SMTP: boolean;
+};
+
+/** The only reader of process.env: fails fast with every problem listed. */
+export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ');
+    throw new Error(`Invalid environment: ${problems}`);
+  }
+  const env = parsed.data;
+  return {
+    ...env,
+    DATA_DIR: path.resolve(env.DATA_DIR),
+    APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
+    LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
+  };
+}

@@ -1,0 +1,72 @@
+import { Router } from 'express';
+import { findUserByEmail, updateUser } from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import { resetConfirmSchema, resetRequestSchema, signInSchema, signUpSchema } from '@revloop/domain/auth';
+import type { AppDeps } from '../../app';
+import { requireAuth } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { recordAudit } from '../audit/audit.service';
+import { passwordResetMail, welcomeMail } from '../mail/mail-templates';
+import { finishPasswordReset, signInShopId, signUpShop, startPasswordReset } from './auth.service';
+import { verifyPassword } from './password';
+import { clearSessionCookie, invalidateSession } from './session.service';
+import { secureCookiesOf, startSession } from './start-session';
+
+export function createAuthRouter(deps: AppDeps): Router {
+  const router = Router();
+  const { db, clock, env, mailer, throttle } = deps;
+  const secure = secureCookiesOf(env);
+
+  router.post('/sign-up', async (req, res) => {
+    const input = parseInput(signUpSchema, req.body);
+    const { user, shopId } = await signUpShop(db, input, clock.now());
+    await recordAudit(db, { shopId, actorUserId: user.id, action: 'shop.created', subjectType: 'Shop', subjectId: shopId, at: clock.now() });
+    await mailer.send(welcomeMail(user.email, { shopName: input.shopName, url: env.APP_ORIGIN }));
+    await startSession(deps, req, res, user.id, shopId, 201);
+  });
+
+  router.post('/sign-in', async (req, res) => {
+    const input = parseInput(signInSchema, req.body);
+    const ip = req.ip ?? 'unknown';
+    const wait = throttle.retryAfter(input.email, ip);
+    if (wait > 0) {
+      res.set('Retry-After', String(wait));
+      throw new DomainError('rate_limited', `Too many sign-in attempts. Try again in ${wait} seconds.`, { retryAfter: wait });
+    }
+    const user = await findUserByEmail(db, input.email);
+    const ok = await verifyPassword(user?.password_hash ?? null, input.password);
+    if (!user || !ok) {
+      throttle.recordFailure(input.email, ip);
+      throw new DomainError('unauthenticated', 'The e-mail or password is wrong.', { reason: 'invalid_credentials' });
+    }
+    throttle.recordSuccess(input.email, ip);
+    const shopId = await signInShopId(db, user);
+    await updateUser(db, user.id, { last_sign_in_at: clock.now().toISOString() });
+    await startSession(deps, req, res, user.id, shopId, 200);
+  });
+
+  router.post('/sign-out', async (req, res) => {
+    const auth = requireAuth(req);
+    await invalidateSession(db, auth.sessionId);
+    res.append('Set-Cookie', clearSessionCookie(secure));
+    res.status(204).end();
+  });
+
+  router.post('/password-reset', async (req, res) => {
+    const { email } = parseInput(resetRequestSchema, req.body);
+    const started = await startPasswordReset(db, email, clock.now());
+    if (started) {
+      const url = `${env.APP_ORIGIN}/reset-password?token=${encodeURIComponent(started.token)}`;
+      await mailer.send(passwordResetMail(started.user.email, { url, expiresAt: started.expiresAt }));
+    }
+    res.status(202).json({ data: { sent: true } });
+  });
+
+  router.post('/password-reset/confirm', async (req, res) => {
+    const { token, password } = parseInput(resetConfirmSchema, req.body);
+    await finishPasswordReset(db, token, password, clock.now());
+    res.status(204).end();
+  });
+
+  return router;
+}

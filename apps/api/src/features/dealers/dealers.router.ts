@@ -1,0 +1,72 @@
+import { Router } from 'express';
+import { findDealer, insertDealer, listDealers, listMembers, newId, type DealerRow } from '@revloop/db';
+import { asSubject, emailSchema } from '@revloop/domain/auth';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { recordAudit } from '../audit/audit.service';
+
+const dealerInputSchema = z.object({
+  name: z.string().trim().min(2).max(100),
+  contactName: z.string().trim().min(1).max(100),
+  contactEmail: emailSchema,
+  phone: z.string().trim().max(40).nullish(),
+});
+
+const dealerRowToDealer = (r: DealerRow) => ({
+  id: r.id,
+  name: r.name,
+  contactName: r.contact_name,
+  contactEmail: r.contact_email,
+  phone: r.phone,
+  createdAt: r.created_at,
+});
+
+export function createDealersRouter({ db, clock }: AppDeps): Router {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'read', 'Dealer');
+    const rows = (await listDealers(db, auth.shop.id)).filter((r) =>
+      auth.ability.can('read', asSubject('Dealer', { id: r.id, shopId: r.shop_id })),
+    );
+    res.json({
+      data: rows.map((r) => ({ ...dealerRowToDealer(r), userCount: Number(r.user_count), customerCount: Number(r.customer_count) })),
+      meta: { total: rows.length },
+    });
+  });
+
+  router.post('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'create', 'Dealer');
+    const input = parseInput(dealerInputSchema, req.body);
+    const dealer = await insertDealer(db, {
+      id: newId(),
+      shop_id: auth.shop.id,
+      name: input.name,
+      contact_name: input.contactName,
+      contact_email: input.contactEmail,
+      phone: input.phone ?? null,
+      created_at: clock.now().toISOString(),
+    });
+    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'dealer.created', subjectType: 'Dealer', subjectId: dealer.id, at: clock.now() });
+    res.status(201).json({ data: dealerRowToDealer(dealer) });
+  });
+
+  router.get('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const dealer = await findDealer(db, auth.shop.id, req.params.id);
+    authorizeRow(auth, 'read', 'Dealer', dealer && { id: dealer.id, shopId: dealer.shop_id });
+    const users = await listMembers(db, auth.shop.id, { role: 'dealer', dealerId: dealer!.id });
+    res.json({
+      data: {
+        ...dealerRowToDealer(dealer!),
+        users: users.map((u) => ({ id: u.id, name: u.name, email: u.email, status: u.status })),
+      },
+    });
+  });
+
+  return router;
+}

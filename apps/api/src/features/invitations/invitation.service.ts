@@ -1,0 +1,144 @@
+import {
+  findDealer,
+  findLiveInvitationByTokenHash,
+  findMembershipOfUser,
+  findShopById,
+  findUserByEmail,
+  insertInvitation,
+  insertMembership,
+  insertUser,
+  markInvitationAccepted,
+  newId,
+  updateMembership,
+  updateUser,
+  type Db,
+  type InvitationRow,
+} from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
+import type { Mailer } from '../mail/mailer';
+import { invitationMail } from '../mail/mail-templates';
+import { hashPassword, verifyPassword } from '../auth/password';
+import { generateToken, hashToken } from '../auth/session.service';
+
+export const INVITATION_TTL_MS = 7 * 86_400_000;
+
+export interface InviteInput {
+  shopId: string;
+  email: string;
+  role: ShopRole;
+  dealerId?: string | null | undefined;
+  invitedBy: { id: string; name: string } | null;
+}
+
+export async function createInvitation(
+  db: Db,
+  mailer: Mailer,
+  appOrigin: string,
+  input: InviteInput,
+  now: Date,
+): Promise<InvitationRow> {
+  const shop = await findShopById(db, input.shopId);
+  if (!shop) throw new DomainError('not_found', 'Shop not found.');
+  if (input.role === 'dealer' && !input.dealerId) {
+    throw new DomainError('validation', 'Choose the dealer account this user acts for.');
+  }
+  if ((input.role === 'owner' || input.role === 'tuner') && input.dealerId) {
+    throw new DomainError('validation', 'Only dealer users and dealer customers belong to a dealer.');
+  }
+  if (input.dealerId && !(await findDealer(db, input.shopId, input.dealerId))) {
+    throw new DomainError('validation', 'That dealer is not part of this shop.');
+  }
+  const existing = await findUserByEmail(db, input.email);
+  if (existing) {
+    const membership = await findMembershipOfUser(db, input.shopId, existing.id);
+    if (membership?.status === 'active') throw new DomainError('conflict', 'This person is already a member of the shop.');
+  }
+  const token = generateToken();
+  const expiresAt = new Date(now.getTime() + INVITATION_TTL_MS);
+  const invitation = await insertInvitation(db, {
+    id: newId(),
+    shop_id: input.shopId,
+    email: input.email.toLowerCase(),
+    role: input.role,
+    dealer_id: input.dealerId ?? null,
+    token_hash: hashToken(token),
+    invited_by_user_id: input.invitedBy?.id ?? null,
+    created_at: now.toISOString(),
+    expires_at: expiresAt.toISOString(),
+  });
+  await mailer.send(
+    invitationMail(invitation.email, {
+      shopName: shop.name,
+      roleLabel: ROLE_LABELS[input.role].toLowerCase(),
+      inviterName: input.invitedBy?.name ?? null,
+      url: `${appOrigin}/invitations/${token}`,
+      expiresAt,
+    }),
+  );
+  return invitation;
+}
+
+export async function lookupInvitation(db: Db, token: string, now: Date) {
+  const invitation = await findLiveInvitationByTokenHash(db, hashToken(token), now.toISOString());
+  if (!invitation) throw new DomainError('not_found', 'This invitation is invalid, used or expired. Ask for a new one.');
+  const shop = await findShopById(db, invitation.shop_id);
+  const dealer = invitation.dealer_id ? await findDealer(db, invitation.shop_id, invitation.dealer_id) : undefined;
+  const user = await findUserByEmail(db, invitation.email);
+  return {
+    invitation,
+    view: {
+      email: invitation.email,
+      role: invitation.role,
+      shopName: shop?.name ?? '',
+      dealerName: dealer?.name ?? null,
+      expiresAt: invitation.expires_at,
+      existingAccount: Boolean(user?.password_hash),
+    },
+  };
+}
+
+/** Accepting creates the account (or joins an existing one after its password) and the membership, all at once. */
+export async function acceptInvitation(
+  db: Db,
+  token: string,
+  input: { name: string; password: string },
+  now: Date,
+): Promise<{ userId: string; shopId: string; invitation: InvitationRow }> {
+  const { invitation } = await lookupInvitation(db, token, now);
+  const existing = await findUserByEmail(db, invitation.email);
+  if (existing?.password_hash && !(await verifyPassword(existing.password_hash, input.password))) {
+    throw new DomainError('validation', 'This e-mail already has a Revloop account: enter that account’s password.');
+  }
+  const passwordHash = existing?.password_hash ? null : await hashPassword(input.password);
+  const at = now.toISOString();
+  const userId = await db.transaction().execute(async (trx) => {
+    if (!(await markInvitationAccepted(trx, invitation.id, at))) {
+      throw new DomainError('conflict', 'This invitation was just used.');
+    }
+    const user =
+      existing ??
+      (await insertUser(trx, { id: newId(), email: invitation.email, name: input.name, password_hash: passwordHash, created_at: at }));
+    if (existing && passwordHash) await updateUser(trx, existing.id, { password_hash: passwordHash, name: input.name });
+    const membership = await findMembershipOfUser(trx, invitation.shop_id, user.id);
+    if (membership) {
+      await updateMembership(trx, invitation.shop_id, membership.id, {
+        role: invitation.role,
+        dealer_id: invitation.dealer_id,
+        status: 'active',
+      });
+    } else {
+      await insertMembership(trx, {
+        id: newId(),
+        shop_id: invitation.shop_id,
+        user_id: user.id,
+        role: invitation.role,
+        dealer_id: invitation.dealer_id,
+        created_at: at,
+      });
+    }
+    await updateUser(trx, user.id, { last_sign_in_at: at });
+    return user.id;
+  });
+  return { userId, shopId: invitation.shop_id, invitation };
+}

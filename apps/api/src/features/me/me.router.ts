@@ -1,0 +1,33 @@
+import { Router } from 'express';
+import { updateUser } from '@revloop/db';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { loadAuthContext, requireAuth } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { toMe } from './me.service';
+
+const updateMeSchema = z.object({
+  name: z.string().trim().min(1).max(80).optional(),
+  unitSystem: z.enum(['metric', 'imperial']).optional(),
+});
+
+export function createMeRouter({ db }: AppDeps): Router {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    res.json(await toMe(db, requireAuth(req)));
+  });
+
+  router.patch('/', async (req, res) => {
+    const auth = requireAuth(req);
+    const input = parseInput(updateMeSchema, req.body);
+    await updateUser(db, auth.user.id, {
+      ...(input.name !== undefined && { name: input.name }),
+      ...(input.unitSystem !== undefined && { unit_system: input.unitSystem }),
+    });
+    const fresh = await loadAuthContext(db, auth.sessionId, auth.user.id, auth.shop?.id ?? null);
+    res.json(await toMe(db, fresh ?? auth));
+  });
+
+  return router;
+}

@@ -1,0 +1,18 @@
+import { findDealer, type Db } from '@revloop/db';
+import type { AuthContext } from '../../http/auth-context';
+
+/** The `/api/me` shape: who is signed in, in which shop and role, and the actor the web builds its ability from. */
+export async function toMe(db: Db, auth: AuthContext) {
+  const { user, shop, membership, actor } = auth;
+  const dealer = shop && membership?.dealer_id ? await findDealer(db, shop.id, membership.dealer_id) : undefined;
+  return {
+    user: { id: user.id, email: user.email, name: user.name, unitSystem: user.unit_system },
+    role: actor.platformAdmin ? 'platform_admin' : (actor.role ?? null),
+    platformAdmin: actor.platformAdmin,
+    shop: shop
+      ? { id: shop.id, name: shop.name, status: shop.status, readOnly: actor.shopReadOnly, currency: shop.currency }
+      : null,
+    dealer: dealer ? { id: dealer.id, name: dealer.name } : null,
+    actor,
+  };
+}

@@ -1,0 +1,111 @@
+import { Router } from 'express';
+import {
+  countActiveOwners,
+  findDealer,
+  findMembership,
+  listMembers,
+  updateMembership,
+  type MemberListRow,
+  type MembershipRow,
+} from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import { SHOP_ROLES } from '@revloop/domain/auth';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { recordAudit } from '../audit/audit.service';
+import { invalidateUserSessions } from '../auth/session.service';
+
+const changeRoleSchema = z.object({ role: z.enum(SHOP_ROLES), dealerId: z.string().min(1).nullish() });
+
+const memberRowToMember = (r: MemberListRow) => ({
+  id: r.id,
+  userId: r.user_id,
+  name: r.name,
+  email: r.email,
+  role: r.role,
+  status: r.status,
+  dealer: r.dealer_id ? { id: r.dealer_id, name: r.dealer_name } : null,
+  createdAt: r.created_at,
+  lastSignInAt: r.last_sign_in_at,
+});
+
+export function createMembersRouter({ db, clock }: AppDeps): Router {
+  const router = Router();
+
+  async function loadForChange(auth: AuthContext & { shop: { id: string } }, id: string): Promise<MembershipRow> {
+    const row = await findMembership(db, auth.shop.id, id);
+    authorizeRow(auth, 'update', 'Member', row && { shopId: row.shop_id });
+    if (row!.user_id === auth.user.id) throw new DomainError('validation', 'You cannot change your own membership.');
+    return row!;
+  }
+
+  async function assertNotLastOwner(shopId: string, row: MembershipRow) {
+    if (row.role === 'owner' && row.status === 'active' && (await countActiveOwners(db, shopId)) <= 1) {
+      throw new DomainError('conflict', 'A shop keeps at least one active owner.');
+    }
+  }
+
+  const respond = async (shopId: string, id: string) => {
+    const rows = await listMembers(db, shopId);
+    const row = rows.find((r) => r.id === id);
+    return { data: row ? memberRowToMember(row) : null };
+  };
+
+  router.get('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'read', 'Member');
+    const rows = await listMembers(db, auth.shop.id);
+    res.json({ data: rows.map(memberRowToMember), meta: { total: rows.length } });
+  });
+
+  router.patch('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const row = await loadForChange(auth, req.params.id);
+    const input = parseInput(changeRoleSchema, req.body);
+    if (input.role !== 'owner') await assertNotLastOwner(auth.shop.id, row);
+    const dealerId = input.role === 'dealer' || input.role === 'customer' ? (input.dealerId ?? (input.role === 'customer' ? row.dealer_id : null)) : null;
+    if (input.role === 'dealer' && !dealerId) throw new DomainError('validation', 'Choose the dealer account this user acts for.');
+    if (dealerId && !(await findDealer(db, auth.shop.id, dealerId))) throw new DomainError('validation', 'That dealer is not part of this shop.');
+    await updateMembership(db, auth.shop.id, row.id, { role: input.role, dealer_id: dealerId });
+    await invalidateUserSessions(db, row.user_id, auth.shop.id);
+    await recordAudit(db, {
+      shopId: auth.shop.id,
+      actorUserId: auth.user.id,
+      action: 'member.role_changed',
+      subjectType: 'Member',
+      subjectId: row.id,
+      details: { from: row.role, to: input.role },
+      at: clock.now(),
+    });
+    res.json(await respond(auth.shop.id, row.id));
+  });
+
+  for (const [path, status] of [
+    ['deactivate', 'deactivated'],
+    ['reactivate', 'active'],
+  ] as const) {
+    router.post(`/:id/${path}`, async (req, res) => {
+      const auth = requireShop(req);
+      const row = await loadForChange(auth, req.params.id);
+      if (status === 'deactivated') {
+        await assertNotLastOwner(auth.shop.id, row);
+        // Deactivating ends the member's sessions in this shop at once, not at their next expiry.
+        await invalidateUserSessions(db, row.user_id, auth.shop.id);
+      }
+      await updateMembership(db, auth.shop.id, row.id, { status });
+      await recordAudit(db, {
+        shopId: auth.shop.id,
+        actorUserId: auth.user.id,
+        action: `member.${path}d`,
+        subjectType: 'Member',
+        subjectId: row.id,
+        at: clock.now(),
+      });
+      res.json(await respond(auth.shop.id, row.id));
+    });
+  }
+
+  return router;
+}

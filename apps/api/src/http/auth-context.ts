@@ -1,0 +1,131 @@
+import type { Request, RequestHandler } from 'express';
+import {
+  findMembershipOfUser,
+  findShopById,
+  findUserById,
+  type Db,
+  type MembershipRow,
+  type ShopRow,
+  type UserRow,
+} from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import { defineAbilityFor, type Action, type Actor, type AppAbility, type SubjectName, asSubject } from '@revloop/domain/auth';
+import { readCookie } from './cookies';
+import type { Clock } from './clock';
+import {
+  SESSION_COOKIE,
+  invalidateSession,
+  sessionCookie,
+  validateSessionToken,
+  type SessionPolicy,
+} from '../features/auth/session.service';
+
+export interface AuthContext {
+  sessionId: string;
+  user: UserRow;
+  shop: ShopRow | null;
+  membership: MembershipRow | null;
+  actor: Actor;
+  ability: AppAbility;
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    auth?: AuthContext;
+  }
+}
+
+/** A suspended shop signs in read-only; billing adds its own reason later through this one predicate. */
+export const isShopReadOnly = (shop: ShopRow): boolean => shop.status !== 'active';
+
+export function buildActor(user: UserRow, membership: MembershipRow | null, shop: ShopRow | null): Actor {
+  return {
+    userId: user.id,
+    platformAdmin: user.platform_admin === 1,
+    shopId: membership && shop ? shop.id : null,
+    role: membership?.role ?? null,
+    dealerId: membership?.dealer_id ?? null,
+    shopReadOnly: shop ? isShopReadOnly(shop) : false,
+  };
+}
+
+export async function loadAuthContext(
+  db: Db,
+  sessionId: string,
+  userId: string,
+  shopId: string | null,
+): Promise<AuthContext | null> {
+  const user = await findUserById(db, userId);
+  if (!user) return null;
+  let membership: MembershipRow | null = null;
+  let shop: ShopRow | null = null;
+  if (shopId) {
+    membership = (await findMembershipOfUser(db, shopId, userId)) ?? null;
+    if (!membership || membership.status !== 'active') return null;
+    shop = (await findShopById(db, shopId)) ?? null;
+    if (!shop) return null;
+  }
+  const actor = buildActor(user, membership, shop);
+  return { sessionId, user, shop, membership, actor, ability: defineAbilityFor(actor) };
+}
+
+/** Reads the session cookie on every request; a renewed session gets a fresh cookie. */
+export function sessionMiddleware(deps: { db: Db; clock: Clock; policy: SessionPolicy; secureCookies: boolean }): RequestHandler {
+  return async (req, res, next) => {
+    const token = readCookie(req.headers.cookie, SESSION_COOKIE);
+    if (!token) return next();
+    const result = await validateSessionToken(deps.db, deps.policy, token, deps.clock.now());
+    if (!result) return next();
+    const auth = await loadAuthContext(deps.db, result.session.id, result.session.user_id, result.session.shop_id);
+    if (!auth) {
+      await invalidateSession(deps.db, result.session.id);
+      return next();
+    }
+    req.auth = auth;
+    if (result.renewed) res.append('Set-Cookie', sessionCookie(token, result.session.expires_at, deps.secureCookies));
+    next();
+  };
+}
+
+export function requireAuth(req: Request): AuthContext {
+  if (!req.auth) throw new DomainError('unauthenticated', 'Please sign in.');
+  return req.auth;
+}
+
+/** The signed-in member's shop: every tenant query takes its id from here, never from the request. */
+export function requireShop(req: Request): AuthContext & { shop: ShopRow; membership: MembershipRow } {
+  const auth = requireAuth(req);
+  if (!auth.shop || !auth.membership) throw new DomainError('forbidden', 'This needs a shop account.');
+  return auth as AuthContext & { shop: ShopRow; membership: MembershipRow };
+}
+
+const WRITES = new Set<Action>(['create', 'update', 'delete', 'invite', 'assign', 'take', 'transition', 'upload', 'upload_revision', 'refund']);
+
+function deny(auth: AuthContext, action: Action): never {
+  if (auth.actor.shopReadOnly && WRITES.has(action)) {
+    throw new DomainError('shop_read_only', 'This shop is read-only for now: you can read and download, but not change anything.');
+  }
+  throw new DomainError('forbidden', 'Your role does not allow this.');
+}
+
+/** Class-level check: may this user do `action` on some `subject`? */
+export function authorize(auth: AuthContext, action: Action, subject: SubjectName): void {
+  if (!auth.ability.can(action, subject)) deny(auth, action);
+}
+
+/**
+ * Row-level check. A row the user may not even read answers 404, exactly like a row of another shop,
+ * so ids leak nothing; a readable row with a forbidden action answers 403.
+ */
+export function authorizeRow(
+  auth: AuthContext,
+  action: Action,
+  subject: SubjectName,
+  row: Record<string, unknown> | undefined,
+  notFoundMessage = 'Not found.',
+): asserts row is Record<string, unknown> {
+  if (!row) throw new DomainError('not_found', notFoundMessage);
+  const tagged = asSubject(subject, row);
+  if (!auth.ability.can('read', tagged)) throw new DomainError('not_found', notFoundMessage);
+  if (action !== 'read' && !auth.ability.can(action, tagged)) deny(auth, action);
+}
