@@ -336,6 +336,7 @@ export function parseCsvColumns(
     }
   }
   onProgress?.(1);
-  const trimmed = columns.map((c) => (c.length > rows * 1.1 + 64 ? c.slice(0, rows) : c.subarray(0, rows)));
+  // Copy only when the size estimate was far off: the copy briefly doubles the memory the columns take.
+  const trimmed = columns.map((c) => (c.length > rows * 1.5 + 64 ? c.slice(0, rows) : c.subarray(0, rows)));
   return { rows, columns: trimmed };
 }
