@@ -1,0 +1,23 @@
+import { useMemo, useState, type ReactNode } from 'react';
+import { QueryClientProvider } from '@tanstack/react-query';
+import { AbilityProvider } from '@casl/react';
+import { defineAbilityFor } from '@revloop/domain/auth';
+import { useMe } from '../features/auth/api/get-me';
+import { createQueryClient } from '../lib/query-client';
+
+/** The ability follows `/api/me`: it is rebuilt whenever the signed-in actor changes. */
+function MeAbilityProvider({ children }: { children: ReactNode }) {
+  const me = useMe();
+  const actor = me.data?.actor ?? null;
+  const ability = useMemo(() => defineAbilityFor(actor), [actor]);
+  return <AbilityProvider value={ability}>{children}</AbilityProvider>;
+}
+
+export function AppProvider({ children }: { children: ReactNode }) {
+  const [queryClient] = useState(createQueryClient);
+  return (
+    <QueryClientProvider client={queryClient}>
+      <MeAbilityProvider>{children}</MeAbilityProvider>
+    </QueryClientProvider>
+  );
+}

@@ -1,0 +1,52 @@
+import type { ComponentType } from 'react';
+import { createBrowserRouter, Navigate } from 'react-router-dom';
+import { paths } from '../config/paths';
+import { RouteError } from './routes/route-error';
+
+/** Each screen is its own chunk, loaded when its route is first opened. */
+const screen =
+  <M,>(load: () => Promise<M>, pick: (module: M) => ComponentType) =>
+  async () => ({ Component: pick(await load()) });
+
+export const router = createBrowserRouter([
+  {
+    errorElement: <RouteError />,
+    children: [
+      {
+        lazy: screen(() => import('./routes/public-layout'), (m) => m.PublicLayout),
+        children: [
+          { path: paths.auth.signIn.path, lazy: screen(() => import('./routes/auth/sign-in'), (m) => m.SignInRoute) },
+          { path: paths.auth.signUp.path, lazy: screen(() => import('./routes/auth/sign-up'), (m) => m.SignUpRoute) },
+          { path: paths.auth.forgotPassword.path, lazy: screen(() => import('./routes/auth/forgot-password'), (m) => m.ForgotPasswordRoute) },
+          { path: paths.auth.resetPassword.path, lazy: screen(() => import('./routes/auth/reset-password'), (m) => m.ResetPasswordRoute) },
+          { path: paths.auth.invitation.path, lazy: screen(() => import('./routes/auth/invitation'), (m) => m.InvitationRoute) },
+          { path: paths.dev.mailbox.path, lazy: screen(() => import('./routes/dev/mailbox'), (m) => m.MailboxRoute) },
+        ],
+      },
+      {
+        path: paths.home.path,
+        lazy: screen(() => import('./routes/app/root'), (m) => m.AppRoot),
+        children: [
+          { index: true, lazy: screen(() => import('./routes/app/home'), (m) => m.HomeRoute) },
+          { path: paths.admin.shops.path, lazy: screen(() => import('./routes/app/admin/shops'), (m) => m.AdminShopsRoute) },
+          { path: paths.jobs.path, lazy: screen(() => import('./routes/app/placeholders'), (m) => m.JobsRoute) },
+          { path: paths.vehicles.path, lazy: screen(() => import('./routes/app/placeholders'), (m) => m.VehiclesRoute) },
+          { path: paths.customers.path, lazy: screen(() => import('./routes/app/placeholders'), (m) => m.CustomersRoute) },
+          { path: paths.team.path, lazy: screen(() => import('./routes/app/team'), (m) => m.TeamRoute) },
+          { path: paths.dealers.list.path, lazy: screen(() => import('./routes/app/dealers/list'), (m) => m.DealersRoute) },
+          { path: paths.dealers.detail.path, lazy: screen(() => import('./routes/app/dealers/detail'), (m) => m.DealerRoute) },
+          {
+            path: paths.settings.root.path,
+            lazy: screen(() => import('./routes/app/settings/layout'), (m) => m.SettingsLayout),
+            children: [
+              { index: true, element: <Navigate to={paths.settings.profile.getHref()} replace /> },
+              { path: paths.settings.profile.path, lazy: screen(() => import('./routes/app/settings/profile'), (m) => m.ProfileRoute) },
+              { path: paths.settings.shop.path, lazy: screen(() => import('./routes/app/settings/shop'), (m) => m.ShopSettingsRoute) },
+            ],
+          },
+          { id: 'not-found', path: '*', lazy: screen(() => import('./routes/not-found'), (m) => m.NotFoundRoute) },
+        ],
+      },
+    ],
+  },
+]);

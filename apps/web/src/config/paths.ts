@@ -1,0 +1,34 @@
+/** Every route path of the app, written once. `path` is the router pattern, `getHref` builds a link. */
+export const paths = {
+  home: { path: '/', getHref: () => '/' },
+  auth: {
+    signIn: {
+      path: '/sign-in',
+      getHref: (redirectTo?: string | null) =>
+        redirectTo ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in',
+    },
+    signUp: { path: '/sign-up', getHref: () => '/sign-up' },
+    forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
+    resetPassword: { path: '/reset-password', getHref: (token: string) => `/reset-password?token=${encodeURIComponent(token)}` },
+    invitation: { path: '/invitations/:token', getHref: (token: string) => `/invitations/${encodeURIComponent(token)}` },
+  },
+  admin: {
+    shops: { path: '/admin/shops', getHref: () => '/admin/shops' },
+  },
+  jobs: { path: '/jobs', getHref: () => '/jobs' },
+  vehicles: { path: '/vehicles', getHref: () => '/vehicles' },
+  customers: { path: '/customers', getHref: () => '/customers' },
+  team: { path: '/team', getHref: () => '/team' },
+  dealers: {
+    list: { path: '/dealers', getHref: () => '/dealers' },
+    detail: { path: '/dealers/:dealerId', getHref: (dealerId: string) => `/dealers/${encodeURIComponent(dealerId)}` },
+  },
+  settings: {
+    root: { path: '/settings', getHref: () => '/settings' },
+    profile: { path: '/settings/profile', getHref: () => '/settings/profile' },
+    shop: { path: '/settings/shop', getHref: () => '/settings/shop' },
+  },
+  dev: {
+    mailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
+  },
+} as const;

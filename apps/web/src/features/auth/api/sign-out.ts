@@ -1,0 +1,17 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import { getMeQueryOptions } from './get-me';
+
+export const signOut = () => api.post<void>('/api/auth/sign-out');
+
+/** Signing out drops every cached answer, so the next user sees nothing of the last one. */
+export function useSignOut() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: signOut,
+    onSuccess: () => {
+      queryClient.clear();
+      queryClient.setQueryData(getMeQueryOptions().queryKey, null);
+    },
+  });
+}

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { z } from 'zod';
+import { api } from '../../../lib/api-client';
+import { getMeQueryOptions, type Me } from './get-me';
+
+export const updateMeSchema = z.object({
+  name: z.string().trim().min(1, 'Enter your name.').max(80, 'Use at most 80 characters.'),
+  unitSystem: z.enum(['metric', 'imperial']),
+});
+export type UpdateMeInput = z.output<typeof updateMeSchema>;
+
+export const updateMe = (input: UpdateMeInput) => api.patch<Me>('/api/me', input);
+
+export function useUpdateMe() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: updateMe,
+    onSuccess: (me) => queryClient.setQueryData(getMeQueryOptions().queryKey, me),
+  });
+}

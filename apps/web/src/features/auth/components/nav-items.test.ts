@@ -1,0 +1,41 @@
+import { describe, expect, it } from 'vitest';
+import { defineAbilityFor, type Actor, type ShopRole } from '@revloop/domain/auth';
+import { homePathFor, navItemsFor } from './nav-items';
+
+const actor = (role: ShopRole | null, extra: Partial<Actor> = {}): Actor => ({
+  userId: 'u1',
+  platformAdmin: false,
+  shopId: 's1',
+  role,
+  dealerId: role === 'dealer' ? 'd1' : null,
+  shopReadOnly: false,
+  ...extra,
+});
+
+const labels = (a: Actor, role: ShopRole | 'platform_admin' | null) => navItemsFor(defineAbilityFor(a), { role }).map((item) => item.label);
+
+// Expected menus are the product brief's per-role navigation [CP: Revloop web brief].
+describe('navItemsFor', () => {
+  it('gives each role its own menu', () => {
+    expect(labels(actor(null, { platformAdmin: true, shopId: null }), 'platform_admin')).toEqual(['Shops']);
+    expect(labels(actor('owner'), 'owner')).toEqual(['Jobs', 'Team', 'Dealers', 'Settings']);
+    expect(labels(actor('tuner'), 'tuner')).toEqual(['Jobs', 'Team']);
+    expect(labels(actor('dealer'), 'dealer')).toEqual(['Jobs', 'Customers']);
+    expect(labels(actor('customer'), 'customer')).toEqual(['My jobs', 'Vehicles']);
+  });
+
+  it('keeps the owner menu in a suspended shop, where only writes are forbidden', () => {
+    expect(labels(actor('owner', { shopReadOnly: true }), 'owner')).toEqual(['Jobs', 'Team', 'Dealers', 'Settings']);
+  });
+
+  it('shows nothing to a user without a role', () => {
+    expect(labels(actor(null), null)).toEqual([]);
+  });
+});
+
+describe('homePathFor', () => {
+  it('sends admins to shops and everyone else to jobs', () => {
+    expect(homePathFor(defineAbilityFor(actor(null, { platformAdmin: true, shopId: null })))).toBe('/admin/shops');
+    expect(homePathFor(defineAbilityFor(actor('customer')))).toBe('/jobs');
+  });
+});

@@ -1,0 +1,13 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api, type ItemResponse } from '../../../lib/api-client';
+import { getMembersQueryOptions, type Member } from './get-members';
+
+export const reactivateMember = (memberId: string) => api.post<ItemResponse<Member>>(`/api/members/${encodeURIComponent(memberId)}/reactivate`);
+
+export function useReactivateMember() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: reactivateMember,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: getMembersQueryOptions().queryKey }),
+  });
+}
