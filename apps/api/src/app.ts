@@ -40,6 +40,7 @@ export interface AppDeps {
 export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
+  if (deps.env.TRUST_PROXY) app.set('trust proxy', deps.env.TRUST_PROXY);
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -21,6 +21,8 @@ const envSchema = z.object({
   SESSION_IDLE_DAYS: z.coerce.number().positive().default(7),
   SESSION_ABSOLUTE_DAYS: z.coerce.number().positive().default(30),
   WEB_DIST_DIR: z.string().optional(),
+  /** Express 'trust proxy' setting, for when a reverse proxy sets X-Forwarded-For (sign-in throttling keys on the client address). */
+  TRUST_PROXY: z.string().optional(),
 });
 
 export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP'> & {

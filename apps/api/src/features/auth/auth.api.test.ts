@@ -1,0 +1,151 @@
+import request from 'supertest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { createTestApp, linkFromMail, sessionCookieOf, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
+
+const DAY = 86_400_000;
+let t: TestApp;
+beforeEach(async () => {
+  t = await createTestApp();
+});
+afterEach(async () => {
+  await t.close();
+});
+
+describe('sign-in and sessions', () => {
+  it('answers health without a session', async () => {
+    const res = await request(t.app).get('/api/health');
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ status: 'ok' });
+  });
+
+  it('signs in with a hardened cookie and answers /api/me', async () => {
+    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'owner@kestrel.test', password: 'revloop-demo' });
+    expect(res.status).toBe(200);
+    const cookie = (res.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('revloop_session='))!;
+    expect(cookie).toMatch(/HttpOnly/);
+    expect(cookie).toMatch(/SameSite=Lax/);
+    expect(cookie).not.toMatch(/Secure/); // plain http in tests; Secure is set when APP_ORIGIN is https
+    const me = await request(t.app).get('/api/me').set('Cookie', sessionCookieOf(res)!);
+    expect(me.status).toBe(200);
+    expect(me.body).toMatchObject({
+      user: { email: 'owner@kestrel.test', name: 'Dana Whitfield' },
+      role: 'owner',
+      shop: { name: 'Kestrel Calibration Works' },
+    });
+    expect(me.body.user.id).toEqual(expect.any(String));
+  });
+
+  it('refuses bad credentials with 401 and the error shape, and /api/me signed out', async () => {
+    const bad = await request(t.app).post('/api/auth/sign-in').send({ email: 'owner@kestrel.test', password: 'wrong-password' });
+    expect(bad.status).toBe(401);
+    expect(bad.body.error).toMatchObject({ code: 'unauthenticated', message: expect.any(String) });
+    const unknown = await request(t.app).post('/api/auth/sign-in').send({ email: 'nobody@kestrel.test', password: 'whatever-it-is' });
+    expect(unknown.status).toBe(401);
+    expect((await request(t.app).get('/api/me')).status).toBe(401);
+  });
+
+  it('gives a new session id at each sign-in, and a signed-out cookie is dead', async () => {
+    const first = await request(t.app).post('/api/auth/sign-in').send({ email: 'tuner@kestrel.test', password: 'revloop-demo' });
+    const second = await request(t.app).post('/api/auth/sign-in').send({ email: 'tuner@kestrel.test', password: 'revloop-demo' });
+    const c1 = sessionCookieOf(first)!;
+    const c2 = sessionCookieOf(second)!;
+    expect(c1).not.toEqual(c2);
+    const out = await request(t.app).post('/api/auth/sign-out').set('Cookie', c1);
+    expect(out.status).toBe(204);
+    expect((await request(t.app).get('/api/me').set('Cookie', c1)).status).toBe(401);
+    expect((await request(t.app).get('/api/me').set('Cookie', c2)).status).toBe(200);
+  });
+
+  it('slides the idle expiry and stops at the absolute lifetime (fake clock)', async () => {
+    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'customer@kestrel.test', password: 'revloop-demo' });
+    const cookie = sessionCookieOf(res)!;
+    // Idle 7 days, absolute 30 days (defaults). Day 2: no renewal needed yet.
+    t.clock.advance(2 * DAY);
+    const early = await request(t.app).get('/api/me').set('Cookie', cookie);
+    expect(early.status).toBe(200);
+    expect(sessionCookieOf(early)).toBeUndefined();
+    // Day 6: past half the idle window, so the session is renewed with a fresh cookie expiry.
+    t.clock.advance(4 * DAY);
+    const renewed = await request(t.app).get('/api/me').set('Cookie', cookie);
+    expect(renewed.status).toBe(200);
+    expect(sessionCookieOf(renewed)).toBe(cookie);
+    // Keep using it every 6 days: alive until day 30, dead after, however active.
+    for (let day = 12; day < 30; day += 6) {
+      t.clock.advance(6 * DAY);
+      expect((await request(t.app).get('/api/me').set('Cookie', cookie)).status).toBe(200);
+    }
+    t.clock.advance(6 * DAY);
+    expect((await request(t.app).get('/api/me').set('Cookie', cookie)).status).toBe(401);
+  });
+
+  it('expires an idle session after the idle window', async () => {
+    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'customer@kestrel.test', password: 'revloop-demo' });
+    t.clock.advance(7 * DAY + 1000);
+    expect((await request(t.app).get('/api/me').set('Cookie', sessionCookieOf(res)!)).status).toBe(401);
+  });
+
+  it('refuses cross-site state-changing requests', async () => {
+    const agent = await signIn(t.app, 'owner@kestrel.test');
+    const foreign = await agent.post('/api/dealers').set('Origin', 'https://evil.example').send({ name: 'X Garage', contactName: 'X', contactEmail: 'x@example.test' });
+    expect(foreign.status).toBe(403);
+    const site = await agent.post('/api/dealers').set('Sec-Fetch-Site', 'cross-site').send({ name: 'X Garage', contactName: 'X', contactEmail: 'x@example.test' });
+    expect(site.status).toBe(403);
+    const own = await agent.post('/api/dealers').set('Origin', TEST_ORIGIN).set('Sec-Fetch-Site', 'same-origin').send({ name: 'X Garage', contactName: 'X', contactEmail: 'x@example.test' });
+    expect(own.status).toBe(201);
+  });
+});
+
+describe('sign-in throttling', () => {
+  const attempt = (ip: string, password: string) =>
+    request(t.app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email: 'tuner@kestrel.test', password });
+
+  it('answers 429 with Retry-After after repeated failures from one address', async () => {
+    for (let i = 0; i < 5; i++) expect((await attempt('203.0.113.7', 'wrong-password')).status).toBe(401);
+    const blocked = await attempt('203.0.113.7', 'revloop-demo');
+    expect(blocked.status).toBe(429);
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    expect(blocked.body.error.code).toBe('rate_limited');
+  });
+
+  it('lets the real user in from a clean address while the account is under attack', async () => {
+    for (let n = 0; n < 25; n++) await attempt(`198.51.100.${n}`, 'wrong-password');
+    expect((await attempt('198.51.100.3', 'wrong-password')).status).toBe(429);
+    expect((await attempt('192.0.2.10', 'revloop-demo')).status).toBe(200);
+  });
+
+  it('lifts the block once the window has passed', async () => {
+    for (let i = 0; i < 5; i++) await attempt('203.0.113.9', 'wrong-password');
+    expect((await attempt('203.0.113.9', 'revloop-demo')).status).toBe(429);
+    t.clock.advance(16 * 60_000);
+    expect((await attempt('203.0.113.9', 'revloop-demo')).status).toBe(200);
+  });
+});
+
+describe('sign-up and password reset', () => {
+  it('creates a shop and its owner', async () => {
+    const res = await request(t.app)
+      .post('/api/auth/sign-up')
+      .send({ shopName: 'Test Bench Co', name: 'Ari Test', email: 'ari@bench.test', password: 'long-enough-pass' });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ role: 'owner', shop: { name: 'Test Bench Co' } });
+    const again = await request(t.app)
+      .post('/api/auth/sign-up')
+      .send({ shopName: 'Other', name: 'Ari', email: 'ari@bench.test', password: 'long-enough-pass' });
+    expect(again.status).toBe(409);
+  });
+
+  it('resets a password through the e-mailed link once, and ends old sessions', async () => {
+    const agent = await signIn(t.app, 'tuner2@kestrel.test');
+    const ask = await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    expect(ask.status).toBe(202);
+    const unknown = await request(t.app).post('/api/auth/password-reset').send({ email: 'ghost@kestrel.test' });
+    expect(unknown.status).toBe(202);
+    const token = new URL(linkFromMail(t.mailbox, 'tuner2@kestrel.test')).searchParams.get('token')!;
+    const done = await request(t.app).post('/api/auth/password-reset/confirm').send({ token, password: 'a-brand-new-secret' });
+    expect(done.status).toBe(204);
+    expect((await agent.get('/api/me')).status).toBe(401);
+    const reuse = await request(t.app).post('/api/auth/password-reset/confirm').send({ token, password: 'another-new-secret' });
+    expect(reuse.status).toBe(400);
+    await signIn(t.app, 'tuner2@kestrel.test', 'a-brand-new-secret');
+  });
+});

@@ -1,0 +1,97 @@
+import { pino } from 'pino';
+import request from 'supertest';
+import { createDb, migrateToLatest, type Db } from '@revloop/db';
+import { seedDemo, type DemoIds } from '../../../../seeds/demo/seed-demo';
+import { DEMO_PASSWORD } from '../../../../seeds/demo/people';
+import { createApp } from '../app';
+import { loadEnv, type Env } from '../env';
+import { startSmtpFake, type Mailbox } from '../fakes/smtp/smtp-fake';
+import { SignInThrottle } from '../features/auth/sign-in-throttle';
+import { createSmtpMailer } from '../features/mail/mailer';
+import type { Clock } from '../http/clock';
+
+export const TEST_ORIGIN = 'http://localhost:8080';
+
+/** A clock the test moves by hand. */
+export class FakeClock implements Clock {
+  // Starts at the real time: cookie jars in tests drop cookies whose Expires lies in the real past.
+  constructor(private t = Date.now()) {}
+  now(): Date {
+    return new Date(this.t);
+  }
+  advance(ms: number): void {
+    this.t += ms;
+  }
+}
+
+export interface TestApp {
+  app: ReturnType<typeof createApp>;
+  db: Db;
+  clock: FakeClock;
+  env: Env;
+  mailbox: Mailbox;
+  ids: DemoIds;
+  close(): Promise<void>;
+}
+
+/** The whole API on an in-memory database loaded with the demo scenario, a fake clock and a live local SMTP mailbox. */
+export async function createTestApp(envOverrides: Record<string, string> = {}): Promise<TestApp> {
+  const db = createDb(':memory:');
+  await migrateToLatest(db);
+  const clock = new FakeClock();
+  const ids = await seedDemo(db, clock.now());
+  const smtp = await startSmtpFake();
+  const env = loadEnv({
+    NODE_ENV: 'test',
+    APP_ORIGIN: TEST_ORIGIN,
+    LOG_LEVEL: 'silent',
+    DATA_DIR: '/tmp/revloop-test-unused',
+    TRUST_PROXY: 'loopback',
+    ...envOverrides,
+  });
+  const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: env.MAIL_FROM });
+  const app = createApp({
+    db,
+    env,
+    clock,
+    mailer,
+    logger: pino({ level: 'silent' }),
+    throttle: new SignInThrottle(undefined, () => clock.now().getTime()),
+    mailbox: smtp.mailbox,
+  });
+  return {
+    app,
+    db,
+    clock,
+    env,
+    mailbox: smtp.mailbox,
+    ids,
+    close: async () => {
+      await smtp.close();
+      await db.destroy();
+    },
+  };
+}
+
+/** Signs in and returns an agent that carries the session cookie. */
+export async function signIn(app: TestApp['app'], email: string, password = DEMO_PASSWORD) {
+  const agent = request.agent(app);
+  const res = await agent.post('/api/auth/sign-in').send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in for ${email} answered ${res.status}: ${JSON.stringify(res.body)}`);
+  return agent;
+}
+
+export const sessionCookieOf = (res: { headers: Record<string, unknown> }): string | undefined => {
+  const raw = res.headers['set-cookie'];
+  const list = Array.isArray(raw) ? (raw as string[]) : typeof raw === 'string' ? [raw] : [];
+  return list.find((c) => c.startsWith('revloop_session='))?.split(';')[0];
+};
+
+/** Pulls the first link to the app out of the newest mail sent to `to`. */
+export function linkFromMail(mailbox: Mailbox, to: string): string {
+  const mail = mailbox.list().find((m) => m.to.includes(to));
+  if (!mail) throw new Error(`no mail to ${to}`);
+  const match = mail.text.match(new RegExp(`${TEST_ORIGIN}\\S+`));
+  if (!match) throw new Error(`no link in mail "${mail.subject}"`);
+  return match[0];
+}

@@ -1,0 +1,114 @@
+import {
+  insertDealer,
+  insertMembership,
+  insertShop,
+  insertUser,
+  newId,
+  type Db,
+} from '@revloop/db';
+import type { ShopRole } from '@revloop/domain/auth';
+import { hashPassword } from '../../apps/api/src/features/auth/password';
+import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
+
+export interface SeededShop {
+  shopId: string;
+  ownerId: string;
+  tunerIds: string[];
+  customerIds: string[];
+  dealerId: string | null;
+  dealerUserId: string | null;
+  dealerCustomerIds: string[];
+}
+
+export interface DemoIds {
+  adminId: string;
+  kestrel: SeededShop;
+  harbor: SeededShop;
+}
+
+/** Loads the invented scenario into an empty, migrated database. Times are spread back from `now`. */
+export async function seedDemo(db: Db, now: Date = new Date()): Promise<DemoIds> {
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  const daysAgo = (d: number) => new Date(now.getTime() - d * 86_400_000).toISOString();
+
+  const user = async (p: { email: string; name: string }, createdDaysAgo: number, platformAdmin = false) =>
+    (
+      await insertUser(db, {
+        id: newId(),
+        email: p.email,
+        name: p.name,
+        password_hash: passwordHash,
+        platform_admin: platformAdmin ? 1 : 0,
+        created_at: daysAgo(createdDaysAgo),
+      })
+    ).id;
+
+  const member = async (shopId: string, userId: string, role: ShopRole, createdDaysAgo: number, dealerId: string | null = null) => {
+    await insertMembership(db, { id: newId(), shop_id: shopId, user_id: userId, role, dealer_id: dealerId, created_at: daysAgo(createdDaysAgo) });
+  };
+
+  const adminId = await user(DEMO_ADMIN, 400, true);
+
+  const kestrelId = (await insertShop(db, { id: newId(), name: KESTREL.name, currency: KESTREL.currency, created_at: daysAgo(320) })).id;
+  const kOwner = await user(KESTREL.owner, 320);
+  await member(kestrelId, kOwner, 'owner', 320);
+  const kTuners: string[] = [];
+  for (const [i, t] of KESTREL.tuners.entries()) {
+    const id = await user(t, 300 - i * 90);
+    await member(kestrelId, id, 'tuner', 300 - i * 90);
+    kTuners.push(id);
+  }
+  const dealer = await insertDealer(db, {
+    id: newId(),
+    shop_id: kestrelId,
+    name: KESTREL.dealer.name,
+    contact_name: KESTREL.dealer.contactName,
+    contact_email: KESTREL.dealer.contactEmail,
+    phone: KESTREL.dealer.phone,
+    created_at: daysAgo(200),
+  });
+  const dealerUserId = await user(KESTREL.dealer.user, 200);
+  await member(kestrelId, dealerUserId, 'dealer', 200, dealer.id);
+  const kCustomers: string[] = [];
+  for (const [i, c] of KESTREL.customers.entries()) {
+    const id = await user(c, 150 - i * 30);
+    await member(kestrelId, id, 'customer', 150 - i * 30);
+    kCustomers.push(id);
+  }
+  const kDealerCustomers: string[] = [];
+  for (const [i, c] of KESTREL.dealerCustomers.entries()) {
+    const id = await user(c, 120 - i * 30);
+    await member(kestrelId, id, 'customer', 120 - i * 30, dealer.id);
+    kDealerCustomers.push(id);
+  }
+
+  const harborId = (await insertShop(db, { id: newId(), name: HARBOR.name, currency: HARBOR.currency, created_at: daysAgo(180) })).id;
+  const hOwner = await user(HARBOR.owner, 180);
+  await member(harborId, hOwner, 'owner', 180);
+  const hTuners: string[] = [];
+  for (const t of HARBOR.tuners) {
+    const id = await user(t, 170);
+    await member(harborId, id, 'tuner', 170);
+    hTuners.push(id);
+  }
+  const hCustomers: string[] = [];
+  for (const [i, c] of HARBOR.customers.entries()) {
+    const id = await user(c, 90 - i * 20);
+    await member(harborId, id, 'customer', 90 - i * 20);
+    hCustomers.push(id);
+  }
+
+  return {
+    adminId,
+    kestrel: {
+      shopId: kestrelId,
+      ownerId: kOwner,
+      tunerIds: kTuners,
+      customerIds: kCustomers,
+      dealerId: dealer.id,
+      dealerUserId,
+      dealerCustomerIds: kDealerCustomers,
+    },
+    harbor: { shopId: harborId, ownerId: hOwner, tunerIds: hTuners, customerIds: hCustomers, dealerId: null, dealerUserId: null, dealerCustomerIds: [] },
+  };
+}
