@@ -57,6 +57,8 @@ export type AppAbility = MongoAbility<[Action, AppSubject], MongoQuery>;
 export const asSubject = <N extends SubjectName, T extends object>(type: N, object: T) =>
   caslSubject(type, object) as T & Record<string, unknown> & ForcedSubject<N>;
 
+const CRUD: Action[] = ['read', 'create', 'update', 'delete'];
+
 const WRITE_ACTIONS: Action[] = [
   'create',
   'update',
@@ -94,11 +96,10 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   switch (actor.role) {
     case 'owner':
       can('update', 'Shop', { id: shopId });
-      can('manage', 'ShopSettings', inShop);
+      can(CRUD, 'ShopSettings', inShop);
       can(['read', 'invite', 'update', 'delete'], ['Member', 'Invitation'], inShop);
       can('create', 'Invitation', inShop);
-      can('manage', ['Dealer', 'Customer', 'Vehicle', 'Package', 'Message', 'Payment', 'Ledger'], inShop);
-      can('manage', 'Subscription', inShop);
+      can(CRUD, ['Dealer', 'Customer', 'Vehicle', 'Package', 'Message', 'Payment', 'Ledger', 'Subscription'], inShop);
       can('read', 'AuditEvent', inShop);
       can(
         ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
