@@ -2,7 +2,15 @@
 // (file → bytes → report) in a fresh child process, so peak RSS belongs to the analysis alone.
 // Run: npx tsx scripts/bench/datalog.ts [rows]
 import { execFileSync } from 'node:child_process';
-import { closeSync, mkdtempSync, openSync, readFileSync, rmSync, statSync, writeSync } from 'node:fs';
+import {
+  closeSync,
+  mkdtempSync,
+  openSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -23,7 +31,9 @@ interface Measurement {
 function measure(path: string): void {
   const start = performance.now();
   const bytes = readFileSync(path);
-  const report = analyzeDatalog(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), { vehicle: DEMO_VEHICLE });
+  const report = analyzeDatalog(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), {
+    vehicle: DEMO_VEHICLE,
+  });
   const elapsedMs = performance.now() - start;
   const result: Measurement = {
     rows: report.rows,
@@ -54,16 +64,28 @@ function main(): void {
     closeSync(fd);
     const bytes = statSync(path).size;
     const header = readFileSync(path, 'utf8').slice(0, 2000).split('\n')[0] ?? '';
-    console.log(`generated ${rows} rows × ${header.split(',').length} channels, ${(bytes / 1e6).toFixed(1)} MB in ${((performance.now() - generateStart) / 1000).toFixed(1)} s`);
+    console.log(
+      `generated ${rows} rows × ${header.split(',').length} channels, ${(bytes / 1e6).toFixed(1)} MB in ${((performance.now() - generateStart) / 1000).toFixed(1)} s`,
+    );
 
     const childStart = performance.now();
-    const out = execFileSync(process.execPath, ['--import', 'tsx', fileURLToPath(import.meta.url), '--measure', path], { encoding: 'utf8' });
+    const out = execFileSync(
+      process.execPath,
+      ['--import', 'tsx', fileURLToPath(import.meta.url), '--measure', path],
+      { encoding: 'utf8' },
+    );
     const childMs = performance.now() - childStart;
     const m = JSON.parse(out) as Measurement;
     const seconds = m.elapsedMs / 1000;
-    console.log(`read + analyse: ${seconds.toFixed(2)} s (child process incl. tsx start ${(childMs / 1000).toFixed(2)} s)`);
-    console.log(`throughput: ${Math.round(m.rows / seconds).toLocaleString('en')} rows/s, ${(bytes / 1e6 / seconds).toFixed(1)} MB/s`);
-    console.log(`peak RSS: ${m.maxRssMb.toFixed(0)} MB; report: ${m.rows} rows, ${m.pulls} pulls, ${m.knockEvents} knock events`);
+    console.log(
+      `read + analyse: ${seconds.toFixed(2)} s (child process incl. tsx start ${(childMs / 1000).toFixed(2)} s)`,
+    );
+    console.log(
+      `throughput: ${Math.round(m.rows / seconds).toLocaleString('en')} rows/s, ${(bytes / 1e6 / seconds).toFixed(1)} MB/s`,
+    );
+    console.log(
+      `peak RSS: ${m.maxRssMb.toFixed(0)} MB; report: ${m.rows} rows, ${m.pulls} pulls, ${m.knockEvents} knock events`,
+    );
     const ok = seconds <= TARGET_SECONDS && m.maxRssMb <= TARGET_RSS_MB;
     console.log(`${ok ? 'PASS' : 'MISS'}: target ≤ ${TARGET_SECONDS} s and ≤ ${TARGET_RSS_MB} MB`);
     process.exitCode = ok ? 0 : 1;

@@ -18,9 +18,14 @@ const file = (name: string, content: string | Uint8Array) => {
   return path;
 };
 
-async function analyze(...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+async function analyze(
+  ...args: string[]
+): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
-    const { stdout, stderr } = await run(process.execPath, ['--import', 'tsx', cli, ...args], { cwd: root, maxBuffer: 1 << 26 });
+    const { stdout, stderr } = await run(process.execPath, ['--import', 'tsx', cli, ...args], {
+      cwd: root,
+      maxBuffer: 1 << 26,
+    });
     return { code: 0, stdout, stderr };
   } catch (error) {
     const e = error as { code: number; stdout: string; stderr: string };
@@ -33,16 +38,46 @@ describe('analyze CLI', () => {
 
   it('prints the report JSON through `npm run -s analyze` with --fuel, --map and --vehicle', async () => {
     const vehicle = file('vehicle.json', JSON.stringify(DEMO_VEHICLE));
-    const { stdout } = await run('npm', ['run', '-s', 'analyze', '--', log, '--fuel', 'e10', '--vehicle', vehicle, '--map', 'afr_meas=AFR'], { cwd: root, maxBuffer: 1 << 26 });
+    const { stdout } = await run(
+      'npm',
+      [
+        'run',
+        '-s',
+        'analyze',
+        '--',
+        log,
+        '--fuel',
+        'e10',
+        '--vehicle',
+        vehicle,
+        '--map',
+        'afr_meas=AFR',
+      ],
+      { cwd: root, maxBuffer: 1 << 26 },
+    );
     const report = JSON.parse(stdout);
     expect(report.fuel.label).toBe('E10');
     expect(report.channels.lambda_meas).toBe('AFR');
     expect(report.wot.pulls[0].gears).toEqual([2, 3]);
-    expect(report.checks.map((c: { id: string }) => c.id)).toEqual(['required_channels', 'engine_warm', 'full_throttle', 'wot_gears', 'sensor_sanity']);
+    expect(report.checks.map((c: { id: string }) => c.id)).toEqual([
+      'required_channels',
+      'engine_warm',
+      'full_throttle',
+      'wot_gears',
+      'sensor_sanity',
+    ]);
   });
 
   it.each([
-    ['a binary file', () => file('image.png', new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d])), /binary data/],
+    [
+      'a binary file',
+      () =>
+        file(
+          'image.png',
+          new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d]),
+        ),
+      /binary data/,
+    ],
     ['an empty file', () => file('empty.csv', ''), /empty/],
     ['a header only', () => file('header.csv', 'Time (s),Engine RPM,MAP (kPa)\n'), /no data rows/],
     ['a missing file', () => join(dir, 'missing.csv'), /no such file/],
@@ -56,6 +91,10 @@ describe('analyze CLI', () => {
 
   it('exits 2 for a bad option', async () => {
     const result = await analyze(log, '--map', 'nonsense');
-    expect(result).toMatchObject({ code: 2, stdout: '', stderr: expect.stringMatching(/--map needs <channel>=<header>/) });
+    expect(result).toMatchObject({
+      code: 2,
+      stdout: '',
+      stderr: expect.stringMatching(/--map needs <channel>=<header>/),
+    });
   });
 });

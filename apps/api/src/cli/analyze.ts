@@ -6,7 +6,8 @@ import { analyzeDatalog, datalogVehicleSchema, type AnalyzeOptions } from '@revl
 import { isDomainError } from '@revloop/domain';
 import { parseFuelOption } from '@revloop/domain/vehicles';
 
-const USAGE = 'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
+const USAGE =
+  'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
 
 class UsageError extends Error {}
 
@@ -15,7 +16,14 @@ function readInput(path: string, what: string): Buffer {
     return readFileSync(path);
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
-    const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : String(code ?? error);
+    const reason =
+      code === 'ENOENT'
+        ? 'no such file'
+        : code === 'EISDIR'
+          ? 'it is a folder'
+          : code === 'EACCES'
+            ? 'permission denied'
+            : String(code ?? error);
     throw new UsageError(`cannot read ${what} "${path}": ${reason}`);
   }
 }
@@ -40,7 +48,9 @@ function parseVehicle(path: string): AnalyzeOptions['vehicle'] {
   }
   const parsed = datalogVehicleSchema.safeParse(json);
   if (!parsed.success) {
-    throw new UsageError(`vehicle file "${path}" needs { gearRatios: number[], finalDrive: number, tyreSize: "245/40R20" }`);
+    throw new UsageError(
+      `vehicle file "${path}" needs { gearRatios: number[], finalDrive: number, tyreSize: "245/40R20" }`,
+    );
   }
   return parsed.data;
 }
@@ -50,7 +60,11 @@ function main(argv: string[]): number {
     const { values, positionals } = parseArgs({
       args: argv,
       allowPositionals: true,
-      options: { fuel: { type: 'string' }, map: { type: 'string', multiple: true }, vehicle: { type: 'string' } },
+      options: {
+        fuel: { type: 'string' },
+        map: { type: 'string', multiple: true },
+        vehicle: { type: 'string' },
+      },
     });
     const [file, ...extra] = positionals;
     if (file === undefined || extra.length > 0) throw new UsageError(USAGE);
@@ -58,11 +72,17 @@ function main(argv: string[]): number {
     if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
     if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
     const bytes = readInput(file, 'log');
-    const report = analyzeDatalog(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), options);
+    const report = analyzeDatalog(
+      new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+      options,
+    );
     process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
     return 0;
   } catch (error) {
-    const known = error instanceof UsageError || isDomainError(error) || (error as { code?: string }).code?.startsWith('ERR_PARSE_ARGS');
+    const known =
+      error instanceof UsageError ||
+      isDomainError(error) ||
+      (error as { code?: string }).code?.startsWith('ERR_PARSE_ARGS');
     if (!known) throw error;
     process.stderr.write(`analyze: ${(error as Error).message.replace(/\s*\n\s*/g, ' ')}\n`);
     return 2;

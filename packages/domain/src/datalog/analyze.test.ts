@@ -26,15 +26,30 @@ const FAULTS: GenerateLogOptions = {
 };
 
 const STYLES: [string, GenerateLogOptions][] = [
-  ['OBD-II names, metric, comma', { headerStyle: 'obd', units: 'metric', format: 'comma', gearChannel: true }],
-  ['abbreviations, metric, tab, two banks', { headerStyle: 'short', units: 'metric', format: 'tab', twoBanks: true }],
-  ['OBD-II names, imperial (°F, mph, boost psi, lb/min, AFR, ms)', { headerStyle: 'obd', units: 'imperial', format: 'comma', preamble: true }],
-  ['abbreviations, imperial, semicolon + decimal comma', { headerStyle: 'short', units: 'imperial', format: 'semicolon_decimal_comma', preamble: true }],
+  [
+    'OBD-II names, metric, comma',
+    { headerStyle: 'obd', units: 'metric', format: 'comma', gearChannel: true },
+  ],
+  [
+    'abbreviations, metric, tab, two banks',
+    { headerStyle: 'short', units: 'metric', format: 'tab', twoBanks: true },
+  ],
+  [
+    'OBD-II names, imperial (°F, mph, boost psi, lb/min, AFR, ms)',
+    { headerStyle: 'obd', units: 'imperial', format: 'comma', preamble: true },
+  ],
+  [
+    'abbreviations, imperial, semicolon + decimal comma',
+    { headerStyle: 'short', units: 'imperial', format: 'semicolon_decimal_comma', preamble: true },
+  ],
 ];
 
 describe.each(STYLES)('analyzeDatalog on a generated log: %s', (_, style) => {
   const log = generateLog({ ...FAULTS, ...style, seed: 7 });
-  const report = analyzeDatalog(encode(log.text), { vehicle: DEMO_VEHICLE, logRequest: { ...defaultLogRequest(), wotGears: 2 } });
+  const report = analyzeDatalog(encode(log.text), {
+    vehicle: DEMO_VEHICLE,
+    logRequest: { ...defaultLogRequest(), wotGears: 2 },
+  });
 
   it('maps every channel and passes the log checks', () => {
     expect(report.rows).toBe(Math.floor(log.truth.durationS * 20) + 1);
@@ -51,13 +66,17 @@ describe.each(STYLES)('analyzeDatalog on a generated log: %s', (_, style) => {
 
   it('recovers each injected trim error within ±1 % and leaves other cells near zero', () => {
     for (const injected of TRIM_ERRORS) {
-      const cell = report.fuelTrim.cells.find((c) => c.rpm[0] === injected.rpm[0] && c.map[0] === injected.map[0]);
+      const cell = report.fuelTrim.cells.find(
+        (c) => c.rpm[0] === injected.rpm[0] && c.map[0] === injected.map[0],
+      );
       expect(cell?.samples).toBeGreaterThanOrEqual(20);
       expect(cell?.meanTrimPct).toBeGreaterThan(injected.trimPct - 1);
       expect(cell?.meanTrimPct).toBeLessThan(injected.trimPct + 1);
       expect(cell?.correctionPct).toBe(cell?.meanTrimPct); // new = old·(1 + trim/100) [CP]
     }
-    const others = report.fuelTrim.cells.filter((c) => !TRIM_ERRORS.some((e) => e.rpm[0] === c.rpm[0] && e.map[0] === c.map[0]));
+    const others = report.fuelTrim.cells.filter(
+      (c) => !TRIM_ERRORS.some((e) => e.rpm[0] === c.rpm[0] && e.map[0] === c.map[0]),
+    );
     expect(others.length).toBeGreaterThan(10);
     for (const cell of others) expect(Math.abs(cell.meanTrimPct)).toBeLessThan(1.5);
   });
@@ -92,7 +111,10 @@ describe.each(STYLES)('analyzeDatalog on a generated log: %s', (_, style) => {
 describe('analyzeDatalog faults the customer must redo', () => {
   it('fails engine_warm on a cold start', () => {
     const report = analyzeDatalog(encode(generateLog({ coldStart: true }).text));
-    expect(check(report, 'engine_warm')).toMatchObject({ status: 'fail', message: expect.stringMatching(/still cold/) });
+    expect(check(report, 'engine_warm')).toMatchObject({
+      status: 'fail',
+      message: expect.stringMatching(/still cold/),
+    });
     expect(report.fuelTrim.cells).toEqual([]);
   });
 
@@ -102,8 +124,13 @@ describe('analyzeDatalog faults the customer must redo', () => {
   });
 
   it('fails full_throttle when the pedal was only half pressed', () => {
-    const report = analyzeDatalog(encode(generateLog({ pulls: [{ gears: [3], pedalPct: 50 }] }).text));
-    expect(check(report, 'full_throttle')).toMatchObject({ status: 'fail', message: expect.stringMatching(/only reached 50 %/) });
+    const report = analyzeDatalog(
+      encode(generateLog({ pulls: [{ gears: [3], pedalPct: 50 }] }).text),
+    );
+    expect(check(report, 'full_throttle')).toMatchObject({
+      status: 'fail',
+      message: expect.stringMatching(/only reached 50 %/),
+    });
     expect(report.wot.pulls).toEqual([]);
     expect(check(report, 'wot_gears')?.status).toBe('fail');
   });
@@ -111,19 +138,32 @@ describe('analyzeDatalog faults the customer must redo', () => {
   it('warns on wot_gears when fewer gears than requested were pulled, and when the gear is unknown', () => {
     const log = encode(generateLog({ pulls: [{ gears: [3] }] }).text);
     const request = { ...defaultLogRequest(undefined, 2) };
-    expect(check(analyzeDatalog(log, { vehicle: DEMO_VEHICLE, logRequest: request }), 'wot_gears')).toMatchObject({ status: 'warn', message: expect.stringMatching(/1 gear \(3rd\)/) });
-    expect(check(analyzeDatalog(log, { logRequest: request }), 'wot_gears')?.message).toMatch(/could not be told/);
+    expect(
+      check(analyzeDatalog(log, { vehicle: DEMO_VEHICLE, logRequest: request }), 'wot_gears'),
+    ).toMatchObject({ status: 'warn', message: expect.stringMatching(/1 gear \(3rd\)/) });
+    expect(check(analyzeDatalog(log, { logRequest: request }), 'wot_gears')?.message).toMatch(
+      /could not be told/,
+    );
   });
 
   it('flags a dead sensor as flatline', () => {
     const report = analyzeDatalog(encode(generateLog({ deadSensor: 'maf' }).text));
-    expect(report.sensors).toEqual([expect.objectContaining({ channel: 'maf', issue: 'flatline' })]);
+    expect(report.sensors).toEqual([
+      expect.objectContaining({ channel: 'maf', issue: 'flatline' }),
+    ]);
     expect(check(report, 'sensor_sanity')?.status).toBe('fail');
   });
 
   it('fails required_channels when a requested channel is missing', () => {
-    const report = analyzeDatalog(encode(generateLog().text), { logRequest: { ...defaultLogRequest('v8'), wotGears: 1 } });
-    expect(check(report, 'required_channels')).toMatchObject({ status: 'fail', message: expect.stringMatching(/short-term fuel trim, bank 2 and long-term fuel trim, bank 2/) });
+    const report = analyzeDatalog(encode(generateLog().text), {
+      logRequest: { ...defaultLogRequest('v8'), wotGears: 1 },
+    });
+    expect(check(report, 'required_channels')).toMatchObject({
+      status: 'fail',
+      message: expect.stringMatching(
+        /short-term fuel trim, bank 2 and long-term fuel trim, bank 2/,
+      ),
+    });
   });
 });
 
@@ -139,9 +179,21 @@ describe('sensor dropouts and impossible readings', () => {
 
   it('reports time gaps, blank runs and out-of-range values in plain words', () => {
     expect(report.sensors).toEqual([
-      { channel: 'time', issue: 'dropout', message: expect.stringMatching(/skipped samples once \(longest gap 2\.1 s\)/) },
-      { channel: 'coolant_temp', issue: 'out_of_range', message: expect.stringMatching(/read 215°C in 10 samples/) },
-      { channel: 'map', issue: 'dropout', message: expect.stringMatching(/dropped out once \(longest 2\.1 s\)/) },
+      {
+        channel: 'time',
+        issue: 'dropout',
+        message: expect.stringMatching(/skipped samples once \(longest gap 2\.1 s\)/),
+      },
+      {
+        channel: 'coolant_temp',
+        issue: 'out_of_range',
+        message: expect.stringMatching(/read 215°C in 10 samples/),
+      },
+      {
+        channel: 'map',
+        issue: 'dropout',
+        message: expect.stringMatching(/dropped out once \(longest 2\.1 s\)/),
+      },
     ]);
     expect(check(report, 'sensor_sanity')?.status).toBe('fail');
   });
@@ -150,23 +202,40 @@ describe('sensor dropouts and impossible readings', () => {
 describe('fuel and units', () => {
   it('converts an E85 AFR log with the blend stoichiometric ratio', () => {
     // REFERENCES: E85 stoich ≈ 9.8 (mass-weighted blend, [CALC]); the generator writes AFR = λ·stoich.
-    const log = generateLog({ units: 'imperial', fuel: { kind: 'ethanol_blend', ethanolPct: 85 }, pulls: [{ gears: [3] }] });
-    const e85 = analyzeDatalog(encode(log.text), { fuel: { kind: 'ethanol_blend', ethanolPct: 85 } });
+    const log = generateLog({
+      units: 'imperial',
+      fuel: { kind: 'ethanol_blend', ethanolPct: 85 },
+      pulls: [{ gears: [3] }],
+    });
+    const e85 = analyzeDatalog(encode(log.text), {
+      fuel: { kind: 'ethanol_blend', ethanolPct: 85 },
+    });
     expect(e85.fuel.stoichAfr).toBeCloseTo(9.81, 1);
     expect(e85.units.lambda_meas).toMatch(/^AFR/);
-    for (const bin of e85.wot.pulls[0]?.lambdaError ?? []) expect(Math.abs(bin.meanErrorPct)).toBeLessThan(1);
+    for (const bin of e85.wot.pulls[0]?.lambdaError ?? [])
+      expect(Math.abs(bin.meanErrorPct)).toBeLessThan(1);
     // The fuel choice scales every AFR channel alike: the absolute lambda changes by the ratio of the stoich values.
     const asGasoline = readDatalog(encode(log.text));
-    const asE85 = readDatalog(encode(log.text), { fuel: { kind: 'ethanol_blend', ethanolPct: 85 } });
-    const ratio = (asGasoline.channels.lambda_meas?.[0] ?? 0) / (asE85.channels.lambda_meas?.[0] ?? 1);
+    const asE85 = readDatalog(encode(log.text), {
+      fuel: { kind: 'ethanol_blend', ethanolPct: 85 },
+    });
+    const ratio =
+      (asGasoline.channels.lambda_meas?.[0] ?? 0) / (asE85.channels.lambda_meas?.[0] ?? 1);
     expect(ratio).toBeCloseTo(e85.fuel.stoichAfr / 14.7, 4); // λ = AFR / AFR_stoich [definition]
   });
 
   it('serves the canonical series for charts and reports progress up to 1', () => {
     const seen: number[] = [];
-    const series = readDatalog(encode(generateLog({ units: 'imperial' }).text), { onProgress: (f) => seen.push(f) });
+    const series = readDatalog(encode(generateLog({ units: 'imperial' }).text), {
+      onProgress: (f) => seen.push(f),
+    });
     expect(series.time[1]).toBeCloseTo(0.05, 6);
-    expect(series.units).toMatchObject({ time: 'ms', map: 'psi (gauge)', coolant_temp: '°F', vehicle_speed: 'mph' });
+    expect(series.units).toMatchObject({
+      time: 'ms',
+      map: 'psi (gauge)',
+      coolant_temp: '°F',
+      vehicle_speed: 'mph',
+    });
     expect(series.notes.join(' ')).toMatch(/101\.325 kPa/);
     expect(seen.at(-1)).toBeCloseTo(0.9, 6);
     expect([...seen].sort((a, b) => a - b)).toEqual(seen);

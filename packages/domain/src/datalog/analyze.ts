@@ -1,4 +1,10 @@
-import { engineWarmCheck, fullThrottleCheck, requiredChannelsCheck, sensorSanityCheck, wotGearsCheck } from './checks';
+import {
+  engineWarmCheck,
+  fullThrottleCheck,
+  requiredChannelsCheck,
+  sensorSanityCheck,
+  wotGearsCheck,
+} from './checks';
 import { createContext, round, type DatalogVehicle } from './context';
 import { analyzeFuelTrims } from './fuel-trim';
 import { analyzePulls, findPartialPulls, findPulls } from './full-throttle';
@@ -16,7 +22,10 @@ export interface AnalyzeOptions extends ReadDatalogOptions {
 }
 
 /** The report for a log already in canonical units (see readDatalog). */
-export function analyzeDatalogSeries(series: DatalogSeries, options: Omit<AnalyzeOptions, 'fuel' | 'map'> = {}): DatalogReport {
+export function analyzeDatalogSeries(
+  series: DatalogSeries,
+  options: Omit<AnalyzeOptions, 'fuel' | 'map'> = {},
+): DatalogReport {
   const settings: AnalysisSettings = { ...DEFAULT_ANALYSIS_SETTINGS, ...options.settings };
   const request = options.logRequest ?? defaultLogRequest();
   const ctx = createContext(series, settings, options.vehicle);
@@ -28,13 +37,17 @@ export function analyzeDatalogSeries(series: DatalogSeries, options: Omit<Analyz
   const durationS = series.rows > 1 ? (series.time[series.rows - 1] as number) : 0;
   const notes = [...series.notes];
   if (series.channels.lambda_cmd === undefined && series.channels.lambda_meas !== undefined) {
-    notes.push(`Commanded lambda was not logged; full-throttle lambda is compared with a target of ${settings.wotDefaultTargetLambda}.`);
+    notes.push(
+      `Commanded lambda was not logged; full-throttle lambda is compared with a target of ${settings.wotDefaultTargetLambda}.`,
+    );
   }
   const report: DatalogReport = {
     rows: series.rows,
     durationS: round(durationS),
     sampleRateHz: durationS > 0 ? round((series.rows - 1) / durationS) : 0,
-    channels: Object.fromEntries(Object.entries(series.mapping.channels).map(([channel, mapped]) => [channel, mapped.header])),
+    channels: Object.fromEntries(
+      Object.entries(series.mapping.channels).map(([channel, mapped]) => [channel, mapped.header]),
+    ),
     units: series.units,
     headerSignature: series.mapping.signature,
     fuel: { label: series.fuel.label, stoichAfr: round(series.fuel.stoichAfr, 3) },

@@ -65,7 +65,11 @@ export const CHANNEL_INFO: Readonly<Record<CanonicalChannel, ChannelInfo>> = {
   stft_b2: { quantity: 'percent', unit: '%', label: 'short-term fuel trim, bank 2' },
   ltft_b2: { quantity: 'percent', unit: '%', label: 'long-term fuel trim, bank 2' },
   lambda_cmd: { quantity: 'lambda', unit: 'λ', label: 'commanded lambda (air-fuel ratio)' },
-  lambda_meas: { quantity: 'lambda', unit: 'λ', label: 'measured lambda (wideband air-fuel ratio)' },
+  lambda_meas: {
+    quantity: 'lambda',
+    unit: 'λ',
+    label: 'measured lambda (wideband air-fuel ratio)',
+  },
   knock_retard: { quantity: 'angle', unit: '°', label: 'knock retard' },
   spark_advance: { quantity: 'angle', unit: '°', label: 'spark advance' },
   gear: { quantity: 'count', unit: '', label: 'gear' },
@@ -78,7 +82,9 @@ const BANK1 = '(?: (?:bank|b) 1| 1)?';
 const BANK2 = ' (?:bank|b) 2| 2';
 
 export const CHANNEL_SYNONYMS: Readonly<Record<CanonicalChannel, readonly RegExp[]>> = {
-  time: [/^(?:time|timestamp|time stamp|elapsed time|log time|elapsed|seconds|sec|secs|t|offset|ms)$/],
+  time: [
+    /^(?:time|timestamp|time stamp|elapsed time|log time|elapsed|seconds|sec|secs|t|offset|ms)$/,
+  ],
   rpm: [/^(?:engine |eng )?(?:rpm|revs)$/, /^(?:eng|engine) (?:spd|speed)$/, /^tach(?:ometer)?$/],
   vehicle_speed: [
     /^(?:vehicle|veh|road|ground|car) (?:speed|spd)$/,
@@ -110,11 +116,30 @@ export const CHANNEL_SYNONYMS: Readonly<Record<CanonicalChannel, readonly RegExp
     /^accelerator pedal position [ef]$/,
     /^relative accelerator pedal position$/,
   ],
-  engine_load: [/^(?:calculated )?(?:engine )?load(?: value)?$/, /^(?:calc load|load pct|eng load)$/],
-  stft_b1: [new RegExp(`^(?:short term fuel trim|stft|short term ft|st ft|st fuel trim|st trim|sft|fuel trim short term)${BANK1}$`)],
-  ltft_b1: [new RegExp(`^(?:long term fuel trim|ltft|long term ft|lt ft|lt fuel trim|lt trim|lft|fuel trim long term)${BANK1}$`)],
-  stft_b2: [new RegExp(`^(?:short term fuel trim|stft|short term ft|st ft|st fuel trim|st trim|sft|fuel trim short term)(?:${BANK2})$`)],
-  ltft_b2: [new RegExp(`^(?:long term fuel trim|ltft|long term ft|lt ft|lt fuel trim|lt trim|lft|fuel trim long term)(?:${BANK2})$`)],
+  engine_load: [
+    /^(?:calculated )?(?:engine )?load(?: value)?$/,
+    /^(?:calc load|load pct|eng load)$/,
+  ],
+  stft_b1: [
+    new RegExp(
+      `^(?:short term fuel trim|stft|short term ft|st ft|st fuel trim|st trim|sft|fuel trim short term)${BANK1}$`,
+    ),
+  ],
+  ltft_b1: [
+    new RegExp(
+      `^(?:long term fuel trim|ltft|long term ft|lt ft|lt fuel trim|lt trim|lft|fuel trim long term)${BANK1}$`,
+    ),
+  ],
+  stft_b2: [
+    new RegExp(
+      `^(?:short term fuel trim|stft|short term ft|st ft|st fuel trim|st trim|sft|fuel trim short term)(?:${BANK2})$`,
+    ),
+  ],
+  ltft_b2: [
+    new RegExp(
+      `^(?:long term fuel trim|ltft|long term ft|lt ft|lt fuel trim|lt trim|lft|fuel trim long term)(?:${BANK2})$`,
+    ),
+  ],
   lambda_cmd: [
     /^commanded (?:equivalence ratio|lambda|afr|air fuel ratio|a f ratio|eq ratio)$/,
     /^(?:lambda|afr|air fuel ratio|eq ratio|equivalence ratio) (?:target|tgt|cmd|command|commanded|desired|request|requested|des)$/,
@@ -133,7 +158,9 @@ export const CHANNEL_SYNONYMS: Readonly<Record<CanonicalChannel, readonly RegExp
   spark_advance: [
     /^(?:timing advance|ignition timing|spark advance|ignition advance|spark timing|timing|spark|ign timing|ign adv|spark adv|ignition angle)$/,
   ],
-  gear: [/^(?:gear|current gear|gear position|trans gear|transmission gear|gear engaged|selected gear|gear actual)$/],
+  gear: [
+    /^(?:gear|current gear|gear position|trans gear|transmission gear|gear engaged|selected gear|gear actual)$/,
+  ],
 };
 
 export const isCanonicalChannel = (name: string): name is CanonicalChannel =>

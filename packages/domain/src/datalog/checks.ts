@@ -3,15 +3,21 @@ import { round, type AnalysisContext } from './context';
 import type { LogRequest } from './log-request';
 import type { DatalogCheck, SensorIssue, WotPull } from './report';
 
-const ordinal = (n: number) => `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n % 10 === 2 && n % 100 !== 12 ? 'nd' : n % 10 === 3 && n % 100 !== 13 ? 'rd' : 'th'}`;
+const ordinal = (n: number) =>
+  `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n % 10 === 2 && n % 100 !== 12 ? 'nd' : n % 10 === 3 && n % 100 !== 13 ? 'rd' : 'th'}`;
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
-const listWords = (words: string[]) => (words.length <= 1 ? words.join('') : `${words.slice(0, -1).join(', ')} and ${words.at(-1)}`);
+const listWords = (words: string[]) =>
+  words.length <= 1 ? words.join('') : `${words.slice(0, -1).join(', ')} and ${words.at(-1)}`;
 
 export function requiredChannelsCheck(ctx: AnalysisContext, request: LogRequest): DatalogCheck {
   const present = ctx.series.mapping.channels;
   const missing = request.channels.filter((c) => present[c] === undefined);
   if (missing.length === 0) {
-    return { id: 'required_channels', status: 'pass', message: `All ${request.channels.length} requested channels are in the log.` };
+    return {
+      id: 'required_channels',
+      status: 'pass',
+      message: `All ${request.channels.length} requested channels are in the log.`,
+    };
   }
   return {
     id: 'required_channels',
@@ -20,16 +26,34 @@ export function requiredChannelsCheck(ctx: AnalysisContext, request: LogRequest)
   };
 }
 
-export function engineWarmCheck(ctx: AnalysisContext, pulls: [number, number][], request: LogRequest): DatalogCheck {
+export function engineWarmCheck(
+  ctx: AnalysisContext,
+  pulls: [number, number][],
+  request: LogRequest,
+): DatalogCheck {
   const coolant = ctx.series.channels.coolant_temp;
   const warm = ctx.settings.warmCoolantC;
   const id = 'engine_warm';
-  if (coolant === undefined) return { id, status: 'warn', message: 'Coolant temperature was not logged, so the warm-up cannot be checked.' };
+  if (coolant === undefined)
+    return {
+      id,
+      status: 'warn',
+      message: 'Coolant temperature was not logged, so the warm-up cannot be checked.',
+    };
   const firstFinite = coolant.findIndex((v) => Number.isFinite(v));
-  if (firstFinite < 0) return { id, status: 'warn', message: 'The coolant temperature column is empty, so the warm-up cannot be checked.' };
+  if (firstFinite < 0)
+    return {
+      id,
+      status: 'warn',
+      message: 'The coolant temperature column is empty, so the warm-up cannot be checked.',
+    };
   const startC = coolant[firstFinite] as number;
   if (startC >= warm) {
-    return { id, status: 'pass', message: `The engine was already warm (${round(startC, 0)} °C) when the log started.` };
+    return {
+      id,
+      status: 'pass',
+      message: `The engine was already warm (${round(startC, 0)} °C) when the log started.`,
+    };
   }
   const firstWot = pulls[0]?.[0];
   const warmAt = coolant.findIndex((v) => v >= warm);
@@ -48,7 +72,8 @@ export function engineWarmCheck(ctx: AnalysisContext, pulls: [number, number][],
   let engineStart = 0;
   while (engineStart < ctx.rows && !ctx.running(engineStart)) engineStart++;
   const warmMinutes = ((ctx.time[warmAt] as number) - (ctx.time[engineStart] as number)) / 60;
-  const drivenMinutes = wotTime === undefined ? undefined : (wotTime - (ctx.time[engineStart] as number)) / 60;
+  const drivenMinutes =
+    wotTime === undefined ? undefined : (wotTime - (ctx.time[engineStart] as number)) / 60;
   if (drivenMinutes !== undefined && drivenMinutes < request.warmupMinutes) {
     return {
       id,
@@ -56,20 +81,37 @@ export function engineWarmCheck(ctx: AnalysisContext, pulls: [number, number][],
       message: `The engine reached ${warm} °C, but full throttle came after only ${round(drivenMinutes, 1)} minutes of driving; about ${request.warmupMinutes} were asked for.`,
     };
   }
-  return { id, status: 'pass', message: `The engine reached ${warm} °C after ${round(warmMinutes, 1)} minutes and was warm before full throttle.` };
+  return {
+    id,
+    status: 'pass',
+    message: `The engine reached ${warm} °C after ${round(warmMinutes, 1)} minutes and was warm before full throttle.`,
+  };
 }
 
-export function fullThrottleCheck(ctx: AnalysisContext, pulls: WotPull[], partials: { maxPct: number }[]): DatalogCheck {
+export function fullThrottleCheck(
+  ctx: AnalysisContext,
+  pulls: WotPull[],
+  partials: { maxPct: number }[],
+): DatalogCheck {
   const id = 'full_throttle';
   const drive = ctx.drive;
   if (drive === undefined) {
-    return { id, status: 'fail', message: 'Neither accelerator pedal nor throttle position was logged, so full throttle cannot be found.' };
+    return {
+      id,
+      status: 'fail',
+      message:
+        'Neither accelerator pedal nor throttle position was logged, so full throttle cannot be found.',
+    };
   }
   const what = drive.channel === 'pedal_pos' ? 'pedal' : 'throttle';
   const threshold = ctx.settings.wotThresholdPct;
   if (pulls.length > 0) {
     const max = Math.max(...pulls.map((p) => p.maxPedalPct));
-    return { id, status: 'pass', message: `Found ${plural(pulls.length, 'full-throttle pull')}, with the ${what} at up to ${round(max, 0)} %.` };
+    return {
+      id,
+      status: 'pass',
+      message: `Found ${plural(pulls.length, 'full-throttle pull')}, with the ${what} at up to ${round(max, 0)} %.`,
+    };
   }
   if (partials.length > 0) {
     const max = Math.max(...partials.map((p) => p.maxPct));
@@ -79,31 +121,58 @@ export function fullThrottleCheck(ctx: AnalysisContext, pulls: WotPull[], partia
       message: `The ${what} only reached ${round(max, 0)} % during the pull. Press the pedal all the way to the floor (at least ${threshold} %) for the whole gear; a partly pressed pedal gives no usable full-throttle data.`,
     };
   }
-  return { id, status: 'fail', message: 'No full-throttle pull was found. Press the pedal to the floor through a gear while logging.' };
+  return {
+    id,
+    status: 'fail',
+    message:
+      'No full-throttle pull was found. Press the pedal to the floor through a gear while logging.',
+  };
 }
 
-export function wotGearsCheck(ctx: AnalysisContext, pulls: WotPull[], request: LogRequest): DatalogCheck {
+export function wotGearsCheck(
+  ctx: AnalysisContext,
+  pulls: WotPull[],
+  request: LogRequest,
+): DatalogCheck {
   const id = 'wot_gears';
   const asked = plural(request.wotGears, 'gear');
-  if (pulls.length === 0) return { id, status: 'fail', message: `There is no full-throttle pull, and ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.` };
+  if (pulls.length === 0)
+    return {
+      id,
+      status: 'fail',
+      message: `There is no full-throttle pull, and ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.`,
+    };
   if (!ctx.gearKnown) {
     return {
       id,
       status: 'warn',
-      message: 'The gear could not be told: no gear channel was logged and no gear ratios were given, so the number of full-throttle gears is unknown.',
+      message:
+        'The gear could not be told: no gear channel was logged and no gear ratios were given, so the number of full-throttle gears is unknown.',
     };
   }
   const gears = [...new Set(pulls.flatMap((p) => p.gears))].sort((a, b) => a - b);
-  const held = gears.length === 0 ? 'no gear that could be told' : `${plural(gears.length, 'gear')} (${listWords(gears.map(ordinal))})`;
+  const held =
+    gears.length === 0
+      ? 'no gear that could be told'
+      : `${plural(gears.length, 'gear')} (${listWords(gears.map(ordinal))})`;
   if (gears.length >= request.wotGears) {
-    return { id, status: 'pass', message: `Full throttle was held in ${held}; ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.` };
+    return {
+      id,
+      status: 'pass',
+      message: `Full throttle was held in ${held}; ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.`,
+    };
   }
-  return { id, status: 'warn', message: `Full throttle was held in ${held}, but ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.` };
+  return {
+    id,
+    status: 'warn',
+    message: `Full throttle was held in ${held}, but ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.`,
+  };
 }
 
 export function sensorSanityCheck(issues: SensorIssue[]): DatalogCheck {
   const id = 'sensor_sanity';
-  if (issues.length === 0) return { id, status: 'pass', message: 'Every sensor read plausibly through the log.' };
+  if (issues.length === 0)
+    return { id, status: 'pass', message: 'Every sensor read plausibly through the log.' };
   const serious = issues.filter((i) => i.issue !== 'dropout');
   const names = [...new Set(issues.map((i) => CHANNEL_INFO[i.channel].label))];
   return {

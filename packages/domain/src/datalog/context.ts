@@ -25,10 +25,26 @@ export interface AnalysisContext {
   gearKnown: boolean;
 }
 
-export function createContext(series: DatalogSeries, settings: AnalysisSettings, vehicle?: DatalogVehicle): AnalysisContext {
-  const { rpm, pedal_pos: pedal, throttle_pos: throttle, gear, vehicle_speed: speed } = series.channels;
-  const drive = pedal !== undefined ? { channel: 'pedal_pos' as const, values: pedal } : throttle !== undefined ? { channel: 'throttle_pos' as const, values: throttle } : undefined;
-  const running = rpm === undefined ? () => true : (i: number) => (rpm[i] as number) >= settings.engineRunningRpm;
+export function createContext(
+  series: DatalogSeries,
+  settings: AnalysisSettings,
+  vehicle?: DatalogVehicle,
+): AnalysisContext {
+  const {
+    rpm,
+    pedal_pos: pedal,
+    throttle_pos: throttle,
+    gear,
+    vehicle_speed: speed,
+  } = series.channels;
+  const drive =
+    pedal !== undefined
+      ? { channel: 'pedal_pos' as const, values: pedal }
+      : throttle !== undefined
+        ? { channel: 'throttle_pos' as const, values: throttle }
+        : undefined;
+  const running =
+    rpm === undefined ? () => true : (i: number) => (rpm[i] as number) >= settings.engineRunningRpm;
 
   let gearAt: (i: number) => number | null = () => null;
   let gearKnown = false;
@@ -42,13 +58,35 @@ export function createContext(series: DatalogSeries, settings: AnalysisSettings,
     gearKnown = true;
     const circumference = parseTyreSize(vehicle.tyreSize).circumferenceMm;
     gearAt = (i) =>
-      gearFromRpmAndSpeed(rpm[i] as number, speed[i] as number, vehicle.gearRatios, vehicle.finalDrive, circumference, settings.gearTolerance);
+      gearFromRpmAndSpeed(
+        rpm[i] as number,
+        speed[i] as number,
+        vehicle.gearRatios,
+        vehicle.finalDrive,
+        circumference,
+        settings.gearTolerance,
+      );
   }
-  return { series, settings, rows: series.rows, time: series.time, rpm, drive, running, gearAt, gearKnown };
+  return {
+    series,
+    settings,
+    rows: series.rows,
+    time: series.time,
+    rpm,
+    drive,
+    running,
+    gearAt,
+    gearKnown,
+  };
 }
 
 /** Index ranges [start, end] (inclusive) where `inside(i)` holds, bridging gaps up to `gapS`, at least `minS` long. */
-export function findRuns(time: Float64Array, inside: (i: number) => boolean, gapS: number, minS: number): [number, number][] {
+export function findRuns(
+  time: Float64Array,
+  inside: (i: number) => boolean,
+  gapS: number,
+  minS: number,
+): [number, number][] {
   const runs: [number, number][] = [];
   let start = -1;
   let last = -1;

@@ -6,13 +6,19 @@ const bytes = (text: string) => new TextEncoder().encode(text);
 const parseAll = (text: string) => {
   const b = bytes(text);
   const layout = detectCsvLayout(b);
-  const parsed = parseCsvColumns(b, layout, layout.headers.map((_, column) => ({ column, float64: true })));
+  const parsed = parseCsvColumns(
+    b,
+    layout,
+    layout.headers.map((_, column) => ({ column, float64: true })),
+  );
   return { layout, rows: parsed.rows, columns: parsed.columns.map((c) => Array.from(c)) };
 };
 
 describe('detectCsvLayout and parseCsvColumns', () => {
   it('finds the header after a preamble and reads quoted headers, blanks and CRLF', () => {
-    const { layout, rows, columns } = parseAll('Logger export v2\r\nDate: 2024-05-01, 10:00\r\n\r\n"Time (s)","Engine RPM","Coolant Temp [°F]"\r\n0.0,800,100.5\r\n0.1,,101\r\n0.2,820,\r\n');
+    const { layout, rows, columns } = parseAll(
+      'Logger export v2\r\nDate: 2024-05-01, 10:00\r\n\r\n"Time (s)","Engine RPM","Coolant Temp [°F]"\r\n0.0,800,100.5\r\n0.1,,101\r\n0.2,820,\r\n',
+    );
     expect(layout.headers).toEqual(['Time (s)', 'Engine RPM', 'Coolant Temp [°F]']);
     expect(layout.delimiter).toBe(0x2c);
     expect(rows).toBe(3);
@@ -24,14 +30,20 @@ describe('detectCsvLayout and parseCsvColumns', () => {
   it('reads semicolons with decimal commas and tabs', () => {
     const semi = parseAll('"Zeit";"RPM";"Lambda"\n0,05;1500;0,998\n0,10;1520;-1,5e-1\n');
     expect(semi.layout).toMatchObject({ delimiter: 0x3b, decimalComma: true });
-    expect(semi.columns).toEqual([[0.05, 0.1], [1500, 1520], [0.998, -0.15]]);
+    expect(semi.columns).toEqual([
+      [0.05, 0.1],
+      [1500, 1520],
+      [0.998, -0.15],
+    ]);
     const tab = parseAll('Time\tRPM\tMAP\n1.5\t900\t35.5\n');
     expect(tab.layout.delimiter).toBe(0x09);
     expect(tab.columns).toEqual([[1.5], [900], [35.5]]);
   });
 
   it('merges a units row into the headers and reads clock times as seconds', () => {
-    const { layout, columns } = parseAll('Time,Engine Speed,Speed\nhh:mm:ss,rpm,mph\n10:00:00.5,900,0\n10:00:01.0,950,1.5\n');
+    const { layout, columns } = parseAll(
+      'Time,Engine Speed,Speed\nhh:mm:ss,rpm,mph\n10:00:00.5,900,0\n10:00:01.0,950,1.5\n',
+    );
     expect(layout.headers).toEqual(['Time (hh:mm:ss)', 'Engine Speed (rpm)', 'Speed (mph)']);
     expect(columns[0]).toEqual([36000.5, 36001]); // [CALC] 10 h = 36000 s
   });

@@ -21,7 +21,6 @@ export interface ColumnRequest {
 }
 
 const COMMA = 0x2c;
-const SEMICOLON = 0x3b;
 const TAB = 0x09;
 const QUOTE = 0x22;
 const LF = 0x0a;
@@ -66,20 +65,31 @@ function decodeLine(bytes: Uint8Array): string {
 }
 
 /** Lines of the sample region by byte offset, so the data start is a byte position in the original buffer. */
-function sampleLines(bytes: Uint8Array, start: number): { text: string; start: number; bytes: number }[] {
+function sampleLines(
+  bytes: Uint8Array,
+  start: number,
+): { text: string; start: number; bytes: number }[] {
   const end = Math.min(bytes.length, start + SAMPLE_BYTES);
   const lines: { text: string; start: number; bytes: number }[] = [];
   let lineStart = start;
   for (let i = start; i < end; i++) {
     const b = bytes[i];
     if (b !== LF && b !== CR) continue;
-    lines.push({ text: decodeLine(bytes.subarray(lineStart, i)), start: lineStart, bytes: i - lineStart });
+    lines.push({
+      text: decodeLine(bytes.subarray(lineStart, i)),
+      start: lineStart,
+      bytes: i - lineStart,
+    });
     if (b === CR && bytes[i + 1] === LF) i++;
     lineStart = i + 1;
   }
   // A line cut off by the sample window is incomplete; keep it only when it is the end of the file.
   if (end === bytes.length && lineStart < end) {
-    lines.push({ text: decodeLine(bytes.subarray(lineStart, end)), start: lineStart, bytes: end - lineStart });
+    lines.push({
+      text: decodeLine(bytes.subarray(lineStart, end)),
+      start: lineStart,
+      bytes: end - lineStart,
+    });
   }
   return lines.filter((l) => l.text.trim() !== '');
 }
@@ -104,8 +114,10 @@ function splitFields(line: string, delimiter: string): string[] {
   return fields;
 }
 
-const NUMBER_DOT = /^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?$|^\d{1,2}:\d{2}(?::\d{2})?(?:\.\d+)?$/;
-const NUMBER_COMMA = /^[-+]?(?:\d+,?\d*|,\d+)(?:[eE][-+]?\d+)?$|^\d{1,2}:\d{2}(?::\d{2})?(?:,\d+)?$/;
+const NUMBER_DOT =
+  /^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?$|^\d{1,2}:\d{2}(?::\d{2})?(?:\.\d+)?$/;
+const NUMBER_COMMA =
+  /^[-+]?(?:\d+,?\d*|,\d+)(?:[eE][-+]?\d+)?$|^\d{1,2}:\d{2}(?::\d{2})?(?:,\d+)?$/;
 
 interface Candidate {
   delimiter: string;
@@ -116,12 +128,17 @@ interface Candidate {
   decimalComma: boolean;
 }
 
-function tryCandidate(lines: { text: string }[], headerIndex: number, delimiter: string): Candidate | 'header_only' | null {
+function tryCandidate(
+  lines: { text: string }[],
+  headerIndex: number,
+  delimiter: string,
+): Candidate | 'header_only' | null {
   const headerLine = lines[headerIndex];
   if (headerLine === undefined) return null;
   const header = splitFields(headerLine.text, delimiter);
   const width = header.length;
-  const isNumber = (cell: string) => NUMBER_DOT.test(cell) || (delimiter !== ',' && NUMBER_COMMA.test(cell));
+  const isNumber = (cell: string) =>
+    NUMBER_DOT.test(cell) || (delimiter !== ',' && NUMBER_COMMA.test(cell));
   const textCells = header.filter((c) => c !== '' && !isNumber(c)).length;
   if (width < 2 || textCells < Math.max(2, width / 2)) return null;
   if (headerIndex === lines.length - 1) return 'header_only';
@@ -129,7 +146,10 @@ function tryCandidate(lines: { text: string }[], headerIndex: number, delimiter:
   let dataIndex = headerIndex + 1;
   const next = lines[dataIndex];
   const nextCells = next === undefined ? [] : splitFields(next.text, delimiter);
-  const unitsRow = nextCells.length === width && nextCells.every((c) => c === '' || !isNumber(c)) && dataIndex + 1 < lines.length;
+  const unitsRow =
+    nextCells.length === width &&
+    nextCells.every((c) => c === '' || !isNumber(c)) &&
+    dataIndex + 1 < lines.length;
   if (unitsRow) dataIndex++;
 
   const dataLines = lines.slice(dataIndex, dataIndex + DATA_LINES_CHECKED);
@@ -154,7 +174,14 @@ function tryCandidate(lines: { text: string }[], headerIndex: number, delimiter:
     }
   }
   if (good === 0 || good < judged * 0.8) return null;
-  return { delimiter, headerIndex, unitsRow, dataIndex, width, decimalComma: delimiter !== ',' && commaDecimals > dotDecimals };
+  return {
+    delimiter,
+    headerIndex,
+    unitsRow,
+    dataIndex,
+    width,
+    decimalComma: delimiter !== ',' && commaDecimals > dotDecimals,
+  };
 }
 
 /** Finds the delimiter, the header row (after any preamble, with an optional units row) and the number format. */
@@ -195,7 +222,9 @@ export function detectCsvLayout(bytes: Uint8Array): CsvLayout {
     };
   }
   if (headerOnly) fail('The log has a header row but no data rows.');
-  fail(`No header row followed by rows of numbers was found in the first ${MAX_HEADER_LINE} lines; is this a CSV datalog?`);
+  fail(
+    `No header row followed by rows of numbers was found in the first ${MAX_HEADER_LINE} lines; is this a CSV datalog?`,
+  );
 }
 
 function grow<T extends ColumnArray>(array: T, size: number): T {
@@ -223,7 +252,9 @@ export function parseCsvColumns(
   const wanted = requests.length;
 
   let capacity = Math.ceil(((n - layout.dataStart) / Math.max(1, layout.bytesPerRow)) * 1.05) + 16;
-  const columns: ColumnArray[] = requests.map((r) => (r.float64 ? new Float64Array(capacity) : new Float32Array(capacity)));
+  const columns: ColumnArray[] = requests.map((r) =>
+    r.float64 ? new Float64Array(capacity) : new Float32Array(capacity),
+  );
   const step = Math.max(1 << 20, Math.floor(n / 100));
   let nextReport = layout.dataStart + step;
 
@@ -309,7 +340,10 @@ export function parseCsvColumns(
         }
         let value = Number.NaN;
         if (valid && digits > 0) {
-          value = fractionDigits < POW10.length ? mantissa / (POW10[fractionDigits] as number) : mantissa / 10 ** fractionDigits;
+          value =
+            fractionDigits < POW10.length
+              ? mantissa / (POW10[fractionDigits] as number)
+              : mantissa / 10 ** fractionDigits;
           value += clock;
           if (exponent > 0) value *= 10 ** exponent;
           else if (exponent < 0) value /= 10 ** -exponent;
@@ -337,6 +371,8 @@ export function parseCsvColumns(
   }
   onProgress?.(1);
   // Copy only when the size estimate was far off: the copy briefly doubles the memory the columns take.
-  const trimmed = columns.map((c) => (c.length > rows * 1.5 + 64 ? c.slice(0, rows) : c.subarray(0, rows)));
+  const trimmed = columns.map((c) =>
+    c.length > rows * 1.5 + 64 ? c.slice(0, rows) : c.subarray(0, rows),
+  );
   return { rows, columns: trimmed };
 }

@@ -10,17 +10,37 @@ export function trimCorrectionPct(combinedTrimPct: number): number {
 }
 
 /** Short + long trim of one bank at sample i; a bank with neither channel logged gives undefined. */
-function bankTrim(stft: Float32Array | undefined, ltft: Float32Array | undefined, i: number): number | undefined {
+function bankTrim(
+  stft: Float32Array | undefined,
+  ltft: Float32Array | undefined,
+  i: number,
+): number | undefined {
   if (stft === undefined && ltft === undefined) return undefined;
   return (stft?.[i] ?? 0) + (ltft?.[i] ?? 0);
 }
 
 /** Closed-loop, warm, part-throttle samples, binned on rpm × MAP. */
 export function analyzeFuelTrims(ctx: AnalysisContext, pulls: [number, number][]): FuelTrimGrid {
-  const { stft_b1, ltft_b1, stft_b2, ltft_b2, map, coolant_temp: coolant, lambda_cmd: cmd, lambda_meas: meas } = ctx.series.channels;
+  const {
+    stft_b1,
+    ltft_b1,
+    stft_b2,
+    ltft_b2,
+    map,
+    coolant_temp: coolant,
+    lambda_cmd: cmd,
+    lambda_meas: meas,
+  } = ctx.series.channels;
   const rpm = ctx.rpm;
   const empty: FuelTrimGrid = { rpmAxis: [], mapAxis: [], cells: [] };
-  if (rpm === undefined || map === undefined || (stft_b1 === undefined && ltft_b1 === undefined && stft_b2 === undefined && ltft_b2 === undefined)) {
+  if (
+    rpm === undefined ||
+    map === undefined ||
+    (stft_b1 === undefined &&
+      ltft_b1 === undefined &&
+      stft_b2 === undefined &&
+      ltft_b2 === undefined)
+  ) {
     return empty;
   }
   const s = ctx.settings;
@@ -34,9 +54,15 @@ export function analyzeFuelTrims(ctx: AnalysisContext, pulls: [number, number][]
     const p = map[i] as number;
     if (!ctx.running(i) || inPull[i] === 1 || !Number.isFinite(r) || !Number.isFinite(p)) continue;
     if (coolant !== undefined && !((coolant[i] as number) >= s.warmCoolantC)) continue;
-    if (cmd !== undefined && !(Math.abs((cmd[i] as number) - 1) <= s.closedLoopLambdaTolerance)) continue;
+    if (cmd !== undefined && !(Math.abs((cmd[i] as number) - 1) <= s.closedLoopLambdaTolerance))
+      continue;
     if (meas !== undefined && (meas[i] as number) > s.fuelCutLambda) continue;
-    if (drive !== undefined && ((drive[i] as number) >= s.wotThresholdPct || ((drive[i] as number) <= s.decelPedalPct && r > s.decelMinRpm))) continue;
+    if (
+      drive !== undefined &&
+      ((drive[i] as number) >= s.wotThresholdPct ||
+        ((drive[i] as number) <= s.decelPedalPct && r > s.decelMinRpm))
+    )
+      continue;
     const b1 = bankTrim(stft_b1, ltft_b1, i);
     const b2 = bankTrim(stft_b2, ltft_b2, i);
     const trim = b1 !== undefined && b2 !== undefined ? (b1 + b2) / 2 : (b1 ?? b2);
@@ -50,7 +76,9 @@ export function analyzeFuelTrims(ctx: AnalysisContext, pulls: [number, number][]
     cells.set(key, cell);
   }
 
-  const kept = [...cells.values()].filter((c) => c.n >= s.trimMinSamples).sort((a, b) => a.rpmLo - b.rpmLo || a.mapLo - b.mapLo);
+  const kept = [...cells.values()]
+    .filter((c) => c.n >= s.trimMinSamples)
+    .sort((a, b) => a.rpmLo - b.rpmLo || a.mapLo - b.mapLo);
   if (kept.length === 0) return empty;
   const axis = (values: number[], width: number) => {
     const lo = Math.min(...values);
@@ -58,8 +86,14 @@ export function analyzeFuelTrims(ctx: AnalysisContext, pulls: [number, number][]
     return Array.from({ length: Math.round((hi - lo) / width) + 1 }, (_, k) => lo + k * width);
   };
   return {
-    rpmAxis: axis(kept.map((c) => c.rpmLo), s.trimRpmBinWidth),
-    mapAxis: axis(kept.map((c) => c.mapLo), s.trimMapBinWidthKpa),
+    rpmAxis: axis(
+      kept.map((c) => c.rpmLo),
+      s.trimRpmBinWidth,
+    ),
+    mapAxis: axis(
+      kept.map((c) => c.mapLo),
+      s.trimMapBinWidthKpa,
+    ),
     cells: kept.map((c) => {
       const meanTrimPct = round(c.sum / c.n);
       return {

@@ -15,15 +15,28 @@ export function findPulls(ctx: AnalysisContext): [number, number][] {
   const drive = ctx.drive;
   if (drive === undefined) return [];
   const { wotThresholdPct, wotGapS, wotMinDurationS } = ctx.settings;
-  return findRuns(ctx.time, (i) => (drive.values[i] as number) >= wotThresholdPct && ctx.running(i), wotGapS, wotMinDurationS);
+  return findRuns(
+    ctx.time,
+    (i) => (drive.values[i] as number) >= wotThresholdPct && ctx.running(i),
+    wotGapS,
+    wotMinDurationS,
+  );
 }
 
 /** Sustained pedal above partialPedalPct that never reached full throttle: a pull with the pedal not on the floor. */
-export function findPartialPulls(ctx: AnalysisContext, pulls: [number, number][]): { run: [number, number]; maxPct: number }[] {
+export function findPartialPulls(
+  ctx: AnalysisContext,
+  pulls: [number, number][],
+): { run: [number, number]; maxPct: number }[] {
   const drive = ctx.drive;
   if (drive === undefined) return [];
   const { partialPedalPct, wotGapS, wotMinDurationS, wotThresholdPct } = ctx.settings;
-  const runs = findRuns(ctx.time, (i) => (drive.values[i] as number) >= partialPedalPct && ctx.running(i), wotGapS, wotMinDurationS);
+  const runs = findRuns(
+    ctx.time,
+    (i) => (drive.values[i] as number) >= partialPedalPct && ctx.running(i),
+    wotGapS,
+    wotMinDurationS,
+  );
   return runs
     .filter(([s, e]) => !pulls.some(([ps, pe]) => ps <= e && pe >= s))
     .map((run) => ({ run, maxPct: maxOf(drive.values, run[0], run[1]) }))
@@ -71,7 +84,12 @@ function lambdaErrors(ctx: AnalysisContext, start: number, end: number): LambdaE
     .sort(([a], [b]) => a - b)
     .map(([lo, b]) => {
       const meanErrorPct = round(b.sum / b.n);
-      return { rpm: [lo, lo + wotRpmBinWidth], samples: b.n, meanErrorPct, fuelCorrectionPct: meanErrorPct };
+      return {
+        rpm: [lo, lo + wotRpmBinWidth],
+        samples: b.n,
+        meanErrorPct,
+        fuelCorrectionPct: meanErrorPct,
+      };
     });
 }
 

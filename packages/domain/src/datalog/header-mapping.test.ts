@@ -10,20 +10,49 @@ const headerOf = (headers: string[], overrides?: Record<string, string>) => {
 describe('mapHeaders', () => {
   it('reads OBD-II PID names (SAE J1979 titles)', () => {
     const headers = [
-      'Time (s)', 'Engine RPM', 'Vehicle speed (km/h)', 'Calculated load (%)', 'Intake manifold absolute pressure (kPa)',
-      'Short term fuel trim—Bank 1 (%)', 'Long term fuel trim—Bank 1 (%)', 'Short term fuel trim—Bank 2 (%)',
-      'Absolute throttle position (%)', 'Accelerator pedal position D (%)', 'Accelerator pedal position E (%)', 'Commanded equivalence ratio',
+      'Time (s)',
+      'Engine RPM',
+      'Vehicle speed (km/h)',
+      'Calculated load (%)',
+      'Intake manifold absolute pressure (kPa)',
+      'Short term fuel trim—Bank 1 (%)',
+      'Long term fuel trim—Bank 1 (%)',
+      'Short term fuel trim—Bank 2 (%)',
+      'Absolute throttle position (%)',
+      'Accelerator pedal position D (%)',
+      'Accelerator pedal position E (%)',
+      'Commanded equivalence ratio',
     ];
     expect(headerOf(headers)).toEqual({
-      time: 'Time (s)', rpm: 'Engine RPM', vehicle_speed: 'Vehicle speed (km/h)', engine_load: 'Calculated load (%)',
-      map: 'Intake manifold absolute pressure (kPa)', stft_b1: 'Short term fuel trim—Bank 1 (%)', ltft_b1: 'Long term fuel trim—Bank 1 (%)',
-      stft_b2: 'Short term fuel trim—Bank 2 (%)', throttle_pos: 'Absolute throttle position (%)',
-      pedal_pos: 'Accelerator pedal position D (%)', lambda_cmd: 'Commanded equivalence ratio',
+      time: 'Time (s)',
+      rpm: 'Engine RPM',
+      vehicle_speed: 'Vehicle speed (km/h)',
+      engine_load: 'Calculated load (%)',
+      map: 'Intake manifold absolute pressure (kPa)',
+      stft_b1: 'Short term fuel trim—Bank 1 (%)',
+      ltft_b1: 'Long term fuel trim—Bank 1 (%)',
+      stft_b2: 'Short term fuel trim—Bank 2 (%)',
+      throttle_pos: 'Absolute throttle position (%)',
+      pedal_pos: 'Accelerator pedal position D (%)',
+      lambda_cmd: 'Commanded equivalence ratio',
     });
   });
 
   it('reads abbreviations, bank suffixes and units in brackets or as a last word', () => {
-    const mapping = mapHeaders(['Time', 'RPM', 'ECT', 'IAT [°F]', 'Boost psi', 'STFT1', 'LTFT B1', 'STFT B2 (%)', 'Lambda', 'AFR Target', 'KR', 'Gear']);
+    const mapping = mapHeaders([
+      'Time',
+      'RPM',
+      'ECT',
+      'IAT [°F]',
+      'Boost psi',
+      'STFT1',
+      'LTFT B1',
+      'STFT B2 (%)',
+      'Lambda',
+      'AFR Target',
+      'KR',
+      'Gear',
+    ]);
     const c = mapping.channels;
     expect(c.coolant_temp?.header).toBe('ECT');
     expect(c.intake_air_temp?.unitText).toBe('°F');
@@ -39,14 +68,22 @@ describe('mapHeaders', () => {
   });
 
   it('reads "MAP (psi)" as absolute and "Vehicle Speed (mph)" in mph', () => {
-    const c = mapHeaders(['Time', 'MAP (psi)', 'Vehicle Speed (mph)', 'Engine Speed (rpm)']).channels;
+    const c = mapHeaders([
+      'Time',
+      'MAP (psi)',
+      'Vehicle Speed (mph)',
+      'Engine Speed (rpm)',
+    ]).channels;
     expect(c.map).toMatchObject({ unitText: 'psi', gauge: false });
     expect(c.vehicle_speed?.unitText).toBe('mph');
     expect(c.rpm?.header).toBe('Engine Speed (rpm)');
   });
 
   it('lets overrides win, including afr_* aliases, and rejects unknown names plainly', () => {
-    const mapping = mapHeaders(['t', 'Engine RPM', 'WB1', 'Lambda'], { time: 't', afr_meas: 'WB1' });
+    const mapping = mapHeaders(['t', 'Engine RPM', 'WB1', 'Lambda'], {
+      time: 't',
+      afr_meas: 'WB1',
+    });
     expect(mapping.channels.lambda_meas).toMatchObject({ header: 'WB1', lambdaUnit: 'afr' });
     expect(mapping.unmapped).toEqual(['Lambda']);
     expect(() => mapHeaders(['a', 'b'], { speedo: 'a' })).toThrow(DomainError);

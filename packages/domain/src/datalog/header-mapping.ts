@@ -1,5 +1,11 @@
 import { DomainError } from '../errors';
-import { CANONICAL_CHANNELS, CHANNEL_ALIASES, CHANNEL_SYNONYMS, isCanonicalChannel, type CanonicalChannel } from './channels';
+import {
+  CANONICAL_CHANNELS,
+  CHANNEL_ALIASES,
+  CHANNEL_SYNONYMS,
+  isCanonicalChannel,
+  type CanonicalChannel,
+} from './channels';
 import { isKnownUnitText, lambdaUnitOf, type LambdaUnit } from './units';
 
 export interface MappedColumn {
@@ -42,7 +48,10 @@ export function normaliseHeaderName(name: string): string {
 }
 
 function splitHeader(raw: string): SplitHeader {
-  const header = raw.trim().replace(/^"(.*)"$/s, '$1').trim();
+  const header = raw
+    .trim()
+    .replace(/^"(.*)"$/s, '$1')
+    .trim();
   const bracketed = /^(.*?)\s*[([]([^)\]]*)[)\]]\s*$/.exec(header);
   const base = bracketed?.[1] ?? header;
   const bracketUnit = bracketed?.[2]?.trim() || null;
@@ -52,7 +61,10 @@ function splitHeader(raw: string): SplitHeader {
   const words = base.trim().split(/\s+/);
   const last = words.at(-1);
   if (words.length > 1 && last !== undefined && isKnownUnitText(last)) {
-    names.push({ name: normaliseHeaderName(words.slice(0, -1).join(' ')), unitText: bracketUnit ?? last });
+    names.push({
+      name: normaliseHeaderName(words.slice(0, -1).join(' ')),
+      unitText: bracketUnit ?? last,
+    });
   }
   // A header that is only a unit word ("MPH", "AFR") names both the channel and its unit.
   if (words.length === 1 && last !== undefined && isKnownUnitText(last) && bracketUnit === null) {
@@ -69,7 +81,12 @@ function lambdaUnitFromHeader(name: string, unitText: string | null): LambdaUnit
   return null;
 }
 
-function toMapped(split: SplitHeader, column: number, which: number, forcedAfr: boolean): MappedColumn {
+function toMapped(
+  split: SplitHeader,
+  column: number,
+  which: number,
+  forcedAfr: boolean,
+): MappedColumn {
   const chosen = split.names[which] ?? split.names[0] ?? { name: '', unitText: null };
   const unitText = chosen.unitText;
   const gauge = /\bboost\b/.test(chosen.name) || /\bgauge\b/i.test(split.header);
@@ -94,7 +111,14 @@ function fnv1a64(text: string): string {
 
 /** "hdr1-<16 hex>": same for the same columns in the same order, whatever the case, quoting or spacing. */
 export function headerSignature(headers: readonly string[]): string {
-  const normalised = headers.map((h) => h.trim().replace(/^"(.*)"$/s, '$1').trim().toLowerCase().replace(/\s+/g, ' '));
+  const normalised = headers.map((h) =>
+    h
+      .trim()
+      .replace(/^"(.*)"$/s, '$1')
+      .trim()
+      .toLowerCase()
+      .replace(/\s+/g, ' '),
+  );
   return `hdr1-${fnv1a64(normalised.join('\u001f'))}`;
 }
 
@@ -102,7 +126,10 @@ function resolveOverrideChannel(key: string): CanonicalChannel {
   const name = key.trim().toLowerCase();
   const channel = CHANNEL_ALIASES[name] ?? (isCanonicalChannel(name) ? name : undefined);
   if (channel === undefined) {
-    throw new DomainError('validation', `Unknown channel "${key}". Channels are: ${[...CANONICAL_CHANNELS, ...Object.keys(CHANNEL_ALIASES)].join(', ')}.`);
+    throw new DomainError(
+      'validation',
+      `Unknown channel "${key}". Channels are: ${[...CANONICAL_CHANNELS, ...Object.keys(CHANNEL_ALIASES)].join(', ')}.`,
+    );
   }
   return channel;
 }
@@ -111,7 +138,10 @@ function resolveOverrideChannel(key: string): CanonicalChannel {
  * Proposes which column feeds each canonical channel, by header synonyms; `overrides` (channel → header text)
  * win. The UI shows the result for the tuner to confirm or fix.
  */
-export function mapHeaders(headers: readonly string[], overrides: Readonly<Record<string, string>> = {}): HeaderMapping {
+export function mapHeaders(
+  headers: readonly string[],
+  overrides: Readonly<Record<string, string>> = {},
+): HeaderMapping {
   const splits = headers.map(splitHeader);
   const taken = new Set<number>();
   const channels: Partial<Record<CanonicalChannel, MappedColumn>> = {};
@@ -122,7 +152,10 @@ export function mapHeaders(headers: readonly string[], overrides: Readonly<Recor
     const column = splits.findIndex((s) => s.header.toLowerCase() === target);
     const split = splits[column];
     if (split === undefined) {
-      throw new DomainError('validation', `This log has no column "${wanted}" for ${channel}. Its columns are: ${splits.map((s) => s.header).join(', ')}.`);
+      throw new DomainError(
+        'validation',
+        `This log has no column "${wanted}" for ${channel}. Its columns are: ${splits.map((s) => s.header).join(', ')}.`,
+      );
     }
     channels[channel] = toMapped(split, column, 0, key.trim().toLowerCase().startsWith('afr_'));
     taken.add(column);

@@ -1,11 +1,23 @@
 export { analyzeDatalog, analyzeDatalogSeries, type AnalyzeOptions } from './analyze';
-export { CANONICAL_CHANNELS, CHANNEL_ALIASES, CHANNEL_INFO, isCanonicalChannel, type CanonicalChannel } from './channels';
+export {
+  CANONICAL_CHANNELS,
+  CHANNEL_ALIASES,
+  CHANNEL_INFO,
+  isCanonicalChannel,
+  type CanonicalChannel,
+} from './channels';
 export type { DatalogVehicle } from './context';
 export { detectCsvLayout, parseCsvColumns, type CsvLayout } from './csv-reader';
 export { datalogVehicleSchema, logRequestSchema } from './datalog.schemas';
 export { lambdaErrorPct } from './full-throttle';
 export { trimCorrectionPct } from './fuel-trim';
-export { headerSignature, mapHeaders, normaliseHeaderName, type HeaderMapping, type MappedColumn } from './header-mapping';
+export {
+  headerSignature,
+  mapHeaders,
+  normaliseHeaderName,
+  type HeaderMapping,
+  type MappedColumn,
+} from './header-mapping';
 export { DEFAULT_WARMUP_MINUTES, defaultLogRequest, type LogRequest } from './log-request';
 export type * from './report';
 export { readDatalog, type DatalogSeries, type ReadDatalogOptions } from './series';

@@ -47,11 +47,13 @@ const FAMILY_EXTRA_CHANNELS: Readonly<Record<string, CanonicalChannel[]>> = {
  */
 export function defaultLogRequest(engineFamily?: string, round = 1): LogRequest {
   const key = (engineFamily ?? '').toLowerCase().replace(/[^a-z0-9]/g, '');
-  const extra = Object.entries(FAMILY_EXTRA_CHANNELS).find(([family]) => key.startsWith(family))?.[1] ?? [];
+  const extra =
+    Object.entries(FAMILY_EXTRA_CHANNELS).find(([family]) => key.startsWith(family))?.[1] ?? [];
   return {
     channels: [...BASE_CHANNELS, ...extra],
     warmupMinutes: DEFAULT_WARMUP_MINUTES,
     wotGears: round <= 1 ? FIRST_LOG_WOT_GEARS : LATER_LOG_WOT_GEARS,
-    notes: 'Warm the engine for about five minutes, drive normally for a few minutes, then press the pedal to the floor through the requested gears.',
+    notes:
+      'Warm the engine for about five minutes, drive normally for a few minutes, then press the pedal to the floor through the requested gears.',
   };
 }

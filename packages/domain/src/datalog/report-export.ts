@@ -21,9 +21,27 @@ export function trimGridToCsv(report: DatalogReport): string {
 /** Full-throttle lambda error per pull and rpm bin, one row each. */
 export function wotTableToCsv(report: DatalogReport): string {
   return toCsv(
-    ['pull', 'start_s', 'gears', 'rpm_from', 'rpm_to', 'samples', 'mean_error_pct', 'fuel_correction_pct'],
+    [
+      'pull',
+      'start_s',
+      'gears',
+      'rpm_from',
+      'rpm_to',
+      'samples',
+      'mean_error_pct',
+      'fuel_correction_pct',
+    ],
     report.wot.pulls.flatMap((pull, i) =>
-      pull.lambdaError.map((bin) => [i + 1, pull.startS, pull.gears.join(' '), bin.rpm[0], bin.rpm[1], bin.samples, bin.meanErrorPct, bin.fuelCorrectionPct]),
+      pull.lambdaError.map((bin) => [
+        i + 1,
+        pull.startS,
+        pull.gears.join(' '),
+        bin.rpm[0],
+        bin.rpm[1],
+        bin.samples,
+        bin.meanErrorPct,
+        bin.fuelCorrectionPct,
+      ]),
     ),
   );
 }

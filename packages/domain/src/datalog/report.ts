@@ -1,6 +1,7 @@
 import type { CanonicalChannel } from './channels';
 
-export type CheckId = 'required_channels' | 'engine_warm' | 'full_throttle' | 'wot_gears' | 'sensor_sanity';
+export type CheckId =
+  'required_channels' | 'engine_warm' | 'full_throttle' | 'wot_gears' | 'sensor_sanity';
 export type CheckStatus = 'pass' | 'warn' | 'fail';
 
 export interface DatalogCheck {

@@ -3,14 +3,25 @@ import { round, type AnalysisContext } from './context';
 import type { SensorIssue } from './report';
 
 /** Channels that must move when rpm swings: a stuck value there is a dead sensor, not a steady engine. */
-const FLATLINE_CHANNELS: readonly CanonicalChannel[] = ['map', 'maf', 'throttle_pos', 'lambda_meas', 'spark_advance'];
+const FLATLINE_CHANNELS: readonly CanonicalChannel[] = [
+  'map',
+  'maf',
+  'throttle_pos',
+  'lambda_meas',
+  'spark_advance',
+];
 const TEMPERATURE_CHANNELS: readonly CanonicalChannel[] = ['coolant_temp', 'intake_air_temp'];
 /** A time step this many times the usual one is a gap, not jitter. */
 const TIME_GAP_FACTOR = 5;
 
-const fmt = (value: number, unit: string) => `${round(value, 1)}${unit === '' || unit === '%' || unit === '°' || unit === '°C' ? '' : ' '}${unit}`;
+const fmt = (value: number, unit: string) =>
+  `${round(value, 1)}${unit === '' || unit === '%' || unit === '°' || unit === '°C' ? '' : ' '}${unit}`;
 
-function dropouts(ctx: AnalysisContext, channel: CanonicalChannel, values: Float32Array): SensorIssue | null {
+function dropouts(
+  ctx: AnalysisContext,
+  channel: CanonicalChannel,
+  values: Float32Array,
+): SensorIssue | null {
   const label = CHANNEL_INFO[channel].label;
   const time = ctx.time;
   let runs = 0;
@@ -34,7 +45,12 @@ function dropouts(ctx: AnalysisContext, channel: CanonicalChannel, values: Float
       start = -1;
     }
   }
-  if (valid === 0) return { channel, issue: 'dropout', message: `The ${label} column is in the log but holds no readings.` };
+  if (valid === 0)
+    return {
+      channel,
+      issue: 'dropout',
+      message: `The ${label} column is in the log but holds no readings.`,
+    };
   if (runs === 0) return null;
   return {
     channel,
@@ -65,7 +81,11 @@ function timeGaps(ctx: AnalysisContext): SensorIssue | null {
   };
 }
 
-function outOfRange(ctx: AnalysisContext, channel: CanonicalChannel, values: Float32Array): SensorIssue | null {
+function outOfRange(
+  ctx: AnalysisContext,
+  channel: CanonicalChannel,
+  values: Float32Array,
+): SensorIssue | null {
   const limits = ctx.settings.physicalLimits[channel];
   if (limits === undefined) return null;
   const [lo, hi] = limits;
@@ -79,7 +99,8 @@ function outOfRange(ctx: AnalysisContext, channel: CanonicalChannel, values: Flo
     if (!Number.isFinite(v) || (v >= lo && v <= hi)) continue;
     if (skipCoast && (drive[i] as number) <= ctx.settings.decelPedalPct) continue;
     count++;
-    if (Number.isNaN(worst) || Math.abs(v - (lo + hi) / 2) > Math.abs(worst - (lo + hi) / 2)) worst = v;
+    if (Number.isNaN(worst) || Math.abs(v - (lo + hi) / 2) > Math.abs(worst - (lo + hi) / 2))
+      worst = v;
   }
   if (count < ctx.settings.outOfRangeMinSamples) return null;
   const { label, unit } = CHANNEL_INFO[channel];
@@ -90,7 +111,11 @@ function outOfRange(ctx: AnalysisContext, channel: CanonicalChannel, values: Flo
   };
 }
 
-function flatline(ctx: AnalysisContext, channel: CanonicalChannel, values: Float32Array): SensorIssue | null {
+function flatline(
+  ctx: AnalysisContext,
+  channel: CanonicalChannel,
+  values: Float32Array,
+): SensorIssue | null {
   const rpm = ctx.rpm;
   const time = ctx.time;
   const { flatlineMinS, flatlineRpmSwing } = ctx.settings;
@@ -110,7 +135,9 @@ function flatline(ctx: AnalysisContext, channel: CanonicalChannel, values: Float
       last = i;
     }
     const seconds = first < 0 ? 0 : (time[last] as number) - (time[first] as number);
-    return seconds >= ctx.settings.temperatureFlatlineMinS ? stuck(values[first] as number, seconds) : null;
+    return seconds >= ctx.settings.temperatureFlatlineMinS
+      ? stuck(values[first] as number, seconds)
+      : null;
   }
   if (rpm === undefined) return null;
   let start = -1;
@@ -126,7 +153,8 @@ function flatline(ctx: AnalysisContext, channel: CanonicalChannel, values: Float
     }
     if (start >= 0) {
       const seconds = (time[i - 1] as number) - (time[start] as number);
-      if (seconds >= flatlineMinS && rpmMax - rpmMin >= flatlineRpmSwing) return stuck(values[start] as number, seconds);
+      if (seconds >= flatlineMinS && rpmMax - rpmMin >= flatlineRpmSwing)
+        return stuck(values[start] as number, seconds);
     }
     start = i < ctx.rows && ctx.running(i) && Number.isFinite(values[i] as number) ? i : -1;
     rpmMin = start >= 0 ? (rpm[start] as number) : Infinity;
@@ -140,11 +168,16 @@ export function analyzeSensors(ctx: AnalysisContext): SensorIssue[] {
   const issues: SensorIssue[] = [];
   const gaps = timeGaps(ctx);
   if (gaps !== null) issues.push(gaps);
-  for (const [channel, values] of Object.entries(ctx.series.channels) as [CanonicalChannel, Float32Array][]) {
+  for (const [channel, values] of Object.entries(ctx.series.channels) as [
+    CanonicalChannel,
+    Float32Array,
+  ][]) {
     const found = [
       dropouts(ctx, channel, values),
       outOfRange(ctx, channel, values),
-      FLATLINE_CHANNELS.includes(channel) || TEMPERATURE_CHANNELS.includes(channel) ? flatline(ctx, channel, values) : null,
+      FLATLINE_CHANNELS.includes(channel) || TEMPERATURE_CHANNELS.includes(channel)
+        ? flatline(ctx, channel, values)
+        : null,
     ];
     for (const issue of found) if (issue !== null) issues.push(issue);
   }

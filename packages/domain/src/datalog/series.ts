@@ -64,24 +64,42 @@ function conversionFor(
   const info = CHANNEL_INFO[channel];
   if (info.quantity === 'lambda') {
     const unit = mapped.lambdaUnit ?? (sampledMedian(values) > AFR_MEDIAN_ABOVE ? 'afr' : 'lambda');
-    if (mapped.lambdaUnit === null) notes.push(`"${mapped.header}" names no unit; its values look like ${unit === 'afr' ? 'an air-fuel ratio' : 'lambda'}.`);
-    if (unit === 'afr') notes.push(`"${mapped.header}" is an air-fuel ratio, turned into lambda with the ${fuel} stoichiometric ratio ${stoich.toFixed(2)}.`);
+    if (mapped.lambdaUnit === null)
+      notes.push(
+        `"${mapped.header}" names no unit; its values look like ${unit === 'afr' ? 'an air-fuel ratio' : 'lambda'}.`,
+      );
+    if (unit === 'afr')
+      notes.push(
+        `"${mapped.header}" is an air-fuel ratio, turned into lambda with the ${fuel} stoichiometric ratio ${stoich.toFixed(2)}.`,
+      );
     return lambdaConversion(unit, stoich);
   }
   if (info.quantity === 'count') return { unit: '', scale: 1, offset: 0 };
-  const read = mapped.unitText === null ? null : unitConversion(info.quantity, mapped.unitText, mapped.gauge);
+  const read =
+    mapped.unitText === null ? null : unitConversion(info.quantity, mapped.unitText, mapped.gauge);
   if (read !== null) {
     if (read.unit.endsWith('(gauge)')) {
-      notes.push(`"${mapped.header}" is read as gauge (boost) pressure; one standard atmosphere (101.325 kPa) is added to make it absolute.`);
+      notes.push(
+        `"${mapped.header}" is read as gauge (boost) pressure; one standard atmosphere (101.325 kPa) is added to make it absolute.`,
+      );
     }
     return read;
   }
   if (channel === 'time' && medianStep(values as Float64Array) > MS_TIME_STEP) {
-    notes.push(`"${mapped.header}" names no unit and steps by more than ${MS_TIME_STEP} per sample, so it is read as milliseconds.`);
+    notes.push(
+      `"${mapped.header}" names no unit and steps by more than ${MS_TIME_STEP} per sample, so it is read as milliseconds.`,
+    );
     return { unit: 'ms (assumed)', scale: 0.001, offset: 0 };
   }
-  if (mapped.unitText !== null) notes.push(`The unit "${mapped.unitText}" of "${mapped.header}" is not known; it is read as ${info.unit}.`);
-  return { unit: `${info.unit} (assumed)`, scale: 1, offset: mapped.gauge && info.quantity === 'pressure' ? 101.325 : 0 };
+  if (mapped.unitText !== null)
+    notes.push(
+      `The unit "${mapped.unitText}" of "${mapped.header}" is not known; it is read as ${info.unit}.`,
+    );
+  return {
+    unit: `${info.unit} (assumed)`,
+    scale: 1,
+    offset: mapped.gauge && info.quantity === 'pressure' ? 101.325 : 0,
+  };
 }
 
 function applyConversion(values: ColumnArray, { scale, offset }: UnitConversion): void {
@@ -125,7 +143,8 @@ export function readDatalog(bytes: Uint8Array, options: ReadDatalogOptions = {})
     entries.map(([channel, mapped]) => ({ column: mapped.column, float64: channel === 'time' })),
     onProgress ? (f) => onProgress(f * 0.9) : undefined,
   );
-  if (parsed.rows === 0) throw new DomainError('invalid_datalog', 'The log has a header row but no data rows.');
+  if (parsed.rows === 0)
+    throw new DomainError('invalid_datalog', 'The log has a header row but no data rows.');
 
   const notes: string[] = [];
   const units: DatalogSeries['units'] = {};
@@ -134,8 +153,13 @@ export function readDatalog(bytes: Uint8Array, options: ReadDatalogOptions = {})
   const rawTime = columns.get('time') as Float64Array;
   columns.delete('time');
   const rows = dropRowsWithoutTime(rawTime, [...columns.values()]);
-  if (rows === 0) throw new DomainError('invalid_datalog', `The time column "${timeColumn.header}" holds no numbers.`);
-  if (rows < parsed.rows) notes.push(`${parsed.rows - rows} rows without a time value were left out.`);
+  if (rows === 0)
+    throw new DomainError(
+      'invalid_datalog',
+      `The time column "${timeColumn.header}" holds no numbers.`,
+    );
+  if (rows < parsed.rows)
+    notes.push(`${parsed.rows - rows} rows without a time value were left out.`);
 
   const time = rawTime.subarray(0, rows);
   const timeUnit = conversionFor('time', timeColumn, time, stoich, label, notes);
@@ -147,7 +171,7 @@ export function readDatalog(bytes: Uint8Array, options: ReadDatalogOptions = {})
   for (const [channel, values] of columns) {
     if (channel === 'time') continue;
     const mapped = mapping.channels[channel] as MappedColumn;
-    const series = (values.subarray(0, rows) as Float32Array);
+    const series = values.subarray(0, rows) as Float32Array;
     const conversion = conversionFor(channel, mapped, series, stoich, label, notes);
     applyConversion(series, conversion);
     units[channel] = conversion.unit;
@@ -155,8 +179,17 @@ export function readDatalog(bytes: Uint8Array, options: ReadDatalogOptions = {})
   }
 
   const knock = channels.knock_retard;
-  if (knock !== undefined) flipNegativeKnock(knock, mapping.channels.knock_retard?.header ?? '', notes);
-  return { rows, time, channels, mapping, units, notes, fuel: { spec: fuelSpec, label, stoichAfr: stoich } };
+  if (knock !== undefined)
+    flipNegativeKnock(knock, mapping.channels.knock_retard?.header ?? '', notes);
+  return {
+    rows,
+    time,
+    channels,
+    mapping,
+    units,
+    notes,
+    fuel: { spec: fuelSpec, label, stoichAfr: stoich },
+  };
 }
 
 /** Some loggers write retard as a negative correction; the report counts degrees removed as positive. */
@@ -169,6 +202,8 @@ function flipNegativeKnock(knock: Float32Array, header: string, notes: string[])
   }
   if (max <= 0 && min < 0) {
     for (let i = 0; i < knock.length; i++) knock[i] = -(knock[i] as number);
-    notes.push(`"${header}" logs knock retard as negative degrees; the report shows degrees removed as positive numbers.`);
+    notes.push(
+      `"${header}" logs knock retard as negative degrees; the report shows degrees removed as positive numbers.`,
+    );
   }
 }

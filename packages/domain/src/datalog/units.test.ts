@@ -4,7 +4,12 @@ import { describe, expect, it } from 'vitest';
 import { STANDARD_ATMOSPHERE_KPA, lambdaConversion, unitConversion } from './units';
 
 // Oracle: mathjs unit definitions (independent of this code). Each expectation converts one source unit.
-const convert = (quantity: Parameters<typeof unitConversion>[0], text: string, value: number, gauge = false) => {
+const convert = (
+  quantity: Parameters<typeof unitConversion>[0],
+  text: string,
+  value: number,
+  gauge = false,
+) => {
   const c = unitConversion(quantity, text, gauge);
   if (c === null) throw new Error(`no conversion for ${text}`);
   return value * c.scale + c.offset;
@@ -19,8 +24,14 @@ describe('unit conversions against mathjs', () => {
     expect(convert('temperature', 'K', 300)).toBeCloseTo(unit(300, 'K').toNumber('degC'), 9); // [3P] mathjs
     expect(convert('pressure', 'psi', 14.5)).toBeCloseTo(unit(14.5, 'psi').toNumber('kPa'), 6); // [3P] mathjs
     expect(convert('pressure', 'bar', 1.2)).toBeCloseTo(unit(1.2, 'bar').toNumber('kPa'), 9); // [3P] mathjs
-    expect(convert('pressure', 'inHg', 29.92)).toBeCloseTo(unit(29.92 * 25.4, 'mmHg').toNumber('kPa'), 2); // [3P] mathjs mmHg; 1 in = 25.4 mm [STD]
-    expect(convert('mass_flow', 'lb/min', 10)).toBeCloseTo(unit(10, 'lbm/minute').toNumber('g/s'), 9); // [3P] mathjs
+    expect(convert('pressure', 'inHg', 29.92)).toBeCloseTo(
+      unit(29.92 * 25.4, 'mmHg').toNumber('kPa'),
+      2,
+    ); // [3P] mathjs mmHg; 1 in = 25.4 mm [STD]
+    expect(convert('mass_flow', 'lb/min', 10)).toBeCloseTo(
+      unit(10, 'lbm/minute').toNumber('g/s'),
+      9,
+    ); // [3P] mathjs
     expect(convert('mass_flow', 'kg/h', 360)).toBeCloseTo(unit(360, 'kg/hour').toNumber('g/s'), 9); // [3P] mathjs
     expect(convert('time', 'ms', 1500)).toBeCloseTo(unit(1500, 'ms').toNumber('s'), 12); // [3P] mathjs
   });
@@ -28,7 +39,10 @@ describe('unit conversions against mathjs', () => {
   it('makes gauge (boost) pressure absolute with one standard atmosphere', () => {
     const atm = unit(1, 'atm').toNumber('kPa'); // [STD] ISO 2533 standard atmosphere, via mathjs [3P]
     expect(STANDARD_ATMOSPHERE_KPA).toBeCloseTo(atm, 9);
-    expect(convert('pressure', 'psi', 10, true)).toBeCloseTo(unit(10, 'psi').toNumber('kPa') + atm, 6);
+    expect(convert('pressure', 'psi', 10, true)).toBeCloseTo(
+      unit(10, 'psi').toNumber('kPa') + atm,
+      6,
+    );
     expect(convert('pressure', 'psig', 10)).toBeCloseTo(unit(10, 'psi').toNumber('kPa') + atm, 6);
     expect(convert('pressure', 'psia', 10, true)).toBeCloseTo(unit(10, 'psi').toNumber('kPa'), 6);
     expect(unitConversion('pressure', 'psi', true)?.unit).toBe('psi (gauge)');

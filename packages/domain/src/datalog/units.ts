@@ -27,43 +27,91 @@ interface UnitEntry {
 const entry = (label: string, scale = 1, offset = 0): UnitEntry => ({ label, scale, offset });
 
 // Keys are unit texts after normaliseUnitText (lowercase, no spaces, "°"/"º"/"degrees" → "deg").
-const UNITS: Readonly<Record<Exclude<Quantity, 'lambda' | 'count'>, Readonly<Record<string, UnitEntry>>>> = {
+const UNITS: Readonly<
+  Record<Exclude<Quantity, 'lambda' | 'count'>, Readonly<Record<string, UnitEntry>>>
+> = {
   time: {
-    s: entry('s'), sec: entry('s'), secs: entry('s'), second: entry('s'), seconds: entry('s'),
-    ms: entry('ms', 0.001), msec: entry('ms', 0.001), millisecond: entry('ms', 0.001), milliseconds: entry('ms', 0.001),
+    s: entry('s'),
+    sec: entry('s'),
+    secs: entry('s'),
+    second: entry('s'),
+    seconds: entry('s'),
+    ms: entry('ms', 0.001),
+    msec: entry('ms', 0.001),
+    millisecond: entry('ms', 0.001),
+    milliseconds: entry('ms', 0.001),
     min: entry('min', 60),
   },
-  rotational_speed: { rpm: entry('rpm'), '1/min': entry('rpm'), 'r/min': entry('rpm'), 'min-1': entry('rpm') },
+  rotational_speed: {
+    rpm: entry('rpm'),
+    '1/min': entry('rpm'),
+    'r/min': entry('rpm'),
+    'min-1': entry('rpm'),
+  },
   speed: {
-    'km/h': entry('km/h'), kmh: entry('km/h'), kph: entry('km/h'), 'km/hr': entry('km/h'),
-    mph: entry('mph', KMH_PER_MPH), 'mi/h': entry('mph', KMH_PER_MPH),
+    'km/h': entry('km/h'),
+    kmh: entry('km/h'),
+    kph: entry('km/h'),
+    'km/hr': entry('km/h'),
+    mph: entry('mph', KMH_PER_MPH),
+    'mi/h': entry('mph', KMH_PER_MPH),
     'm/s': entry('m/s', 3.6),
   },
   temperature: {
-    degc: entry('°C'), c: entry('°C'), celsius: entry('°C'),
-    degf: entry('°F', 5 / 9, -160 / 9), f: entry('°F', 5 / 9, -160 / 9), fahrenheit: entry('°F', 5 / 9, -160 / 9),
-    k: entry('K', 1, -273.15), kelvin: entry('K', 1, -273.15),
+    degc: entry('°C'),
+    c: entry('°C'),
+    celsius: entry('°C'),
+    degf: entry('°F', 5 / 9, -160 / 9),
+    f: entry('°F', 5 / 9, -160 / 9),
+    fahrenheit: entry('°F', 5 / 9, -160 / 9),
+    k: entry('K', 1, -273.15),
+    kelvin: entry('K', 1, -273.15),
   },
   pressure: {
-    kpa: entry('kPa'), psi: entry('psi', KPA_PER_PSI), psia: entry('psi', KPA_PER_PSI),
-    bar: entry('bar', 100), mbar: entry('mbar', 0.1), hpa: entry('hPa', 0.1),
+    kpa: entry('kPa'),
+    psi: entry('psi', KPA_PER_PSI),
+    psia: entry('psi', KPA_PER_PSI),
+    bar: entry('bar', 100),
+    mbar: entry('mbar', 0.1),
+    hpa: entry('hPa', 0.1),
     inhg: entry('inHg', KPA_PER_INHG),
   },
   mass_flow: {
-    'g/s': entry('g/s'), gs: entry('g/s'), 'g/sec': entry('g/s'), gps: entry('g/s'),
-    'lb/min': entry('lb/min', G_PER_LB / 60), 'lbs/min': entry('lb/min', G_PER_LB / 60), 'lbm/min': entry('lb/min', G_PER_LB / 60),
-    'kg/h': entry('kg/h', 1 / 3.6), 'kg/hr': entry('kg/h', 1 / 3.6),
-    'lb/h': entry('lb/h', G_PER_LB / 3600), 'lb/hr': entry('lb/h', G_PER_LB / 3600),
+    'g/s': entry('g/s'),
+    gs: entry('g/s'),
+    'g/sec': entry('g/s'),
+    gps: entry('g/s'),
+    'lb/min': entry('lb/min', G_PER_LB / 60),
+    'lbs/min': entry('lb/min', G_PER_LB / 60),
+    'lbm/min': entry('lb/min', G_PER_LB / 60),
+    'kg/h': entry('kg/h', 1 / 3.6),
+    'kg/hr': entry('kg/h', 1 / 3.6),
+    'lb/h': entry('lb/h', G_PER_LB / 3600),
+    'lb/hr': entry('lb/h', G_PER_LB / 3600),
   },
   percent: { '%': entry('%'), pct: entry('%'), percent: entry('%') },
   angle: {
-    deg: entry('°'), degbtdc: entry('°'), degca: entry('°'), btdc: entry('°'), degcrank: entry('°'),
+    deg: entry('°'),
+    degbtdc: entry('°'),
+    degca: entry('°'),
+    btdc: entry('°'),
+    degcrank: entry('°'),
   },
 };
 
 const LAMBDA_UNITS = new Set(['λ', 'lambda', 'lam', 'eq', 'er']);
 const AFR_UNITS = new Set(['afr', 'a/f', 'air/fuel', 'af']);
-const GAUGE_SUFFIXES = ['psig', 'barg', 'kpag', 'kpa(g)', 'psi(g)', 'bar(g)', 'kpagauge', 'psigauge', 'bargauge'];
+const GAUGE_SUFFIXES = [
+  'psig',
+  'barg',
+  'kpag',
+  'kpa(g)',
+  'psi(g)',
+  'bar(g)',
+  'kpagauge',
+  'psigauge',
+  'bargauge',
+];
 
 export function normaliseUnitText(text: string): string {
   return text
@@ -93,14 +141,20 @@ export function lambdaUnitOf(text: string | null): LambdaUnit | null {
 }
 
 export function lambdaConversion(unit: LambdaUnit, stoichAfr: number): UnitConversion {
-  return unit === 'afr' ? { unit: `AFR (stoich ${stoichAfr.toFixed(2)})`, scale: 1 / stoichAfr, offset: 0 } : { unit: 'λ', scale: 1, offset: 0 };
+  return unit === 'afr'
+    ? { unit: `AFR (stoich ${stoichAfr.toFixed(2)})`, scale: 1 / stoichAfr, offset: 0 }
+    : { unit: 'λ', scale: 1, offset: 0 };
 }
 
 /**
  * Conversion for a non-lambda quantity from a header's unit text, or null when the text is no unit of that
  * quantity. Gauge pressure (a "boost" column, psig, barg…) gets one standard atmosphere added.
  */
-export function unitConversion(quantity: Exclude<Quantity, 'lambda'>, unitText: string, gauge: boolean): UnitConversion | null {
+export function unitConversion(
+  quantity: Exclude<Quantity, 'lambda'>,
+  unitText: string,
+  gauge: boolean,
+): UnitConversion | null {
   if (quantity === 'count') return { unit: '', scale: 1, offset: 0 };
   let key = normaliseUnitText(unitText);
   let isGauge = gauge;

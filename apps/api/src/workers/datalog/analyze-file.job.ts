@@ -17,5 +17,9 @@ try {
   });
   post({ type: 'done', report });
 } catch (error) {
-  post({ type: 'error', code: isDomainError(error) ? error.code : null, message: error instanceof Error ? error.message : String(error) });
+  post({
+    type: 'error',
+    code: isDomainError(error) ? error.code : null,
+    message: error instanceof Error ? error.message : String(error),
+  });
 }

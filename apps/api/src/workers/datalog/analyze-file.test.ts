@@ -11,15 +11,22 @@ import { analyzeFileInWorker } from './analyze-file';
 
 const dir = mkdtempSync(join(tmpdir(), 'analyze-worker-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
-const text = generateLog({ pulls: [{ gears: [2, 3] }], knock: [{ pull: 0, atFraction: 0.4, peakDeg: 3 }] }).text;
+const text = generateLog({
+  pulls: [{ gears: [2, 3] }],
+  knock: [{ pull: 0, atFraction: 0.4, peakDeg: 3 }],
+}).text;
 const logPath = join(dir, 'log.csv');
 writeFileSync(logPath, text);
 
 describe('analyzeFileInWorker', () => {
   it('returns the same report as the in-thread analysis and posts progress up to 1', async () => {
     const progress: number[] = [];
-    const report = await analyzeFileInWorker(logPath, { vehicle: DEMO_VEHICLE }, (f) => progress.push(f));
-    expect(report).toEqual(analyzeDatalog(new TextEncoder().encode(text), { vehicle: DEMO_VEHICLE }));
+    const report = await analyzeFileInWorker(logPath, { vehicle: DEMO_VEHICLE }, (f) =>
+      progress.push(f),
+    );
+    expect(report).toEqual(
+      analyzeDatalog(new TextEncoder().encode(text), { vehicle: DEMO_VEHICLE }),
+    );
     expect(progress.at(-1)).toBe(1);
   });
 
@@ -40,7 +47,9 @@ describe('analyzeFileInWorker', () => {
       `import { analyzeFileInWorker } from ${JSON.stringify(join(import.meta.dirname, 'analyze-file.ts'))};\n` +
         `const r = await analyzeFileInWorker(${JSON.stringify(logPath)});\nconsole.log(JSON.stringify({ rows: r.rows, knock: r.knock.events.length }));\n`,
     );
-    const { stdout } = await promisify(execFile)(process.execPath, ['--import', 'tsx', script], { cwd: root });
+    const { stdout } = await promisify(execFile)(process.execPath, ['--import', 'tsx', script], {
+      cwd: root,
+    });
     expect(JSON.parse(stdout)).toEqual({ rows: text.trimEnd().split('\n').length - 1, knock: 1 });
   });
 });

@@ -36,9 +36,20 @@ export function analyzeFileInWorker(
     worker.on('message', (message: AnalyzeMessage) => {
       if (message.type === 'progress') onProgress?.(message.fraction);
       else if (message.type === 'done') settle(() => resolve(message.report));
-      else settle(() => reject(message.code === null ? new Error(message.message) : new DomainError(message.code, message.message)));
+      else
+        settle(() =>
+          reject(
+            message.code === null
+              ? new Error(message.message)
+              : new DomainError(message.code, message.message),
+          ),
+        );
     });
     worker.on('error', (error) => settle(() => reject(error)));
-    worker.on('exit', (code) => settle(() => reject(new Error(`The datalog worker stopped (exit code ${code}) before it finished.`))));
+    worker.on('exit', (code) =>
+      settle(() =>
+        reject(new Error(`The datalog worker stopped (exit code ${code}) before it finished.`)),
+      ),
+    );
   });
 }

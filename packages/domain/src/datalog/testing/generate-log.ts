@@ -7,7 +7,11 @@ import type { DatalogVehicle } from '../context';
 // A deterministic synthetic log of an invented car (2.0 L four, six-speed manual), for tests, the benchmark and
 // the demo. Every number in here is demo data, not a reference value.
 
-export const DEMO_VEHICLE: DatalogVehicle = { gearRatios: [3.36, 2.07, 1.46, 1.13, 0.91, 0.76], finalDrive: 3.94, tyreSize: '225/45R17' };
+export const DEMO_VEHICLE: DatalogVehicle = {
+  gearRatios: [3.36, 2.07, 1.46, 1.13, 0.91, 0.76],
+  finalDrive: 3.94,
+  tyreSize: '225/45R17',
+};
 
 export type HeaderStyle = 'obd' | 'short';
 export type UnitSystem = 'metric' | 'imperial';
@@ -113,13 +117,32 @@ function mulberry32(seed: number): () => number {
 
 const base = (rpm: number, map: number, gear: number, phase: State['phase']): State => {
   const pedal = phase === 'idle' ? 0 : 5 + (map - 25) * 0.4;
-  return { rpm, map, pedal, throttle: phase === 'idle' ? 3 : pedal * 0.9, gear, lambdaCmd: 1, lean: 0, knock: 0, phase };
+  return {
+    rpm,
+    map,
+    pedal,
+    throttle: phase === 'idle' ? 3 : pedal * 0.9,
+    gear,
+    lambdaCmd: 1,
+    lean: 0,
+    knock: 0,
+    phase,
+  };
 };
 
 /** Part-throttle driving that sweeps rpm 1100–3900 × MAP 27–93 kPa so every trim cell gets samples. */
-const drive = (t: number): State => base(2500 + 1400 * Math.sin((2 * Math.PI * t) / 53), 60 + 33 * Math.sin((2 * Math.PI * t) / 23 + 1), 4, 'drive');
+const drive = (t: number): State =>
+  base(
+    2500 + 1400 * Math.sin((2 * Math.PI * t) / 53),
+    60 + 33 * Math.sin((2 * Math.PI * t) / 23 + 1),
+    4,
+    'drive',
+  );
 
-function buildTimeline(o: Required<Pick<GenerateLogOptions, 'warmupS' | 'cruiseS' | 'pulls'>> & GenerateLogOptions, rate: number) {
+function buildTimeline(
+  o: Required<Pick<GenerateLogOptions, 'warmupS' | 'cruiseS' | 'pulls'>> & GenerateLogOptions,
+  rate: number,
+) {
   const segments: Segment[] = [];
   const truthPulls: GeneratedLog['truth']['pulls'] = [];
   const knockTimes: GeneratedLog['truth']['knock'] = [];
@@ -144,9 +167,14 @@ function buildTimeline(o: Required<Pick<GenerateLogOptions, 'warmupS' | 'cruiseS
     // Time per gear at the rpm rise rate of that gear (a lower gear revs faster), scaled by how hard the pedal is pressed.
     const legs = pull.gears.map((gear, k) => {
       const ratio = ratios[gear - 1] ?? 1;
-      const from = k === 0 ? startRpm : (endRpm * ratio) / (ratios[(pull.gears[k - 1] ?? gear) - 1] ?? ratio);
+      const from =
+        k === 0 ? startRpm : (endRpm * ratio) / (ratios[(pull.gears[k - 1] ?? gear) - 1] ?? ratio);
       const rate = 650 * ratio * (pedal / 100) ** 1.5;
-      return { gear, from, duration: (endRpm - from) / rate + (k < pull.gears.length - 1 ? SHIFT_S : 0) };
+      return {
+        gear,
+        from,
+        duration: (endRpm - from) / rate + (k < pull.gears.length - 1 ? SHIFT_S : 0),
+      };
     });
     const total = legs.reduce((s, l) => s + l.duration, 0);
     add(total, (l) => {
@@ -185,13 +213,19 @@ function buildTimeline(o: Required<Pick<GenerateLogOptions, 'warmupS' | 'cruiseS
         at: (time) => {
           const state = at(time);
           const sample = Math.round((time - burstStart) * rate);
-          return sample >= 0 && sample < shape.length ? { ...state, knock: shape[sample] ?? 0 } : state;
+          return sample >= 0 && sample < shape.length
+            ? { ...state, knock: shape[sample] ?? 0 }
+            : state;
         },
       };
       knockTimes.push({ timeS: burstStart + KNOCK_PEAK_INDEX / rate, peakDeg: k.peakDeg });
     }
     const lastGear = pull.gears.at(-1) ?? first;
-    add(DECEL_S, (l) => ({ ...base(endRpm - ((endRpm - 1400) * l) / DECEL_S, 22, lastGear, 'decel'), pedal: 0, throttle: 0 }));
+    add(DECEL_S, (l) => ({
+      ...base(endRpm - ((endRpm - 1400) * l) / DECEL_S, 22, lastGear, 'decel'),
+      pedal: 0,
+      throttle: 0,
+    }));
     add(RECOVER_S, (l) => ({ ...drive(l), rpm: 1400 + 100 * l, gear: lastGear }));
   });
   const cycleEnd = t;
@@ -228,32 +262,87 @@ const toF = (c: number) => (c * 9) / 5 + 32;
 function columnsFor(o: GenerateLogOptions, stoich: number): Column[] {
   const obd = (o.headerStyle ?? 'obd') === 'obd';
   const imperial = o.units === 'imperial';
-  const col = (channel: CanonicalChannel, header: string, value: (s: Sample) => number, digits: number): Column => ({ channel, header, value, digits });
+  const col = (
+    channel: CanonicalChannel,
+    header: string,
+    value: (s: Sample) => number,
+    digits: number,
+  ): Column => ({ channel, header, value, digits });
   const trims = (bank: 1 | 2): Column[] => {
     const st = (s: Sample) => (bank === 1 ? s.stft1 : s.stft2);
     const lt = (s: Sample) => (bank === 1 ? s.ltft1 : s.ltft2);
     return obd
-      ? [col(`stft_b${bank}`, imperial ? `STFT B${bank} (%)` : `Short term fuel trim—Bank ${bank} (%)`, st, 1), col(`ltft_b${bank}`, imperial ? `LTFT B${bank} (%)` : `Long term fuel trim—Bank ${bank} (%)`, lt, 1)]
-      : [col(`stft_b${bank}`, imperial ? `STFT${bank} %` : `STFT${bank}`, st, 1), col(`ltft_b${bank}`, imperial ? `LTFT${bank} %` : `LTFT${bank}`, lt, 1)];
+      ? [
+          col(
+            `stft_b${bank}`,
+            imperial ? `STFT B${bank} (%)` : `Short term fuel trim—Bank ${bank} (%)`,
+            st,
+            1,
+          ),
+          col(
+            `ltft_b${bank}`,
+            imperial ? `LTFT B${bank} (%)` : `Long term fuel trim—Bank ${bank} (%)`,
+            lt,
+            1,
+          ),
+        ]
+      : [
+          col(`stft_b${bank}`, imperial ? `STFT${bank} %` : `STFT${bank}`, st, 1),
+          col(`ltft_b${bank}`, imperial ? `LTFT${bank} %` : `LTFT${bank}`, lt, 1),
+        ];
   };
   const columns: Column[] = [
-    imperial ? col('time', obd ? 'Time (ms)' : 'Time ms', (s) => Math.round(s.time * 1000), 0) : col('time', obd ? 'Time (s)' : 'Time', (s) => s.time, 3),
-    col('rpm', obd ? (imperial ? 'Engine Speed (rpm)' : 'Engine RPM (rpm)') : 'RPM', (s) => s.rpm, 0),
-    imperial ? col('vehicle_speed', obd ? 'Vehicle Speed (mph)' : 'VSS mph', (s) => s.speed / KMH_PER_MPH, 1) : col('vehicle_speed', obd ? 'Vehicle speed (km/h)' : 'VSS', (s) => s.speed, 1),
-    imperial ? col('coolant_temp', obd ? 'Coolant Temp [°F]' : 'ECT °F', (s) => toF(s.coolant), 1) : col('coolant_temp', obd ? 'Engine coolant temperature (°C)' : 'ECT', (s) => s.coolant, 1),
-    imperial ? col('intake_air_temp', obd ? 'Intake Air Temp [°F]' : 'IAT °F', (s) => toF(s.iat), 1) : col('intake_air_temp', obd ? 'Intake air temperature (°C)' : 'IAT', (s) => s.iat, 1),
+    imperial
+      ? col('time', obd ? 'Time (ms)' : 'Time ms', (s) => Math.round(s.time * 1000), 0)
+      : col('time', obd ? 'Time (s)' : 'Time', (s) => s.time, 3),
+    col(
+      'rpm',
+      obd ? (imperial ? 'Engine Speed (rpm)' : 'Engine RPM (rpm)') : 'RPM',
+      (s) => s.rpm,
+      0,
+    ),
+    imperial
+      ? col(
+          'vehicle_speed',
+          obd ? 'Vehicle Speed (mph)' : 'VSS mph',
+          (s) => s.speed / KMH_PER_MPH,
+          1,
+        )
+      : col('vehicle_speed', obd ? 'Vehicle speed (km/h)' : 'VSS', (s) => s.speed, 1),
+    imperial
+      ? col('coolant_temp', obd ? 'Coolant Temp [°F]' : 'ECT °F', (s) => toF(s.coolant), 1)
+      : col('coolant_temp', obd ? 'Engine coolant temperature (°C)' : 'ECT', (s) => s.coolant, 1),
+    imperial
+      ? col('intake_air_temp', obd ? 'Intake Air Temp [°F]' : 'IAT °F', (s) => toF(s.iat), 1)
+      : col('intake_air_temp', obd ? 'Intake air temperature (°C)' : 'IAT', (s) => s.iat, 1),
     imperial
       ? obd
         ? col('map', 'Boost psi', (s) => (s.map - 101.325) / KPA_PER_PSI, 2)
         : col('map', 'MAP psi', (s) => s.map / KPA_PER_PSI, 2)
       : col('map', obd ? 'Intake manifold absolute pressure (kPa)' : 'MAP', (s) => s.map, 1),
-    imperial ? col('maf', obd ? 'MAF (lb/min)' : 'MAF lb/min', (s) => (s.maf * 60) / G_PER_LB, 3) : col('maf', obd ? 'MAF air flow rate (g/s)' : 'MAF', (s) => s.maf, 2),
+    imperial
+      ? col('maf', obd ? 'MAF (lb/min)' : 'MAF lb/min', (s) => (s.maf * 60) / G_PER_LB, 3)
+      : col('maf', obd ? 'MAF air flow rate (g/s)' : 'MAF', (s) => s.maf, 2),
     col('throttle_pos', obd ? 'Absolute throttle position (%)' : 'TPS', (s) => s.throttle, 1),
     col('pedal_pos', obd ? 'Accelerator pedal position D (%)' : 'APP', (s) => s.pedal, 1),
     ...trims(1),
     ...(o.twoBanks ? trims(2) : []),
-    imperial ? col('lambda_cmd', 'AFR Target', (s) => s.lambdaCmd * stoich, 2) : col('lambda_cmd', obd ? 'Commanded equivalence ratio (λ)' : 'Lambda Target', (s) => s.lambdaCmd, 3),
-    imperial ? col('lambda_meas', 'AFR', (s) => s.lambdaMeas * stoich, 2) : col('lambda_meas', obd ? 'O2 sensor 1 equivalence ratio (λ)' : 'Lambda', (s) => s.lambdaMeas, 3),
+    imperial
+      ? col('lambda_cmd', 'AFR Target', (s) => s.lambdaCmd * stoich, 2)
+      : col(
+          'lambda_cmd',
+          obd ? 'Commanded equivalence ratio (λ)' : 'Lambda Target',
+          (s) => s.lambdaCmd,
+          3,
+        ),
+    imperial
+      ? col('lambda_meas', 'AFR', (s) => s.lambdaMeas * stoich, 2)
+      : col(
+          'lambda_meas',
+          obd ? 'O2 sensor 1 equivalence ratio (λ)' : 'Lambda',
+          (s) => s.lambdaMeas,
+          3,
+        ),
     col('knock_retard', obd ? 'Knock retard (°)' : 'KR', (s) => s.knock, 1),
     col('spark_advance', obd ? 'Timing advance (°)' : 'Spark Adv', (s) => s.spark, 1),
   ];
@@ -262,7 +351,10 @@ function columnsFor(o: GenerateLogOptions, stoich: number): Column[] {
 }
 
 /** Yields the log as text chunks of about `rowsPerChunk` rows, so a million-row log never sits in one string. */
-export function* generateLogChunks(options: GenerateLogOptions = {}, rowsPerChunk = 20000): Generator<string, GeneratedLog['truth']> {
+export function* generateLogChunks(
+  options: GenerateLogOptions = {},
+  rowsPerChunk = 20000,
+): Generator<string, GeneratedLog['truth']> {
   const rate = options.rateHz ?? 20;
   const o = { warmupS: 360, cruiseS: 600, pulls: [{ gears: [3] }], ...options };
   const timeline = buildTimeline(o, rate);
@@ -277,7 +369,11 @@ export function* generateLogChunks(options: GenerateLogOptions = {}, rowsPerChun
   const circumferenceM = parseTyreSize(DEMO_VEHICLE.tyreSize).circumferenceMm;
   const rows = o.rows ?? Math.floor(timeline.duration * rate);
 
-  let chunk = o.preamble ? ['Logger export', `Vehicle${delimiter}demo car`, 'Sample rate: ' + rate + ' Hz', ''].join('\n') + '\n' : '';
+  let chunk = o.preamble
+    ? ['Logger export', `Vehicle${delimiter}demo car`, 'Sample rate: ' + rate + ' Hz', ''].join(
+        '\n',
+      ) + '\n'
+    : '';
   chunk += columns.map((c) => quote(c.header)).join(delimiter) + '\n';
   let segment = 0;
   let dead: number | undefined;
@@ -286,19 +382,33 @@ export function* generateLogChunks(options: GenerateLogOptions = {}, rowsPerChun
   for (let i = 0; i < rows; i++) {
     const time = i / rate;
     const cycle = timeline.cycleEnd - timeline.cycleStart;
-    const local = o.rows !== undefined && time >= timeline.cycleEnd ? timeline.cycleStart + ((time - timeline.cycleStart) % cycle) : time;
+    const local =
+      o.rows !== undefined && time >= timeline.cycleEnd
+        ? timeline.cycleStart + ((time - timeline.cycleStart) % cycle)
+        : time;
     if (local < (timeline.segments[segment]?.start ?? 0)) segment = 0;
-    while (segment < timeline.segments.length - 1 && local >= (timeline.segments[segment]?.end ?? Infinity)) segment++;
+    while (
+      segment < timeline.segments.length - 1 &&
+      local >= (timeline.segments[segment]?.end ?? Infinity)
+    )
+      segment++;
     const state = (timeline.segments[segment] as Segment).at(local);
     const rpm = Math.max(0, state.rpm + (state.phase === 'idle' ? 15 * gauss() : 0));
-    const coolant = o.coldStart ? 15 + 45 * (1 - Math.exp(-time / 600)) : 90 - 50 * Math.exp(-time / 90) + 1.5 * Math.sin(time / 40);
+    const coolant = o.coldStart
+      ? 15 + 45 * (1 - Math.exp(-time / 600))
+      : 90 - 50 * Math.exp(-time / 90) + 1.5 * Math.sin(time / 40);
     const iat = 30 + 5 * Math.sin(time / 200);
     const ratio = DEMO_VEHICLE.gearRatios[state.gear - 1];
-    const speed = ratio === undefined ? 0 : roadSpeedKmh(rpm, ratio, DEMO_VEHICLE.finalDrive, circumferenceM);
+    const speed =
+      ratio === undefined ? 0 : roadSpeedKmh(rpm, ratio, DEMO_VEHICLE.finalDrive, circumferenceM);
     // Speed density: ṁ = p/(R·T) · Vd · VE · rpm/120 with Vd 2.0 L and VE 0.85.
-    const maf = ((state.map * 1000) / (287.05 * (iat + 273.15))) * 0.002 * 0.85 * (rpm / 120) * 1000;
+    const maf =
+      ((state.map * 1000) / (287.05 * (iat + 273.15))) * 0.002 * 0.85 * (rpm / 120) * 1000;
     const closedLoop = state.phase !== 'pull' && state.phase !== 'decel' && coolant >= 40;
-    const injected = o.trimErrors?.find((e) => rpm >= e.rpm[0] && rpm < e.rpm[1] && state.map >= e.map[0] && state.map < e.map[1])?.trimPct ?? 0;
+    const injected =
+      o.trimErrors?.find(
+        (e) => rpm >= e.rpm[0] && rpm < e.rpm[1] && state.map >= e.map[0] && state.map < e.map[1],
+      )?.trimPct ?? 0;
     let stft1 = 0;
     let stft2 = 0;
     if (closedLoop) {
@@ -308,7 +418,9 @@ export function* generateLogChunks(options: GenerateLogOptions = {}, rowsPerChun
       stft2 = injected - ltft2 + 1.2 * gauss();
     }
     const fuelCut = state.phase === 'decel';
-    const lambdaMeas = fuelCut ? 1.6 + 0.2 * random() : state.lambdaCmd * (1 + state.lean) + 0.003 * gauss();
+    const lambdaMeas = fuelCut
+      ? 1.6 + 0.2 * random()
+      : state.lambdaCmd * (1 + state.lean) + 0.003 * gauss();
     const sample: Sample = {
       ...state,
       rpm,
