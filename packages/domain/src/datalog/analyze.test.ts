@@ -240,4 +240,15 @@ describe('fuel and units', () => {
     expect(seen.at(-1)).toBeCloseTo(0.9, 6);
     expect([...seen].sort((a, b) => a - b)).toEqual(seen);
   });
+
+  it('reads a unitless "Boost" column as gauge kPa and says so', () => {
+    const series = readDatalog(encode('Time,RPM,Boost\n0,3000,50\n0.1,3100,60\n'));
+    expect(series.channels.map?.[0]).toBeCloseTo(50 + 101.325, 4); // ISO 2533 standard atmosphere [STD]
+    expect(series.units.map).toBe('kPa (gauge) (assumed)');
+    expect(series.notes.join(' ')).toMatch(/gauge \(boost\) pressure/);
+  });
+
+  it('asks for --map when no time column is found', () => {
+    expect(() => readDatalog(encode('Stamp,RPM\n0,800\n'))).toThrow(/--map time=<header>/);
+  });
 });

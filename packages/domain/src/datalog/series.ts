@@ -3,7 +3,12 @@ import { fuelLabel, stoichAfr, type FuelSpec } from '../vehicles/fuel';
 import { CHANNEL_INFO, type CanonicalChannel } from './channels';
 import { detectCsvLayout, parseCsvColumns, type ColumnArray } from './csv-reader';
 import { mapHeaders, type HeaderMapping, type MappedColumn } from './header-mapping';
-import { lambdaConversion, unitConversion, type UnitConversion } from './units';
+import {
+  STANDARD_ATMOSPHERE_KPA,
+  lambdaConversion,
+  unitConversion,
+  type UnitConversion,
+} from './units';
 
 export interface ReadDatalogOptions {
   fuel?: FuelSpec;
@@ -75,31 +80,27 @@ function conversionFor(
     return lambdaConversion(unit, stoich);
   }
   if (info.quantity === 'count') return { unit: '', scale: 1, offset: 0 };
-  const read =
+  const stated =
     mapped.unitText === null ? null : unitConversion(info.quantity, mapped.unitText, mapped.gauge);
-  if (read !== null) {
-    if (read.unit.endsWith('(gauge)')) {
-      notes.push(
-        `"${mapped.header}" is read as gauge (boost) pressure; one standard atmosphere (101.325 kPa) is added to make it absolute.`,
-      );
-    }
-    return read;
+  if (stated === null && mapped.unitText !== null) {
+    notes.push(
+      `The unit "${mapped.unitText}" of "${mapped.header}" is not known; it is read as ${info.unit}.`,
+    );
   }
-  if (channel === 'time' && medianStep(values as Float64Array) > MS_TIME_STEP) {
+  if (stated === null && channel === 'time' && medianStep(values as Float64Array) > MS_TIME_STEP) {
     notes.push(
       `"${mapped.header}" names no unit and steps by more than ${MS_TIME_STEP} per sample, so it is read as milliseconds.`,
     );
     return { unit: 'ms (assumed)', scale: 0.001, offset: 0 };
   }
-  if (mapped.unitText !== null)
+  const assumed = unitConversion(info.quantity, info.unit, mapped.gauge) as UnitConversion;
+  const conversion = stated ?? { ...assumed, unit: `${assumed.unit} (assumed)` };
+  if (conversion.offset === STANDARD_ATMOSPHERE_KPA) {
     notes.push(
-      `The unit "${mapped.unitText}" of "${mapped.header}" is not known; it is read as ${info.unit}.`,
+      `"${mapped.header}" is read as gauge (boost) pressure; one standard atmosphere (${STANDARD_ATMOSPHERE_KPA} kPa) is added to make it absolute.`,
     );
-  return {
-    unit: `${info.unit} (assumed)`,
-    scale: 1,
-    offset: mapped.gauge && info.quantity === 'pressure' ? 101.325 : 0,
-  };
+  }
+  return conversion;
 }
 
 function applyConversion(values: ColumnArray, { scale, offset }: UnitConversion): void {
