@@ -1,5 +1,9 @@
 import type { AuditEventTable } from './audit/audit-event.table';
 import type { DealerTable } from './dealers/dealer.table';
+import type { JobMessageTable, JobTable } from './jobs/job.table';
+import type { NotificationTable } from './notifications/notification.table';
+import type { PackageTable } from './packages/package.table';
+import type { VehicleTable } from './vehicles/vehicle.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
 import type { ShopTable } from './shops/shop.table';
@@ -14,4 +18,9 @@ export interface Database {
   invitations: InvitationTable;
   password_resets: PasswordResetTable;
   audit_events: AuditEventTable;
+  vehicles: VehicleTable;
+  packages: PackageTable;
+  jobs: JobTable;
+  job_messages: JobMessageTable;
+  notifications: NotificationTable;
 }

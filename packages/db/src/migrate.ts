@@ -1,10 +1,12 @@
 import { Migrator, type Migration, type MigrationProvider } from 'kysely';
 import type { Db } from './client';
 import * as foundation from './migrations/2026-12-02-001-foundation';
+import * as jobs from './migrations/2026-12-02-002-jobs';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-001-foundation': foundation,
+  '2026-12-02-002-jobs': jobs,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

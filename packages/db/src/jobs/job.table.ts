@@ -1,0 +1,41 @@
+import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { JobState } from '@revloop/domain/jobs';
+
+export interface JobTable {
+  id: string;
+  shop_id: string;
+  /** Per-shop running number people use on the phone ("job 1042"). */
+  number: number;
+  vehicle_id: string;
+  customer_user_id: string;
+  dealer_id: string | null;
+  package_id: string;
+  assigned_tuner_id: string | null;
+  state: JobState;
+  held_from: JobState | null;
+  round: Generated<number>;
+  has_stock_read: Generated<number>;
+  has_revision_for_round: Generated<number>;
+  has_log_for_round: Generated<number>;
+  goals: string;
+  special_requests: Generated<string>;
+  log_request: string;
+  cautions_accepted_at: string;
+  state_changed_at: string;
+  created_by_user_id: string | null;
+  created_at: string;
+  updated_at: string;
+}
+export type JobRow = Selectable<JobTable>;
+export type InsertableJobRow = Insertable<JobTable>;
+export type UpdateableJobRow = Updateable<JobTable>;
+
+export interface JobMessageTable {
+  id: string;
+  shop_id: string;
+  job_id: string;
+  author_user_id: string;
+  body: string;
+  created_at: string;
+}
+export type JobMessageRow = Selectable<JobMessageTable>;
