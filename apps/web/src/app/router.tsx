@@ -1,6 +1,7 @@
 import type { ComponentType } from 'react';
 import { createBrowserRouter, Navigate } from 'react-router-dom';
 import { paths } from '../config/paths';
+import { PageSpinner } from '../components/ui/spinner';
 import { RouteError } from './routes/route-error';
 
 /** Each screen is its own chunk, loaded when its route is first opened. */
@@ -11,6 +12,7 @@ const screen =
 export const router = createBrowserRouter([
   {
     errorElement: <RouteError />,
+    hydrateFallbackElement: <PageSpinner />,
     children: [
       {
         lazy: screen(() => import('./routes/public-layout'), (m) => m.PublicLayout),

@@ -111,7 +111,7 @@ export function DataTable<T extends RowData>({ caption, columns, data, getRowId,
             rows.map((row) => (
               <tr key={row.id} className="border-b border-ink-100 last:border-b-0 hover:bg-ink-50">
                 {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className="px-4 py-3 align-middle text-ink-800">
+                  <td key={cell.id} className="px-4 py-3 align-middle whitespace-nowrap text-ink-800">
                     <table.FlexRender cell={cell} />
                   </td>
                 ))}

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { acceptInvitationSchema } from '@revloop/domain/auth';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
-import { getMeQueryOptions, type Me } from './get-me';
+import { replaceSession, type Me } from './get-me';
 
 export { acceptInvitationSchema };
 export type AcceptInvitationInput = z.output<typeof acceptInvitationSchema> & { token: string };
@@ -14,9 +14,6 @@ export function useAcceptInvitation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: acceptInvitation,
-    onSuccess: (me) => {
-      queryClient.clear();
-      queryClient.setQueryData(getMeQueryOptions().queryKey, me);
-    },
+    onSuccess: (me) => replaceSession(queryClient, me),
   });
 }

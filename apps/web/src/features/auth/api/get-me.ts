@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { Actor, ShopRole } from '@revloop/domain/auth';
 import { api, isApiError } from '../../../lib/api-client';
 
@@ -32,4 +32,15 @@ export function useSignedInMe(): Me {
   const { data } = useMe();
   if (!data) throw new Error('useSignedInMe is only for screens inside the signed-in shell.');
   return data;
+}
+
+/**
+ * Switches the cached session to `me` (null when signed out) and drops every other cached answer, so no
+ * data of one user is shown to the next. The `me` entry itself is updated in place rather than removed,
+ * so components already watching it (the ability, the shell) follow the change.
+ */
+export function replaceSession(queryClient: QueryClient, me: Me | null) {
+  const meKey = getMeQueryOptions().queryKey;
+  queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meKey[0] });
+  queryClient.setQueryData(meKey, me);
 }

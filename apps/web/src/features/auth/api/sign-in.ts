@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { signInSchema } from '@revloop/domain/auth';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
-import { getMeQueryOptions, type Me } from './get-me';
+import { replaceSession, type Me } from './get-me';
 
 export { signInSchema };
 export type SignInInput = z.output<typeof signInSchema>;
@@ -13,6 +13,6 @@ export function useSignIn() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signIn,
-    onSuccess: (me) => queryClient.setQueryData(getMeQueryOptions().queryKey, me),
+    onSuccess: (me) => replaceSession(queryClient, me),
   });
 }

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { getMeQueryOptions } from './get-me';
+import { replaceSession } from './get-me';
 
 export const signOut = () => api.post<void>('/api/auth/sign-out');
 
@@ -9,9 +9,6 @@ export function useSignOut() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signOut,
-    onSuccess: () => {
-      queryClient.clear();
-      queryClient.setQueryData(getMeQueryOptions().queryKey, null);
-    },
+    onSuccess: () => replaceSession(queryClient, null),
   });
 }

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { signUpSchema } from '@revloop/domain/auth';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
-import { getMeQueryOptions, type Me } from './get-me';
+import { replaceSession, type Me } from './get-me';
 
 export { signUpSchema };
 export type SignUpInput = z.output<typeof signUpSchema>;
@@ -14,6 +14,6 @@ export function useSignUp() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signUp,
-    onSuccess: (me) => queryClient.setQueryData(getMeQueryOptions().queryKey, me),
+    onSuccess: (me) => replaceSession(queryClient, me),
   });
 }

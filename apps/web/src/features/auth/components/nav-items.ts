@@ -9,7 +9,7 @@ export interface NavItem {
 
 /**
  * The main navigation for a user: each link shows only when the ability allows its page.
- * Customers and Vehicles are the dealer's and the customer's own views, so they also check the role.
+ * Dealers, Customers and Vehicles are one role's own view of rows others may also read, so they also check the role.
  */
 export function navItemsFor(ability: AppAbility, me: Pick<Me, 'role'>): NavItem[] {
   const items: NavItem[] = [];
@@ -18,8 +18,8 @@ export function navItemsFor(ability: AppAbility, me: Pick<Me, 'role'>): NavItem[
   if (me.role === 'customer' && ability.can('read', 'Vehicle')) items.push({ label: 'Vehicles', to: paths.vehicles.getHref() });
   if (me.role === 'dealer' && ability.can('read', 'Customer')) items.push({ label: 'Customers', to: paths.customers.getHref() });
   if (ability.can('read', 'Member')) items.push({ label: 'Team', to: paths.team.getHref() });
-  if (ability.can('manage', 'Dealer')) items.push({ label: 'Dealers', to: paths.dealers.list.getHref() });
-  if (ability.can('manage', 'ShopSettings')) items.push({ label: 'Settings', to: paths.settings.shop.getHref() });
+  if (me.role === 'owner' && ability.can('read', 'Dealer')) items.push({ label: 'Dealers', to: paths.dealers.list.getHref() });
+  if (ability.can('read', 'ShopSettings')) items.push({ label: 'Settings', to: paths.settings.shop.getHref() });
   return items;
 }
 

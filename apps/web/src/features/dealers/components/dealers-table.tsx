@@ -20,7 +20,7 @@ const columns = helper.columns([
     ),
   }),
   helper.accessor('contactName', { header: 'Contact', sortFn: 'text' }),
-  helper.accessor('contactEmail', { header: 'Contact e-mail', sortFn: 'text', cell: (info) => <span className="break-all">{info.getValue()}</span> }),
+  helper.accessor('contactEmail', { header: 'Contact e-mail', sortFn: 'text' }),
   helper.accessor((dealer) => dealer.phone ?? '', { id: 'phone', header: 'Phone', sortFn: 'text', cell: (info) => info.getValue() || '—' }),
   helper.accessor('userCount', { header: 'Users', sortFn: 'basic' }),
   helper.accessor('createdAt', { header: 'Added', sortFn: 'text', cell: (info) => formatDate(info.getValue()) }),

@@ -51,7 +51,7 @@ export function MembersTable({ members, canManage, currentUserId }: MembersTable
             </span>
           ),
         }),
-        helper.accessor('email', { header: 'E-mail', sortFn: 'text', cell: (info) => <span className="break-all">{info.getValue()}</span> }),
+        helper.accessor('email', { header: 'E-mail', sortFn: 'text' }),
         helper.accessor('role', {
           header: 'Role',
           sortFn: 'text',
@@ -70,7 +70,7 @@ export function MembersTable({ members, canManage, currentUserId }: MembersTable
             return (
               <Select
                 aria-label={`Role of ${member.name}`}
-                className="h-9 w-36"
+                className="h-9 w-auto min-w-36"
                 options={ASSIGNABLE_ROLES}
                 value={member.role}
                 disabled={roleChanging && roleVariables?.memberId === member.id}

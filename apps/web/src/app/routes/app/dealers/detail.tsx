@@ -78,7 +78,7 @@ function DealerScreen({ dealerId }: { dealerId: string }) {
 export function DealerRoute() {
   const { dealerId = '' } = useParams();
   return (
-    <RequireAbility action="manage" subject="Dealer">
+    <RequireAbility action="read" subject="Dealer">
       <DealerScreen dealerId={dealerId} />
     </RequireAbility>
   );

@@ -49,7 +49,7 @@ function DealersScreen() {
 
 export function DealersRoute() {
   return (
-    <RequireAbility action="manage" subject="Dealer">
+    <RequireAbility action="read" subject="Dealer">
       <DealersScreen />
     </RequireAbility>
   );

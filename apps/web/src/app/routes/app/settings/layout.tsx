@@ -10,7 +10,7 @@ const tabClasses = ({ isActive }: { isActive: boolean }) =>
 
 export function SettingsLayout() {
   const ability = useAbility<AppAbility>();
-  const showShop = ability.can('manage', 'ShopSettings');
+  const showShop = ability.can('read', 'ShopSettings');
   return (
     <>
       <PageHeader title="Settings" />

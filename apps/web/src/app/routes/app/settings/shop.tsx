@@ -23,7 +23,7 @@ function ShopSettings() {
 
 export function ShopSettingsRoute() {
   return (
-    <RequireAbility action="manage" subject="ShopSettings">
+    <RequireAbility action="read" subject="ShopSettings">
       <ShopSettings />
     </RequireAbility>
   );
