@@ -20,6 +20,12 @@ import { createInvitationsRouter } from './features/invitations/invitations.rout
 import type { Mailer } from './features/mail/mailer';
 import { createMeRouter } from './features/me/me.router';
 import { createMembersRouter } from './features/members/members.router';
+import { createCustomersRouter } from './features/customers/customers.router';
+import { createJobsRouter } from './features/jobs/jobs.router';
+import { createNotificationsRouter } from './features/notifications/notifications.router';
+import { createPackagesRouter } from './features/packages/packages.router';
+import { createShopRouter } from './features/shop/shop.router';
+import { createVehiclesRouter } from './features/vehicles/vehicles.router';
 import { sessionMiddleware } from './http/auth-context';
 import type { Clock } from './http/clock';
 import { errorHandler } from './http/error-handler';
@@ -87,6 +93,12 @@ export function createApp(deps: AppDeps): Express {
   api.use('/dealers', createDealersRouter(deps));
   api.use('/admin', createAdminRouter(deps));
   api.use('/audit', createAuditRouter(deps));
+  api.use('/shop', createShopRouter(deps));
+  api.use('/jobs', createJobsRouter(deps));
+  api.use('/vehicles', createVehiclesRouter(deps));
+  api.use('/packages', createPackagesRouter(deps));
+  api.use('/customers', createCustomersRouter(deps));
+  api.use('/notifications', createNotificationsRouter(deps));
   if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
   api.use((_req, _res, next) => next(new DomainError('not_found', 'No such API route.')));
   app.use('/api', api);

@@ -41,6 +41,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   return {
     ...env,
     DATA_DIR: path.resolve(env.DATA_DIR),
+    WEB_DIST_DIR: env.WEB_DIST_DIR ? path.resolve(env.WEB_DIST_DIR) : undefined,
     APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
   };

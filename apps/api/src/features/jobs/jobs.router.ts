@@ -1,0 +1,217 @@
+import { Router } from 'express';
+import {
+  JOB_SORTS,
+  findJob,
+  insertJobMessage,
+  listAuditEvents,
+  listJobMessages,
+  listJobs,
+  newId,
+  updateJob,
+  type JobListFilter,
+} from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import { asSubject, jobScopeFor } from '@revloop/domain/auth';
+import { toCsv } from '@revloop/domain/csv';
+import { logRequestSchema } from '@revloop/domain/datalog';
+import { JOB_STATES, JOB_STATE_LABELS, OPEN_STATES, jobIntakeSchema, messageInputSchema, type JobState } from '@revloop/domain/jobs';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { recordAudit } from '../audit/audit.service';
+import { notify } from '../notifications/notify.service';
+import {
+  assignJob,
+  customerSideOf,
+  jobLink,
+  jobRowToJob,
+  jobSubject,
+  loadJob,
+  moveJob,
+  openJob,
+  shopSideOf,
+  takeJob,
+} from './job.service';
+
+const stateList = z
+  .string()
+  .transform((s) => s.split(',').filter(Boolean))
+  .pipe(z.array(z.enum(JOB_STATES)));
+
+const listQuerySchema = z.object({
+  state: stateList.optional(),
+  open: z.enum(['true', 'false']).optional(),
+  tuner: z.string().min(1).optional(),
+  dealer: z.string().min(1).optional(),
+  package: z.string().min(1).optional(),
+  customer: z.string().min(1).optional(),
+  q: z.string().trim().max(100).optional(),
+  mine: z.enum(['true', 'false']).optional(),
+  sort: z.enum(JOB_SORTS).default('updated'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+
+function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobListFilter {
+  const states: JobState[] | undefined = q.state ?? (q.open === 'true' ? [...OPEN_STATES] : undefined);
+  return {
+    ...(states && { states }),
+    ...(q.mine === 'true' ? { tunerId: auth.user.id } : q.tuner ? { tunerId: q.tuner } : {}),
+    ...(q.dealer && { dealerId: q.dealer }),
+    ...(q.package && { packageId: q.package }),
+    ...(q.customer && { customerUserId: q.customer }),
+    ...(q.q && { text: q.q }),
+  };
+}
+
+const transitionSchema = z.object({ to: z.enum(JOB_STATES) });
+const assignSchema = z.object({ tunerId: z.string().min(1).nullable() });
+
+const TIMELINE_TEXT: Record<string, (d: Record<string, unknown>) => string> = {
+  'job.opened': () => 'Job opened',
+  'job.moved': (d) => `Moved from ${JOB_STATE_LABELS[d.from as JobState] ?? d.from} to ${JOB_STATE_LABELS[d.to as JobState] ?? d.to}`,
+  'job.assigned': (d) => (d.tunerId ? 'Tuner assigned' : 'Tuner unassigned'),
+  'job.taken': () => 'Taken by a tuner',
+  'job.log_request_changed': () => 'Log request changed',
+};
+
+export function createJobsRouter(deps: AppDeps): Router {
+  const router = Router();
+  const { db, clock } = deps;
+
+  router.get('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'read', 'Job');
+    const q = parseInput(listQuerySchema, req.query);
+    const { rows, total } = await listJobs(db, auth.shop.id, jobScopeFor(auth.actor), filterFrom(q, auth), {
+      sort: q.sort,
+      direction: q.dir,
+      offset: (q.page - 1) * q.pageSize,
+      limit: q.pageSize,
+    });
+    const now = clock.now();
+    res.json({
+      data: rows.map((r) => jobRowToJob(r, auth.actor, now)),
+      meta: { total, page: q.page, pageSize: q.pageSize, pageCount: Math.max(1, Math.ceil(total / q.pageSize)) },
+    });
+  });
+
+  router.get('/export.csv', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'read', 'Job');
+    const q = parseInput(listQuerySchema, req.query);
+    const { rows } = await listJobs(db, auth.shop.id, jobScopeFor(auth.actor), filterFrom(q, auth), {
+      sort: q.sort,
+      direction: q.dir,
+      offset: 0,
+      limit: 10_000,
+    });
+    const csv = toCsv(
+      ['Job', 'State', 'Round', 'Customer', 'Customer e-mail', 'Dealer', 'Vehicle', 'VIN', 'Package', 'Tuner', 'In state since', 'Opened'],
+      rows.map((r) => [r.number, JOB_STATE_LABELS[r.state], r.round, r.customer_name, r.customer_email, r.dealer_name, r.vehicle_description, r.vehicle_vin, r.package_name, r.tuner_name, r.state_changed_at, r.created_at]),
+    );
+    res.set('Content-Type', 'text/csv; charset=utf-8');
+    res.set('Content-Disposition', `attachment; filename="jobs-${clock.now().toISOString().slice(0, 10)}.csv"`);
+    res.send(csv);
+  });
+
+  router.post('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'create', 'Job');
+    const input = parseInput(jobIntakeSchema, req.body);
+    const job = await openJob(deps, auth, input);
+    res.status(201).json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+  });
+
+  router.get('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const job = await loadJob(db, auth, req.params.id);
+    authorizeRow(auth, 'read', 'Job', jobSubject(job));
+    const events = await listAuditEvents(db, auth.shop.id, { subjectType: 'Job', subjectId: job.id, limit: 500 });
+    const timeline = events
+      .map((e) => {
+        const details = JSON.parse(e.details) as Record<string, unknown>;
+        const text = TIMELINE_TEXT[e.action]?.(details) ?? (typeof details.text === 'string' ? details.text : e.action);
+        return { id: e.id, at: e.created_at, action: e.action, actor: e.actor_name, text };
+      })
+      .reverse();
+    res.json({ data: { ...jobRowToJob(job, auth.actor, clock.now()), timeline } });
+  });
+
+  router.post('/:id/transitions', async (req, res) => {
+    const auth = requireShop(req);
+    const { to } = parseInput(transitionSchema, req.body);
+    const job = await moveJob(deps, auth, req.params.id, to);
+    res.json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+  });
+
+  router.post('/:id/assign', async (req, res) => {
+    const auth = requireShop(req);
+    const current = await loadJob(db, auth, req.params.id);
+    authorizeRow(auth, 'assign', 'Job', jobSubject(current));
+    const { tunerId } = parseInput(assignSchema, req.body);
+    const job = await assignJob(deps, auth, req.params.id, tunerId);
+    res.json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+  });
+
+  router.post('/:id/take', async (req, res) => {
+    const auth = requireShop(req);
+    const current = await loadJob(db, auth, req.params.id);
+    authorizeRow(auth, 'take', 'Job', jobSubject(current));
+    const job = await takeJob(deps, auth, req.params.id);
+    res.json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+  });
+
+  router.put('/:id/log-request', async (req, res) => {
+    const auth = requireShop(req);
+    const current = await loadJob(db, auth, req.params.id);
+    authorizeRow(auth, 'update', 'Job', jobSubject(current));
+    const logRequest = parseInput(logRequestSchema, req.body);
+    await updateJob(db, auth.shop.id, current.id, { log_request: JSON.stringify(logRequest), updated_at: clock.now().toISOString() });
+    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'job.log_request_changed', subjectType: 'Job', subjectId: current.id, at: clock.now() });
+    res.json({ data: jobRowToJob((await findJob(db, auth.shop.id, current.id))!, auth.actor, clock.now()) });
+  });
+
+  router.get('/:id/messages', async (req, res) => {
+    const auth = requireShop(req);
+    const job = await loadJob(db, auth, req.params.id);
+    authorizeRow(auth, 'read', 'Message', jobSubject(job));
+    const rows = await listJobMessages(db, auth.shop.id, job.id);
+    res.json({
+      data: rows.map((m) => ({ id: m.id, body: m.body, author: { id: m.author_user_id, name: m.author_name }, mine: m.author_user_id === auth.user.id, createdAt: m.created_at })),
+      meta: { total: rows.length },
+    });
+  });
+
+  router.post('/:id/messages', async (req, res) => {
+    const auth = requireShop(req);
+    const job = await loadJob(db, auth, req.params.id);
+    if (!auth.ability.can('create', asSubject('Message', jobSubject(job)))) {
+      throw new DomainError(auth.actor.shopReadOnly ? 'shop_read_only' : 'forbidden', 'You cannot post on this job.');
+    }
+    const { body } = parseInput(messageInputSchema, req.body);
+    const message = await insertJobMessage(db, { id: newId(), shop_id: auth.shop.id, job_id: job.id, author_user_id: auth.user.id, body, created_at: clock.now().toISOString() });
+    const fromShop = auth.actor.role === 'owner' || auth.actor.role === 'tuner';
+    const recipients = fromShop ? await customerSideOf(db, job) : await shopSideOf(db, job);
+    await notify(
+      db,
+      deps.mailer,
+      {
+        shopId: auth.shop.id,
+        jobId: job.id,
+        kind: 'message_received',
+        recipients,
+        title: `Message from ${auth.user.name} — job ${job.number}`,
+        body: body.length > 280 ? `${body.slice(0, 277)}…` : body,
+        link: jobLink(deps.env.APP_ORIGIN, job.id),
+        at: clock.now(),
+      },
+      auth.user.id,
+    );
+    res.status(201).json({ data: { id: message.id, body: message.body, author: { id: auth.user.id, name: auth.user.name }, mine: true, createdAt: message.created_at } });
+  });
+
+  return router;
+}

@@ -1,0 +1,49 @@
+import { Router } from 'express';
+import { countUnreadNotifications, listNotifications, markNotificationsRead, updateUser } from '@revloop/db';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { requireAuth, requireShop } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { NOTIFICATION_KINDS, NOTIFICATION_LABELS, parseNotificationPrefs } from './notify.service';
+
+const readSchema = z.object({ ids: z.array(z.string().min(1)).max(500).optional() });
+const prefsSchema = z.object({
+  prefs: z.partialRecord(z.enum(NOTIFICATION_KINDS), z.object({ email: z.boolean() })),
+});
+
+export function createNotificationsRouter({ db, clock }: AppDeps): Router {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    const auth = requireShop(req);
+    const rows = await listNotifications(db, auth.shop.id, auth.user.id);
+    const unread = await countUnreadNotifications(db, auth.shop.id, auth.user.id);
+    res.json({
+      data: rows.map((r) => ({ id: r.id, kind: r.kind, title: r.title, body: r.body, jobId: r.job_id, readAt: r.read_at, createdAt: r.created_at })),
+      meta: { total: rows.length, unread },
+    });
+  });
+
+  router.post('/read', async (req, res) => {
+    const auth = requireShop(req);
+    const { ids } = parseInput(readSchema, req.body ?? {});
+    await markNotificationsRead(db, auth.shop.id, auth.user.id, clock.now().toISOString(), ids);
+    res.json({ data: { unread: await countUnreadNotifications(db, auth.shop.id, auth.user.id) } });
+  });
+
+  router.get('/preferences', (req, res) => {
+    const auth = requireAuth(req);
+    const prefs = parseNotificationPrefs(auth.user.notification_prefs);
+    res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: prefs[kind].email })) });
+  });
+
+  router.put('/preferences', async (req, res) => {
+    const auth = requireAuth(req);
+    const { prefs } = parseInput(prefsSchema, req.body);
+    const merged = { ...parseNotificationPrefs(auth.user.notification_prefs), ...prefs };
+    await updateUser(db, auth.user.id, { notification_prefs: JSON.stringify(merged) });
+    res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: merged[kind].email })) });
+  });
+
+  return router;
+}

@@ -1,0 +1,82 @@
+import { Router } from 'express';
+import { findPackage, insertPackage, listPackages, newId, updatePackage, type PackageRow } from '@revloop/db';
+import { packageInputSchema } from '@revloop/domain/jobs';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { recordAudit } from '../audit/audit.service';
+
+/** Dealers see their wholesale price; customers never see it. */
+function packageRowToPackage(row: PackageRow, role: string | null) {
+  return {
+    id: row.id,
+    name: row.name,
+    description: row.description,
+    modules: JSON.parse(row.modules) as string[],
+    retailPriceMinor: row.retail_price_minor,
+    dealerPriceMinor: role === 'customer' ? null : row.dealer_price_minor,
+    roundsIncluded: row.rounds_included,
+    active: row.active === 1,
+    createdAt: row.created_at,
+  };
+}
+
+const patchSchema = z.object({ active: z.boolean() });
+
+export function createPackagesRouter({ db, clock }: AppDeps): Router {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'read', 'Package');
+    const rows = await listPackages(db, auth.shop.id, { activeOnly: auth.actor.role !== 'owner' });
+    res.json({ data: rows.map((r) => packageRowToPackage(r, auth.actor.role)), meta: { total: rows.length, currency: auth.shop.currency } });
+  });
+
+  router.post('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'create', 'Package');
+    const input = parseInput(packageInputSchema, req.body);
+    const row = await insertPackage(db, {
+      id: newId(),
+      shop_id: auth.shop.id,
+      name: input.name,
+      description: input.description,
+      modules: JSON.stringify(input.modules),
+      retail_price_minor: input.retailPriceMinor,
+      dealer_price_minor: input.dealerPriceMinor,
+      rounds_included: input.roundsIncluded,
+      created_at: clock.now().toISOString(),
+    });
+    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'package.created', subjectType: 'Package', subjectId: row.id, at: clock.now() });
+    res.status(201).json({ data: packageRowToPackage(row, auth.actor.role) });
+  });
+
+  router.put('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const row = await findPackage(db, auth.shop.id, req.params.id);
+    authorizeRow(auth, 'update', 'Package', row && { shopId: row.shop_id });
+    const input = parseInput(packageInputSchema, req.body);
+    const updated = await updatePackage(db, auth.shop.id, row!.id, {
+      name: input.name,
+      description: input.description,
+      modules: JSON.stringify(input.modules),
+      retail_price_minor: input.retailPriceMinor,
+      dealer_price_minor: input.dealerPriceMinor,
+      rounds_included: input.roundsIncluded,
+    });
+    res.json({ data: packageRowToPackage(updated!, auth.actor.role) });
+  });
+
+  router.patch('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const row = await findPackage(db, auth.shop.id, req.params.id);
+    authorizeRow(auth, 'update', 'Package', row && { shopId: row.shop_id });
+    const { active } = parseInput(patchSchema, req.body);
+    const updated = await updatePackage(db, auth.shop.id, row!.id, { active: active ? 1 : 0 });
+    res.json({ data: packageRowToPackage(updated!, auth.actor.role) });
+  });
+
+  return router;
+}

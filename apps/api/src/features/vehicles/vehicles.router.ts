@@ -1,0 +1,100 @@
+import { Router } from 'express';
+import { findMembershipOfUser, findVehicle, insertVehicle, listVehicles, newId, updateVehicle, type VehicleListRow, type VehicleScope } from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import type { Actor } from '@revloop/domain/auth';
+import { parseTyreSize, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type VehicleInput } from '@revloop/domain/vehicles';
+import { z } from 'zod';
+import type { AppDeps } from '../../app';
+import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
+import { parseInput } from '../../http/validate';
+import { recordAudit } from '../audit/audit.service';
+
+const scopeOf = (actor: Actor): VehicleScope =>
+  actor.role === 'customer' ? { kind: 'owner', userId: actor.userId } : actor.role === 'dealer' && actor.dealerId ? { kind: 'dealer', dealerId: actor.dealerId } : { kind: 'shop' };
+
+const vehicleSubject = (row: VehicleListRow) => ({ shopId: row.shop_id, ownerUserId: row.owner_user_id, dealerId: row.dealer_id });
+
+/** The vehicle with what its numbers mean: road speed per gear and the fuel's stoichiometric ratio. */
+function vehicleRowToVehicle(row: VehicleListRow) {
+  const spec = JSON.parse(row.spec) as VehicleInput;
+  let derived: { tyreDiameterMm: number; tyreCircumferenceMm: number; stoichAfr: number; speeds: ReturnType<typeof speedTable> } | null;
+  try {
+    const tyre = parseTyreSize(spec.tyreSize);
+    derived = {
+      tyreDiameterMm: tyre.diameterMm,
+      tyreCircumferenceMm: tyre.circumferenceMm,
+      stoichAfr: stoichAfr(vehicleFuelSpec(spec)),
+      speeds: speedTable({ gearRatios: spec.transmission.gearRatios, finalDrive: spec.finalDrive, tyreCircumferenceMm: tyre.circumferenceMm, revLimitRpm: spec.revLimitRpm }),
+    };
+  } catch {
+    derived = null;
+  }
+  return {
+    id: row.id,
+    owner: { id: row.owner_user_id, name: row.owner_name, email: row.owner_email },
+    dealerId: row.dealer_id,
+    vin: row.vin,
+    modelYear: row.model_year,
+    description: row.description,
+    spec,
+    derived,
+    createdAt: row.created_at,
+  };
+}
+
+const createSchema = z.object({ ownerUserId: z.string().min(1).optional(), vehicle: vehicleInputSchema });
+
+export function createVehiclesRouter({ db, clock }: AppDeps): Router {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    const auth = requireShop(req);
+    authorize(auth, 'read', 'Vehicle');
+    const owner = typeof req.query.owner === 'string' ? req.query.owner : undefined;
+    const rows = await listVehicles(db, auth.shop.id, scopeOf(auth.actor), owner);
+    res.json({ data: rows.map(vehicleRowToVehicle), meta: { total: rows.length } });
+  });
+
+  router.get('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const row = await findVehicle(db, auth.shop.id, req.params.id);
+    authorizeRow(auth, 'read', 'Vehicle', row && vehicleSubject(row));
+    res.json({ data: vehicleRowToVehicle(row!) });
+  });
+
+  router.post('/', async (req, res) => {
+    const auth = requireShop(req);
+    const { ownerUserId, vehicle } = parseInput(createSchema, req.body);
+    const owner = auth.actor.role === 'customer' ? auth.user.id : ownerUserId;
+    if (!owner) throw new DomainError('validation', 'Choose the customer who owns the vehicle.');
+    const membership = await findMembershipOfUser(db, auth.shop.id, owner);
+    if (!membership || membership.role !== 'customer') throw new DomainError('validation', 'The owner must be a customer of this shop.');
+    authorizeRow(auth, 'create', 'Vehicle', { shopId: auth.shop.id, ownerUserId: owner, dealerId: membership.dealer_id });
+    const at = clock.now().toISOString();
+    const row = await insertVehicle(db, {
+      id: newId(),
+      shop_id: auth.shop.id,
+      owner_user_id: owner,
+      dealer_id: membership.dealer_id,
+      vin: vehicle.vin,
+      model_year: vehicle.modelYear,
+      description: vehicle.description,
+      spec: JSON.stringify(vehicle),
+      created_at: at,
+      updated_at: at,
+    });
+    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'vehicle.created', subjectType: 'Vehicle', subjectId: row.id, at: clock.now() });
+    res.status(201).json({ data: vehicleRowToVehicle((await findVehicle(db, auth.shop.id, row.id))!) });
+  });
+
+  router.put('/:id', async (req, res) => {
+    const auth = requireShop(req);
+    const row = await findVehicle(db, auth.shop.id, req.params.id);
+    authorizeRow(auth, 'update', 'Vehicle', row && vehicleSubject(row));
+    const vehicle = parseInput(vehicleInputSchema, req.body);
+    await updateVehicle(db, auth.shop.id, row!.id, { vin: vehicle.vin, model_year: vehicle.modelYear, description: vehicle.description, spec: JSON.stringify(vehicle), updated_at: clock.now().toISOString() });
+    res.json({ data: vehicleRowToVehicle((await findVehicle(db, auth.shop.id, row!.id))!) });
+  });
+
+  return router;
+}

@@ -1,0 +1,37 @@
+import { z } from 'zod';
+import { logRequestSchema } from '../datalog/datalog.schemas';
+import { defaultLogRequest, type LogRequest } from '../datalog/log-request';
+
+/** What an owner sets for the whole shop; stored as JSON on the shop, every field with a default. */
+export const shopSettingsSchema = z.object({
+  /** Largest calibration or log upload, in MiB (16 MiB covers the control units we see). */
+  uploadLimitMiB: z.number().int().min(1).max(256).default(16),
+  /** Keep a new job on hold until its package is paid. */
+  holdUntilPaid: z.boolean().default(false),
+  /** Default log requests by engine family (free text such as "v8" or "2.0 turbo i4"), matched case-insensitively. */
+  logRequestDefaults: z.record(z.string().trim().min(1).max(80), logRequestSchema).default({}),
+});
+export type ShopSettings = z.infer<typeof shopSettingsSchema>;
+
+export const shopSettingsPatchSchema = shopSettingsSchema.partial();
+
+/** Parses stored settings, filling defaults, so an older row never breaks a newer app. */
+export function parseShopSettings(json: string): ShopSettings {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(json);
+  } catch {
+    raw = {};
+  }
+  const parsed = shopSettingsSchema.safeParse(raw);
+  return parsed.success ? parsed.data : shopSettingsSchema.parse({});
+}
+
+const familyKey = (family: string) => family.toLowerCase().replace(/[^a-z0-9]/g, '');
+
+/** The shop's own default for this engine family, else the built-in one for the round. */
+export function logRequestFor(settings: ShopSettings, engineFamily: string, round = 1): LogRequest {
+  const key = familyKey(engineFamily);
+  const own = Object.entries(settings.logRequestDefaults).find(([family]) => familyKey(family) === key)?.[1];
+  return own ?? defaultLogRequest(engineFamily, round);
+}
