@@ -8,6 +8,7 @@ import {
 } from '@revloop/db';
 import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword } from '../../apps/api/src/features/auth/password';
+import { seedJobs, type SeededJob } from './jobs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
 export interface SeededShop {
@@ -24,6 +25,7 @@ export interface DemoIds {
   adminId: string;
   kestrel: SeededShop;
   harbor: SeededShop;
+  jobs: SeededJob[];
 }
 
 /** Loads the invented scenario into an empty, migrated database. Times are spread back from `now`. */
@@ -98,17 +100,22 @@ export async function seedDemo(db: Db, now: Date = new Date()): Promise<DemoIds>
     hCustomers.push(id);
   }
 
-  return {
-    adminId,
-    kestrel: {
-      shopId: kestrelId,
-      ownerId: kOwner,
-      tunerIds: kTuners,
-      customerIds: kCustomers,
-      dealerId: dealer.id,
-      dealerUserId,
-      dealerCustomerIds: kDealerCustomers,
-    },
-    harbor: { shopId: harborId, ownerId: hOwner, tunerIds: hTuners, customerIds: hCustomers, dealerId: null, dealerUserId: null, dealerCustomerIds: [] },
+  const names = new Map<string, string>();
+  for (const u of await db.selectFrom('users').select(['id', 'name']).execute()) names.set(u.id, u.name);
+  const kestrel: SeededShop = {
+    shopId: kestrelId,
+    ownerId: kOwner,
+    tunerIds: kTuners,
+    customerIds: kCustomers,
+    dealerId: dealer.id,
+    dealerUserId,
+    dealerCustomerIds: kDealerCustomers,
   };
+  const harbor: SeededShop = { shopId: harborId, ownerId: hOwner, tunerIds: hTuners, customerIds: hCustomers, dealerId: null, dealerUserId: null, dealerCustomerIds: [] };
+  const jobs = [
+    ...(await seedJobs(db, kestrel, { plan: 'kestrel', now, customerNames: names, seed: 7 })),
+    ...(await seedJobs(db, harbor, { plan: 'harbor', now, customerNames: names, seed: 11 })),
+  ];
+  return { adminId, kestrel, harbor, jobs };
 }
+

@@ -161,13 +161,24 @@ async function noticeForMove(db: Db, job: JobListRow, to: JobState) {
   return plan;
 }
 
-/** Moves a job: the domain decides whether the move is allowed, the update only lands if nobody moved it first. */
-export async function moveJob(deps: AppDeps, auth: AuthContext & { shop: { id: string } }, jobId: string, to: JobState): Promise<JobListRow> {
+/**
+ * Moves a job: the domain decides whether the move is allowed, the update only lands if nobody moved it first.
+ * `bySystem` is for moves that follow from an upload (a read makes the job ready, a log starts the review):
+ * the person uploading may not make the move by hand, but its precondition is still checked.
+ */
+export async function moveJob(
+  deps: AppDeps,
+  auth: AuthContext & { shop: { id: string } },
+  jobId: string,
+  to: JobState,
+  options: { bySystem?: boolean } = {},
+): Promise<JobListRow> {
   const { db, clock } = deps;
   const job = await loadJob(db, auth, jobId);
   const facts = factsOf(job);
-  assertTransition(facts, auth.actor, to);
-  const next = applyTransition(facts, to, auth.actor);
+  const checker: Actor = options.bySystem ? { ...auth.actor, role: 'owner', dealerId: null } : auth.actor;
+  assertTransition(facts, checker, to);
+  const next = applyTransition(facts, to, options.bySystem ? undefined : auth.actor);
   const at = clock.now().toISOString();
   const updated = await updateJob(
     db,
@@ -192,7 +203,7 @@ export async function moveJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
     action: 'job.moved',
     subjectType: 'Job',
     subjectId: job.id,
-    details: { from: job.state, to, round: next.round },
+    details: { from: job.state, to, round: next.round, ...(options.bySystem && { automatic: true }) },
     at: clock.now(),
   });
   const fresh = (await findJob(db, auth.shop.id, job.id))!;
@@ -200,6 +211,23 @@ export async function moveJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
     await notify(db, deps.mailer, { shopId: auth.shop.id, jobId: job.id, link: jobLink(deps.env.APP_ORIGIN, job.id), at: clock.now(), ...n }, auth.user.id);
   }
   return fresh;
+}
+
+/** Records what the vault and the log upload learned (a stock read is in, a revision or a log for the round). */
+export async function setJobFacts(
+  db: Db,
+  shopId: string,
+  jobId: string,
+  facts: Partial<Pick<JobFacts, 'hasStockRead' | 'hasRevisionForRound' | 'hasLogForRound'>>,
+  at: Date,
+): Promise<void> {
+  const bit = (v: boolean | undefined) => (v === undefined ? undefined : v ? 1 : 0);
+  await updateJob(db, shopId, jobId, {
+    ...(facts.hasStockRead !== undefined && { has_stock_read: bit(facts.hasStockRead) }),
+    ...(facts.hasRevisionForRound !== undefined && { has_revision_for_round: bit(facts.hasRevisionForRound) }),
+    ...(facts.hasLogForRound !== undefined && { has_log_for_round: bit(facts.hasLogForRound) }),
+    updated_at: at.toISOString(),
+  });
 }
 
 /** Resolves who the job is for, creating a customer account (invited later) when the intake names a new one. */
