@@ -5,7 +5,7 @@ export function Card({ title, description, actions, children, className }: { tit
   return (
     <section className={cn('rounded-card border border-ink-200 bg-white shadow-xs', className)}>
       {(title || actions) && (
-        <header className="flex flex-wrap items-start justify-between gap-3 border-b border-ink-100 px-5 py-4">
+        <header className="flex flex-wrap items-start justify-between gap-3 border-b border-ink-100 px-4 py-4 sm:px-5">
           <div>
             {title && <h2 className="text-base font-semibold text-ink-900">{title}</h2>}
             {description && <p className="mt-0.5 text-sm text-ink-600">{description}</p>}
@@ -13,7 +13,7 @@ export function Card({ title, description, actions, children, className }: { tit
           {actions}
         </header>
       )}
-      <div className="p-5">{children}</div>
+      <div className="p-4 sm:p-5">{children}</div>
     </section>
   );
 }

@@ -1,20 +1,24 @@
-import { useEffect, useRef } from 'react';
-
 export interface SummaryItem {
   fieldId?: string;
   message: string;
 }
 
-/** Lists every problem of a form at its top, each linked to its field, and takes focus when it appears. */
+/**
+ * Lists every problem of a form at its top, each linked to its field. It is announced as an alert; focus
+ * stays with the first invalid field, where react-hook-form puts it.
+ */
 export function FormErrorSummary({ items, title = 'Please fix the following' }: { items: SummaryItem[]; title?: string }) {
-  const ref = useRef<HTMLDivElement>(null);
-  const key = items.map((item) => item.message).join('|');
-  useEffect(() => {
-    if (key) ref.current?.focus();
-  }, [key]);
   if (items.length === 0) return null;
+  const only = items.length === 1 ? items[0] : undefined;
+  if (only && !only.fieldId) {
+    return (
+      <p role="alert" className="rounded-lg border border-bad/40 bg-bad-soft p-3 text-sm text-bad">
+        {only.message}
+      </p>
+    );
+  }
   return (
-    <div ref={ref} tabIndex={-1} role="alert" className="rounded-lg border border-bad/40 bg-bad-soft p-3 text-sm text-bad">
+    <div role="alert" className="rounded-lg border border-bad/40 bg-bad-soft p-3 text-sm text-bad">
       <p className="font-medium">{title}</p>
       <ul className="mt-1 list-disc pl-5">
         {items.map((item) => (

@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { ROLE_LABELS } from '@revloop/domain/auth';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
@@ -35,7 +36,7 @@ export function InvitationSummary({ invitation }: { invitation: InvitationLookup
 }
 
 export function AcceptInvitationForm({ token, onSuccess }: { token: string; onSuccess: (me: Me) => void }) {
-  const form = useForm({ resolver: zodResolver(acceptInvitationSchema), defaultValues: { name: '', password: '' } });
+  const form = useForm({ resolver: zodResolver(acceptInvitationSchema, plainErrors), defaultValues: { name: '', password: '' } });
   const accept = useAcceptInvitation();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) =>
@@ -49,7 +50,7 @@ export function AcceptInvitationForm({ token, onSuccess }: { token: string; onSu
   return (
     <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">
       <FormErrorSummary items={items} />
-      <Field id="accept-name" label="Your name" error={errors.name?.message && 'Enter your name.'}>
+      <Field id="accept-name" label="Your name" error={errors.name?.message}>
         {(a11y) => <Input {...a11y} autoComplete="name" {...form.register('name')} />}
       </Field>
       <Field id="accept-password" label="Choose a password" hint="At least 10 characters." error={errors.password?.message}>

@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
@@ -9,7 +10,7 @@ import { errorMessage, summaryItems } from '../../../lib/form-errors';
 import { resetRequestSchema, useRequestPasswordReset } from '../api/request-password-reset';
 
 export function ForgotPasswordForm() {
-  const form = useForm({ resolver: zodResolver(resetRequestSchema), defaultValues: { email: '' } });
+  const form = useForm({ resolver: zodResolver(resetRequestSchema, plainErrors), defaultValues: { email: '' } });
   const request = useRequestPasswordReset();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) => request.mutate(values));

@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
@@ -15,7 +16,7 @@ const UNIT_OPTIONS = [
 ] as const;
 
 export function ProfileForm({ me }: { me: Me }) {
-  const form = useForm({ resolver: zodResolver(updateMeSchema), defaultValues: { name: me.user.name, unitSystem: me.user.unitSystem } });
+  const form = useForm({ resolver: zodResolver(updateMeSchema, plainErrors), defaultValues: { name: me.user.name, unitSystem: me.user.unitSystem } });
   const update = useUpdateMe();
   const { errors, isSubmitted, isDirty } = form.formState;
   const onSubmit = form.handleSubmit((values) => update.mutate(values, { onSuccess: (next) => form.reset({ name: next.user.name, unitSystem: next.user.unitSystem }) }));
@@ -25,7 +26,7 @@ export function ProfileForm({ me }: { me: Me }) {
     <form noValidate onSubmit={onSubmit} className="flex max-w-lg flex-col gap-5">
       <FormErrorSummary items={items} />
       {update.isSuccess && !isDirty && <Banner tone="ok">Profile saved.</Banner>}
-      <Field id="profile-email" label="E-mail" hint="Your sign-in address. Ask the shop owner to change it.">
+      <Field id="profile-email" label="E-mail" hint="The address you sign in with.">
         {(a11y) => <Input {...a11y} value={me.user.email} readOnly disabled />}
       </Field>
       <Field id="profile-name" label="Name" error={errors.name?.message}>

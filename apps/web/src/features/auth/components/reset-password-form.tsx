@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
@@ -8,7 +9,7 @@ import { errorMessage, summaryItems } from '../../../lib/form-errors';
 import { resetConfirmSchema, useConfirmPasswordReset } from '../api/confirm-password-reset';
 
 export function ResetPasswordForm({ token, onSuccess }: { token: string; onSuccess: () => void }) {
-  const form = useForm({ resolver: zodResolver(resetConfirmSchema), defaultValues: { token, password: '' } });
+  const form = useForm({ resolver: zodResolver(resetConfirmSchema, plainErrors), defaultValues: { token, password: '' } });
   const confirm = useConfirmPasswordReset();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) => confirm.mutate(values, { onSuccess }));

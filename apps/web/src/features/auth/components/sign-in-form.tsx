@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
@@ -11,7 +12,7 @@ import { signInSchema, useSignIn } from '../api/sign-in';
 import type { Me } from '../api/get-me';
 
 export function SignInForm({ onSuccess }: { onSuccess: (me: Me) => void }) {
-  const form = useForm({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
+  const form = useForm({ resolver: zodResolver(signInSchema, plainErrors), defaultValues: { email: '', password: '' } });
   const signIn = useSignIn();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) => signIn.mutate(values, { onSuccess }));
@@ -23,7 +24,7 @@ export function SignInForm({ onSuccess }: { onSuccess: (me: Me) => void }) {
       <Field id="sign-in-email" label="E-mail" error={errors.email?.message}>
         {(a11y) => <Input {...a11y} type="email" autoComplete="username" {...form.register('email')} />}
       </Field>
-      <Field id="sign-in-password" label="Password" error={errors.password?.message && 'Enter your password.'}>
+      <Field id="sign-in-password" label="Password" error={errors.password?.message}>
         {(a11y) => <Input {...a11y} type="password" autoComplete="current-password" {...form.register('password')} />}
       </Field>
       <div className="flex items-center justify-between gap-3">

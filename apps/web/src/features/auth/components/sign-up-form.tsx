@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
@@ -11,7 +12,7 @@ import type { Me } from '../api/get-me';
 const FIELDS = ['shopName', 'name', 'email', 'password'] as const;
 
 export function SignUpForm({ onSuccess }: { onSuccess: (me: Me) => void }) {
-  const form = useForm({ resolver: zodResolver(signUpSchema), defaultValues: { shopName: '', name: '', email: '', password: '' } });
+  const form = useForm({ resolver: zodResolver(signUpSchema, plainErrors), defaultValues: { shopName: '', name: '', email: '', password: '' } });
   const signUp = useSignUp();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) =>
@@ -25,10 +26,10 @@ export function SignUpForm({ onSuccess }: { onSuccess: (me: Me) => void }) {
   return (
     <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">
       <FormErrorSummary items={items} />
-      <Field id="sign-up-shopName" label="Shop name" error={errors.shopName?.message && 'Enter a shop name of 2 to 80 characters.'}>
+      <Field id="sign-up-shopName" label="Shop name" error={errors.shopName?.message}>
         {(a11y) => <Input {...a11y} autoComplete="organization" {...form.register('shopName')} />}
       </Field>
-      <Field id="sign-up-name" label="Your name" error={errors.name?.message && 'Enter your name.'}>
+      <Field id="sign-up-name" label="Your name" error={errors.name?.message}>
         {(a11y) => <Input {...a11y} autoComplete="name" {...form.register('name')} />}
       </Field>
       <Field id="sign-up-email" label="E-mail" error={errors.email?.message}>

@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
@@ -11,7 +12,7 @@ import type { Dealer } from '../api/get-dealers';
 const FIELDS = ['name', 'contactName', 'contactEmail', 'phone'] as const;
 
 export function CreateDealerForm({ onDone, onCancel }: { onDone: (dealer: Dealer) => void; onCancel: () => void }) {
-  const form = useForm({ resolver: zodResolver(createDealerSchema), defaultValues: { name: '', contactName: '', contactEmail: '', phone: '' } });
+  const form = useForm({ resolver: zodResolver(createDealerSchema, plainErrors), defaultValues: { name: '', contactName: '', contactEmail: '', phone: '' } });
   const create = useCreateDealer();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) =>

@@ -1,5 +1,6 @@
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { ROLE_LABELS, SHOP_ROLES } from '@revloop/domain/auth';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
@@ -23,7 +24,7 @@ export interface InviteFormProps {
 
 export function InviteForm({ dealers, fixedDealer, idPrefix = 'invite' }: InviteFormProps) {
   const defaults = { email: '', role: fixedDealer ? ('dealer' as const) : ('tuner' as const), dealerId: fixedDealer?.id ?? '' };
-  const form = useForm({ resolver: zodResolver(createInvitationSchema), defaultValues: defaults });
+  const form = useForm({ resolver: zodResolver(createInvitationSchema, plainErrors), defaultValues: defaults });
   const create = useCreateInvitation();
   const role = useWatch({ control: form.control, name: 'role' });
   const { errors, isSubmitted } = form.formState;

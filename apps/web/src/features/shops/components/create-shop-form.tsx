@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
@@ -10,7 +11,7 @@ import { createShopSchema, useCreateShop } from '../api/create-shop';
 const FIELDS = ['name', 'ownerName', 'ownerEmail'] as const;
 
 export function CreateShopForm({ onDone, onCancel }: { onDone: (ownerEmail: string) => void; onCancel: () => void }) {
-  const form = useForm({ resolver: zodResolver(createShopSchema), defaultValues: { name: '', ownerName: '', ownerEmail: '' } });
+  const form = useForm({ resolver: zodResolver(createShopSchema, plainErrors), defaultValues: { name: '', ownerName: '', ownerEmail: '' } });
   const create = useCreateShop();
   const { errors, isSubmitted } = form.formState;
   const onSubmit = form.handleSubmit((values) =>

@@ -43,7 +43,7 @@ function DealerScreen({ dealerId }: { dealerId: string }) {
       <div className="mb-3 text-sm">{back}</div>
       <PageHeader title={detail.name} description={`Dealer since ${formatDate(detail.createdAt)}`} />
       <div className="grid gap-6 lg:grid-cols-[minmax(0,20rem)_minmax(0,1fr)]">
-        <Card title="Contact">
+        <Card title="Contact" className="self-start">
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-2 text-sm">
             <dt className="text-ink-600">Name</dt>
             <dd className="text-ink-900">{detail.contactName}</dd>
@@ -52,7 +52,7 @@ function DealerScreen({ dealerId }: { dealerId: string }) {
             <dt className="text-ink-600">Phone</dt>
             <dd className="text-ink-900">{detail.phone || '—'}</dd>
             <dt className="text-ink-600">Users</dt>
-            <dd className="text-ink-900">{detail.userCount}</dd>
+            <dd className="text-ink-900">{detail.users.length}</dd>
           </dl>
         </Card>
         <div className="flex flex-col gap-6">
