@@ -8,6 +8,7 @@ import {
 } from '@revloop/db';
 import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword } from '../../apps/api/src/features/auth/password';
+import type { BlobStore } from '../../apps/api/src/storage/blob-store';
 import { seedJobs, type SeededJob } from './jobs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
@@ -28,8 +29,13 @@ export interface DemoIds {
   jobs: SeededJob[];
 }
 
+export interface SeedOptions {
+  /** Where the demo's calibration files and logs are stored; without it only rows are seeded. */
+  blobs?: BlobStore;
+}
+
 /** Loads the invented scenario into an empty, migrated database. Times are spread back from `now`. */
-export async function seedDemo(db: Db, now: Date = new Date()): Promise<DemoIds> {
+export async function seedDemo(db: Db, now: Date = new Date(), _options: SeedOptions = {}): Promise<DemoIds> {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const daysAgo = (d: number) => new Date(now.getTime() - d * 86_400_000).toISOString();
 

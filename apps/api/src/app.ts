@@ -30,6 +30,7 @@ import { sessionMiddleware } from './http/auth-context';
 import type { Clock } from './http/clock';
 import { errorHandler } from './http/error-handler';
 import { sameOrigin } from './http/same-origin';
+import type { BlobStore } from './storage/blob-store';
 
 export interface AppDeps {
   db: Db;
@@ -38,6 +39,8 @@ export interface AppDeps {
   mailer: Mailer;
   logger: Logger;
   throttle: SignInThrottle;
+  /** Content-addressed file storage under DATA_DIR/files. */
+  blobs: BlobStore;
   /** Present when the local SMTP stand-in runs: exposes the development mailbox page. */
   mailbox?: Mailbox | undefined;
 }

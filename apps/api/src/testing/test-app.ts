@@ -1,3 +1,6 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
 import { createDb, migrateToLatest, type Db } from '@revloop/db';
@@ -9,6 +12,7 @@ import { startSmtpFake, type Mailbox } from '../fakes/smtp/smtp-fake';
 import { SignInThrottle } from '../features/auth/sign-in-throttle';
 import { createSmtpMailer } from '../features/mail/mailer';
 import type { Clock } from '../http/clock';
+import { BlobStore } from '../storage/blob-store';
 
 export const TEST_ORIGIN = 'http://localhost:8080';
 
@@ -30,6 +34,7 @@ export interface TestApp {
   clock: FakeClock;
   env: Env;
   mailbox: Mailbox;
+  blobs: BlobStore;
   ids: DemoIds;
   close(): Promise<void>;
 }
@@ -39,13 +44,15 @@ export async function createTestApp(envOverrides: Record<string, string> = {}): 
   const db = createDb(':memory:');
   await migrateToLatest(db);
   const clock = new FakeClock();
-  const ids = await seedDemo(db, clock.now());
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-api-test-'));
+  const blobs = new BlobStore(dataDir);
+  const ids = await seedDemo(db, clock.now(), { blobs });
   const smtp = await startSmtpFake();
   const env = loadEnv({
     NODE_ENV: 'test',
     APP_ORIGIN: TEST_ORIGIN,
     LOG_LEVEL: 'silent',
-    DATA_DIR: '/tmp/revloop-test-unused',
+    DATA_DIR: dataDir,
     TRUST_PROXY: 'loopback',
     ...envOverrides,
   });
@@ -57,6 +64,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}): 
     mailer,
     logger: pino({ level: 'silent' }),
     throttle: new SignInThrottle(undefined, () => clock.now().getTime()),
+    blobs,
     mailbox: smtp.mailbox,
   });
   return {
@@ -65,10 +73,12 @@ export async function createTestApp(envOverrides: Record<string, string> = {}): 
     clock,
     env,
     mailbox: smtp.mailbox,
+    blobs,
     ids,
     close: async () => {
       await smtp.close();
       await db.destroy();
+      fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
 }

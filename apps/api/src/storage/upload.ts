@@ -1,0 +1,29 @@
+import type { RequestHandler } from 'express';
+import multer from 'multer';
+import { DomainError } from '@revloop/domain';
+import type { BlobStore } from './blob-store';
+
+/**
+ * Streams one multipart file to a temporary file in the data folder, never into memory. Past the size limit the
+ * request fails with 413 and multer removes the partial file, so nothing is left on disk.
+ */
+export function singleFileUpload(store: BlobStore, field: string, maxBytes: (req: Parameters<RequestHandler>[0]) => number): RequestHandler {
+  return (req, res, next) => {
+    const limit = maxBytes(req);
+    const upload = multer({
+      storage: multer.diskStorage({
+        destination: store.tempDir,
+        filename: (_req, _file, cb) => cb(null, store.tempPath().split('/').pop()!),
+      }),
+      limits: { fileSize: limit, files: 1, fields: 20, fieldSize: 64 * 1024 },
+    }).single(field);
+    upload(req, res, (err: unknown) => {
+      if (!err) return next();
+      if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
+        return next(new DomainError('payload_too_large', `The file is larger than this shop allows (${Math.round(limit / 1048576)} MiB).`));
+      }
+      if (err instanceof multer.MulterError) return next(new DomainError('validation', `Upload refused: ${err.message}.`));
+      next(err);
+    });
+  };
+}
