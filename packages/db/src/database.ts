@@ -1,4 +1,6 @@
 import type { AuditEventTable } from './audit/audit-event.table';
+import type { CalibrationFileTable } from './files/calibration-file.table';
+import type { DatalogMappingTable, DatalogTable } from './datalogs/datalog.table';
 import type { DealerTable } from './dealers/dealer.table';
 import type { JobMessageTable, JobTable } from './jobs/job.table';
 import type { NotificationTable } from './notifications/notification.table';
@@ -23,4 +25,7 @@ export interface Database {
   jobs: JobTable;
   job_messages: JobMessageTable;
   notifications: NotificationTable;
+  datalogs: DatalogTable;
+  datalog_mappings: DatalogMappingTable;
+  calibration_files: CalibrationFileTable;
 }

@@ -22,3 +22,7 @@ export * from './jobs/job.table';
 export * from './jobs/job.repository';
 export * from './notifications/notification.table';
 export * from './notifications/notification.repository';
+export * from './files/calibration-file.table';
+export * from './files/calibration-file.repository';
+export * from './datalogs/datalog.table';
+export * from './datalogs/datalog.repository';

@@ -2,11 +2,15 @@ import { Migrator, type Migration, type MigrationProvider } from 'kysely';
 import type { Db } from './client';
 import * as foundation from './migrations/2026-12-02-001-foundation';
 import * as jobs from './migrations/2026-12-02-002-jobs';
+import * as files from './migrations/2026-12-02-003-files';
+import * as datalogs from './migrations/2026-12-02-004-datalogs';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-001-foundation': foundation,
   '2026-12-02-002-jobs': jobs,
+  '2026-12-02-003-files': files,
+  '2026-12-02-004-datalogs': datalogs,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
