@@ -134,7 +134,6 @@ const KESTREL_PLAN: StatePlan[] = [
   ...Array.from({ length: 6 }, (_, i): StatePlan => ({ state: 'dialed_in', round: 2 + (i % 3) })),
   { state: 'on_hold', round: 0, heldFrom: 'ready', staleDays: 9 },
   { state: 'on_hold', round: 1, heldFrom: 'with_customer' },
-  { state: 'cancelled', round: 0 },
   { state: 'cancelled', round: 1 },
 ];
 
