@@ -8,6 +8,12 @@ const headerOf = (headers: string[], overrides?: Record<string, string>) => {
 };
 
 describe('mapHeaders', () => {
+  it('leaves a channel out when its override names no column, and frees that column', () => {
+    const headers = ['Time (s)', 'RPM', 'Knock retard (deg)'];
+    expect(headerOf(headers, { knock_retard: '' })).toEqual({ time: 'Time (s)', rpm: 'RPM' });
+    expect(mapHeaders(headers, { knock_retard: ' ' }).unmapped).toEqual(['Knock retard (deg)']);
+  });
+
   it('reads OBD-II PID names (SAE J1979 titles)', () => {
     const headers = [
       'Time (s)',

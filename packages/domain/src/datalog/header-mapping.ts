@@ -136,7 +136,8 @@ function resolveOverrideChannel(key: string): CanonicalChannel {
 
 /**
  * Proposes which column feeds each canonical channel, by header synonyms; `overrides` (channel → header text)
- * win. The UI shows the result for the tuner to confirm or fix.
+ * win, and an empty header text means "not logged" (a column the synonyms took wrongly). The UI shows the
+ * result for the tuner to confirm or fix.
  */
 export function mapHeaders(
   headers: readonly string[],
@@ -145,10 +146,15 @@ export function mapHeaders(
   const splits = headers.map(splitHeader);
   const taken = new Set<number>();
   const channels: Partial<Record<CanonicalChannel, MappedColumn>> = {};
+  const notLogged = new Set<CanonicalChannel>();
 
   for (const [key, wanted] of Object.entries(overrides)) {
     const channel = resolveOverrideChannel(key);
     const target = wanted.trim().toLowerCase();
+    if (target === '') {
+      notLogged.add(channel);
+      continue;
+    }
     const column = splits.findIndex((s) => s.header.toLowerCase() === target);
     const split = splits[column];
     if (split === undefined) {
@@ -162,7 +168,7 @@ export function mapHeaders(
   }
 
   for (const channel of CANONICAL_CHANNELS) {
-    if (channels[channel] !== undefined) continue;
+    if (channels[channel] !== undefined || notLogged.has(channel)) continue;
     search: for (const pattern of CHANNEL_SYNONYMS[channel]) {
       for (let column = 0; column < splits.length; column++) {
         const split = splits[column];
