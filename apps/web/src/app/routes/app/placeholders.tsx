@@ -1,28 +1,28 @@
 import { JobsPlaceholder } from '../../../features/jobs/components/jobs-placeholder';
 import { useSignedInMe } from '../../../features/auth/api/get-me';
-import { RequireAbility } from './require-ability';
+import { RequireScreen } from './require-screen';
 
 export function JobsRoute() {
   const me = useSignedInMe();
   return (
-    <RequireAbility action="read" subject="Job">
+    <RequireScreen screen="jobs">
       <JobsPlaceholder kind={me.role === 'customer' ? 'my-jobs' : 'jobs'} />
-    </RequireAbility>
+    </RequireScreen>
   );
 }
 
 export function VehiclesRoute() {
   return (
-    <RequireAbility action="read" subject="Vehicle">
+    <RequireScreen screen="vehicles">
       <JobsPlaceholder kind="vehicles" />
-    </RequireAbility>
+    </RequireScreen>
   );
 }
 
 export function CustomersRoute() {
   return (
-    <RequireAbility action="read" subject="Customer">
+    <RequireScreen screen="customers">
       <JobsPlaceholder kind="customers" />
-    </RequireAbility>
+    </RequireScreen>
   );
 }

@@ -12,7 +12,7 @@ import { PendingInvitations } from '../../../features/invitations/components/pen
 import { useMembers } from '../../../features/members/api/get-members';
 import { MembersTable } from '../../../features/members/components/members-table';
 import { errorMessage } from '../../../lib/form-errors';
-import { RequireAbility } from './require-ability';
+import { RequireScreen } from './require-screen';
 
 const EMPTY: never[] = [];
 
@@ -65,8 +65,8 @@ function TeamScreen() {
 
 export function TeamRoute() {
   return (
-    <RequireAbility action="read" subject="Member">
+    <RequireScreen screen="team">
       <TeamScreen />
-    </RequireAbility>
+    </RequireScreen>
   );
 }

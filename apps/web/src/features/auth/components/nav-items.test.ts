@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { defineAbilityFor, type Actor, type ShopRole } from '@revloop/domain/auth';
-import { homePathFor, navItemsFor } from './nav-items';
+import { canOpen, homePathFor, navItemsFor } from './nav-items';
 
 const actor = (role: ShopRole | null, extra: Partial<Actor> = {}): Actor => ({
   userId: 'u1',
@@ -33,9 +33,17 @@ describe('navItemsFor', () => {
   });
 });
 
+describe('canOpen', () => {
+  it('keeps the dealer list to the owner, though tuners and dealers may read dealer rows', () => {
+    expect(canOpen('dealers', defineAbilityFor(actor('owner')), { role: 'owner' })).toBe(true);
+    expect(canOpen('dealers', defineAbilityFor(actor('tuner')), { role: 'tuner' })).toBe(false);
+    expect(canOpen('dealers', defineAbilityFor(actor('dealer')), { role: 'dealer' })).toBe(false);
+  });
+});
+
 describe('homePathFor', () => {
   it('sends admins to shops and everyone else to jobs', () => {
-    expect(homePathFor(defineAbilityFor(actor(null, { platformAdmin: true, shopId: null })))).toBe('/admin/shops');
-    expect(homePathFor(defineAbilityFor(actor('customer')))).toBe('/jobs');
+    expect(homePathFor(defineAbilityFor(actor(null, { platformAdmin: true, shopId: null })), { role: 'platform_admin' })).toBe('/admin/shops');
+    expect(homePathFor(defineAbilityFor(actor('customer')), { role: 'customer' })).toBe('/jobs');
   });
 });

@@ -2,30 +2,49 @@ import type { AppAbility } from '@revloop/domain/auth';
 import { paths } from '../../../config/paths';
 import type { Me } from '../api/get-me';
 
+type Viewer = Pick<Me, 'role'>;
+
+/**
+ * Who may open each signed-in screen: the ability decides, and where several roles may read the same rows,
+ * the role picks whose view the screen is (the owner's dealer list, the dealer's customers, the customer's vehicles).
+ */
+export const screenAccess = {
+  shops: (ability: AppAbility) => ability.can('manage', 'Platform'),
+  jobs: (ability: AppAbility) => ability.can('read', 'Job'),
+  vehicles: (ability: AppAbility, viewer: Viewer) => viewer.role === 'customer' && ability.can('read', 'Vehicle'),
+  customers: (ability: AppAbility, viewer: Viewer) => viewer.role === 'dealer' && ability.can('read', 'Customer'),
+  team: (ability: AppAbility) => ability.can('read', 'Member'),
+  dealers: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Dealer'),
+  shopSettings: (ability: AppAbility) => ability.can('read', 'ShopSettings'),
+} satisfies Record<string, (ability: AppAbility, viewer: Viewer) => boolean>;
+
+export type Screen = keyof typeof screenAccess;
+
+export const canOpen = (screen: Screen, ability: AppAbility, viewer: Viewer): boolean => screenAccess[screen](ability, viewer);
+
 export interface NavItem {
   label: string;
   to: string;
 }
 
-/**
- * The main navigation for a user: each link shows only when the ability allows its page.
- * Dealers, Customers and Vehicles are one role's own view of rows others may also read, so they also check the role.
- */
-export function navItemsFor(ability: AppAbility, me: Pick<Me, 'role'>): NavItem[] {
-  const items: NavItem[] = [];
-  if (ability.can('manage', 'Platform')) items.push({ label: 'Shops', to: paths.admin.shops.getHref() });
-  if (ability.can('read', 'Job')) items.push({ label: me.role === 'customer' ? 'My jobs' : 'Jobs', to: paths.jobs.getHref() });
-  if (me.role === 'customer' && ability.can('read', 'Vehicle')) items.push({ label: 'Vehicles', to: paths.vehicles.getHref() });
-  if (me.role === 'dealer' && ability.can('read', 'Customer')) items.push({ label: 'Customers', to: paths.customers.getHref() });
-  if (ability.can('read', 'Member')) items.push({ label: 'Team', to: paths.team.getHref() });
-  if (me.role === 'owner' && ability.can('read', 'Dealer')) items.push({ label: 'Dealers', to: paths.dealers.list.getHref() });
-  if (ability.can('read', 'ShopSettings')) items.push({ label: 'Settings', to: paths.settings.shop.getHref() });
-  return items;
+const NAV: Array<{ screen: Screen; label: (viewer: Viewer) => string; to: string }> = [
+  { screen: 'shops', label: () => 'Shops', to: paths.admin.shops.getHref() },
+  { screen: 'jobs', label: (viewer) => (viewer.role === 'customer' ? 'My jobs' : 'Jobs'), to: paths.jobs.getHref() },
+  { screen: 'vehicles', label: () => 'Vehicles', to: paths.vehicles.getHref() },
+  { screen: 'customers', label: () => 'Customers', to: paths.customers.getHref() },
+  { screen: 'team', label: () => 'Team', to: paths.team.getHref() },
+  { screen: 'dealers', label: () => 'Dealers', to: paths.dealers.list.getHref() },
+  { screen: 'shopSettings', label: () => 'Settings', to: paths.settings.shop.getHref() },
+];
+
+/** The main navigation for a user: one link per screen they may open. */
+export function navItemsFor(ability: AppAbility, viewer: Viewer): NavItem[] {
+  return NAV.filter((item) => canOpen(item.screen, ability, viewer)).map((item) => ({ label: item.label(viewer), to: item.to }));
 }
 
 /** Where `/` sends a signed-in user. */
-export function homePathFor(ability: AppAbility): string {
-  if (ability.can('manage', 'Platform')) return paths.admin.shops.getHref();
-  if (ability.can('read', 'Job')) return paths.jobs.getHref();
+export function homePathFor(ability: AppAbility, viewer: Viewer): string {
+  if (canOpen('shops', ability, viewer)) return paths.admin.shops.getHref();
+  if (canOpen('jobs', ability, viewer)) return paths.jobs.getHref();
   return paths.settings.profile.getHref();
 }

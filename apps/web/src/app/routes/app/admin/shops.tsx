@@ -10,7 +10,7 @@ import { useShops } from '../../../../features/shops/api/get-shops';
 import { CreateShopForm } from '../../../../features/shops/components/create-shop-form';
 import { ShopsTable } from '../../../../features/shops/components/shops-table';
 import { errorMessage } from '../../../../lib/form-errors';
-import { RequireAbility } from '../require-ability';
+import { RequireScreen } from '../require-screen';
 
 function ShopsScreen() {
   const ability = useAbility<AppAbility>();
@@ -63,8 +63,8 @@ function ShopsScreen() {
 
 export function AdminShopsRoute() {
   return (
-    <RequireAbility action="manage" subject="Platform">
+    <RequireScreen screen="shops">
       <ShopsScreen />
-    </RequireAbility>
+    </RequireScreen>
   );
 }

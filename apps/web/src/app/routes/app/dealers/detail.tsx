@@ -15,7 +15,7 @@ import { PendingInvitations } from '../../../../features/invitations/components/
 import { isApiError } from '../../../../lib/api-client';
 import { formatDate } from '../../../../lib/format';
 import { errorMessage } from '../../../../lib/form-errors';
-import { RequireAbility } from '../require-ability';
+import { RequireScreen } from '../require-screen';
 
 function DealerScreen({ dealerId }: { dealerId: string }) {
   const ability = useAbility<AppAbility>();
@@ -78,8 +78,8 @@ function DealerScreen({ dealerId }: { dealerId: string }) {
 export function DealerRoute() {
   const { dealerId = '' } = useParams();
   return (
-    <RequireAbility action="read" subject="Dealer">
+    <RequireScreen screen="dealers">
       <DealerScreen dealerId={dealerId} />
-    </RequireAbility>
+    </RequireScreen>
   );
 }

@@ -12,7 +12,7 @@ import { useDealers } from '../../../../features/dealers/api/get-dealers';
 import { CreateDealerForm } from '../../../../features/dealers/components/create-dealer-form';
 import { DealersTable } from '../../../../features/dealers/components/dealers-table';
 import { errorMessage } from '../../../../lib/form-errors';
-import { RequireAbility } from '../require-ability';
+import { RequireScreen } from '../require-screen';
 
 function DealersScreen() {
   const ability = useAbility<AppAbility>();
@@ -49,8 +49,8 @@ function DealersScreen() {
 
 export function DealersRoute() {
   return (
-    <RequireAbility action="read" subject="Dealer">
+    <RequireScreen screen="dealers">
       <DealersScreen />
-    </RequireAbility>
+    </RequireScreen>
   );
 }

@@ -4,13 +4,15 @@ import type { AppAbility } from '@revloop/domain/auth';
 import { PageHeader } from '../../../../components/layout/page-header';
 import { paths } from '../../../../config/paths';
 import { cn } from '../../../../lib/cn';
+import { useSignedInMe } from '../../../../features/auth/api/get-me';
+import { canOpen } from '../../../../features/auth/components/nav-items';
 
 const tabClasses = ({ isActive }: { isActive: boolean }) =>
   cn('-mb-px border-b-2 px-3 py-2 text-sm font-medium', isActive ? 'border-accent-600 text-accent-800' : 'border-transparent text-ink-600 hover:text-ink-900');
 
 export function SettingsLayout() {
   const ability = useAbility<AppAbility>();
-  const showShop = ability.can('read', 'ShopSettings');
+  const showShop = canOpen('shopSettings', ability, useSignedInMe());
   return (
     <>
       <PageHeader title="Settings" />

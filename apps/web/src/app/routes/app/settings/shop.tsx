@@ -1,7 +1,7 @@
 import { Badge } from '../../../../components/ui/badge';
 import { Card } from '../../../../components/ui/card';
 import { useSignedInMe } from '../../../../features/auth/api/get-me';
-import { RequireAbility } from '../require-ability';
+import { RequireScreen } from '../require-screen';
 
 function ShopSettings() {
   const me = useSignedInMe();
@@ -23,8 +23,8 @@ function ShopSettings() {
 
 export function ShopSettingsRoute() {
   return (
-    <RequireAbility action="read" subject="ShopSettings">
+    <RequireScreen screen="shopSettings">
       <ShopSettings />
-    </RequireAbility>
+    </RequireScreen>
   );
 }

@@ -1,0 +1,92 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { AvailableTransition, JobState } from '@revloop/domain/jobs';
+import type { LogRequest } from '@revloop/domain/datalog';
+import { api } from '../../../lib/api-client';
+
+/** Special requests as the intake stored them; every part is optional. */
+export interface SpecialRequests {
+  shiftPoints?: { rpm?: number; notes: string };
+  revLimit?: { rpm?: number; notes: string };
+  speedLimiter?: { kmh?: number; notes: string };
+  tyreOrGearChange?: { tyreSize?: string; finalDrive?: number; notes: string };
+  launch?: { rpm?: number; notes: string };
+  idle?: { rpm?: number; notes: string };
+}
+
+/** A job as the API shows it to the signed-in user (`jobRowToJob`). */
+export interface Job {
+  id: string;
+  number: number;
+  state: JobState;
+  stateLabel: string;
+  heldFrom: JobState | null;
+  round: number;
+  vehicle: { id: string; description: string; vin: string; modelYear: number };
+  customer: { id: string; name: string; email: string };
+  dealer: { id: string; name: string } | null;
+  package: { id: string; name: string };
+  tuner: { id: string; name: string } | null;
+  goals: string;
+  specialRequests: SpecialRequests;
+  logRequest: LogRequest;
+  facts: { hasStockRead: boolean; hasRevisionForRound: boolean; hasLogForRound: boolean };
+  stateChangedAt: string;
+  hoursInState: number;
+  stale: boolean;
+  nextStep: string;
+  transitions: AvailableTransition[];
+  createdAt: string;
+  updatedAt: string;
+}
+
+export const JOB_SORT_KEYS = ['number', 'created', 'updated', 'state_changed', 'state', 'customer', 'vehicle', 'round'] as const;
+export type JobSortKey = (typeof JOB_SORT_KEYS)[number];
+
+/** The list filters the server understands; absent means "any". */
+export interface JobListParams {
+  state?: JobState[];
+  open?: boolean;
+  tuner?: string;
+  dealer?: string;
+  package?: string;
+  customer?: string;
+  q?: string;
+  mine?: boolean;
+  sort?: JobSortKey;
+  dir?: 'asc' | 'desc';
+  page?: number;
+  pageSize?: number;
+}
+
+export interface JobListResponse {
+  data: Job[];
+  meta: { total: number; page: number; pageSize: number; pageCount: number };
+}
+
+/** The query string for the list and the CSV export: only the filters that are set, in a stable order. */
+export function jobListSearch(params: JobListParams): string {
+  const search = new URLSearchParams();
+  if (params.state?.length) search.set('state', params.state.join(','));
+  if (params.open) search.set('open', 'true');
+  if (params.mine) search.set('mine', 'true');
+  else if (params.tuner) search.set('tuner', params.tuner);
+  if (params.dealer) search.set('dealer', params.dealer);
+  if (params.package) search.set('package', params.package);
+  if (params.customer) search.set('customer', params.customer);
+  if (params.q?.trim()) search.set('q', params.q.trim());
+  if (params.sort) search.set('sort', params.sort);
+  if (params.dir) search.set('dir', params.dir);
+  if (params.page && params.page > 1) search.set('page', String(params.page));
+  if (params.pageSize) search.set('pageSize', String(params.pageSize));
+  return search.toString();
+}
+
+export const getJobs = (params: JobListParams) => api.get<JobListResponse>(`/api/jobs?${jobListSearch(params)}`);
+
+/** Every job query (lists, details, threads) sits under this key, so one invalidation refreshes them all. */
+export const jobsRootKey = ['jobs'] as const;
+
+export const getJobsQueryOptions = (params: JobListParams = {}) =>
+  queryOptions({ queryKey: [...jobsRootKey, 'list', params], queryFn: () => getJobs(params), placeholderData: keepPreviousData });
+
+export const useJobs = (params: JobListParams, options: { enabled?: boolean } = {}) => useQuery({ ...getJobsQueryOptions(params), ...options });

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { JobState } from '@revloop/domain/jobs';
+import { api, type ItemResponse } from '../../../lib/api-client';
+import { getNotificationsQueryOptions } from '../../notifications/api/get-notifications';
+import { jobsRootKey, type Job } from './get-jobs';
+
+export const moveJob = ({ jobId, to }: { jobId: string; to: JobState }) =>
+  api.post<ItemResponse<Job>>(`/api/jobs/${encodeURIComponent(jobId)}/transitions`, { to });
+
+/** Moves a job by one of its allowed transitions; boards, lists and the job page refresh. */
+export function useMoveJob() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: moveJob,
+    onSettled: async () => {
+      await queryClient.invalidateQueries({ queryKey: jobsRootKey });
+      await queryClient.invalidateQueries({ queryKey: getNotificationsQueryOptions().queryKey });
+    },
+  });
+}

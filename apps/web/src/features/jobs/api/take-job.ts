@@ -1,0 +1,11 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api, type ItemResponse } from '../../../lib/api-client';
+import { jobsRootKey, type Job } from './get-jobs';
+
+export const takeJob = (jobId: string) => api.post<ItemResponse<Job>>(`/api/jobs/${encodeURIComponent(jobId)}/take`);
+
+/** A tuner takes an unassigned job. */
+export function useTakeJob() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: takeJob, onSettled: () => queryClient.invalidateQueries({ queryKey: jobsRootKey }) });
+}

@@ -1,0 +1,16 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ShopSettings } from '@revloop/domain/shops';
+import { api, type ItemResponse } from '../../../lib/api-client';
+import { getShopQueryOptions, type Shop } from './get-shop';
+
+export interface ShopPatch {
+  name?: string;
+  settings?: Partial<ShopSettings>;
+}
+
+export const updateShop = (patch: ShopPatch) => api.patch<ItemResponse<Shop>>('/api/shop', patch);
+
+export function useUpdateShop() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: updateShop, onSuccess: (response) => queryClient.setQueryData(getShopQueryOptions().queryKey, response) });
+}
