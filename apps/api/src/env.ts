@@ -23,11 +23,16 @@ const envSchema = z.object({
   WEB_DIST_DIR: z.string().optional(),
   /** Express 'trust proxy' setting, for when a reverse proxy sets X-Forwarded-For (sign-in throttling keys on the client address). */
   TRUST_PROXY: z.string().optional(),
+  /** HMAC key for e-mailed file download links; required in production, a fixed development key otherwise. */
+  FILE_LINK_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
 });
 
-export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP'> & {
+const DEV_FILE_LINK_SECRET = 'revloop-development-file-link-secret-not-for-production';
+
+export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET'> & {
   APP_ORIGIN: string;
   LOCAL_SMTP: boolean;
+  FILE_LINK_SECRET: string;
 };
 
 /** The only reader of process.env: fails fast with every problem listed. */
@@ -38,11 +43,13 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Invalid environment: ${problems}`);
   }
   const env = parsed.data;
+  if (env.NODE_ENV === 'production' && !env.FILE_LINK_SECRET) throw new Error('Invalid environment: FILE_LINK_SECRET is required in production');
   return {
     ...env,
     DATA_DIR: path.resolve(env.DATA_DIR),
     WEB_DIST_DIR: env.WEB_DIST_DIR ? path.resolve(env.WEB_DIST_DIR) : undefined,
     APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
+    FILE_LINK_SECRET: env.FILE_LINK_SECRET ?? DEV_FILE_LINK_SECRET,
   };
 }
