@@ -1,1 +1,6 @@
 export * from './money';
+export * from './plans';
+export * from './subscription.rules';
+export * from './mrr';
+export * from './ledger.rules';
+export * from './billing.schemas';
