@@ -1,4 +1,13 @@
 import type { AuditEventTable } from './audit/audit-event.table';
+import type {
+  LedgerEntryTable,
+  PaymentRefundTable,
+  PaymentTable,
+  ShopSubscriptionTable,
+  StripeEventTable,
+  SubscriptionChangeTable,
+  SubscriptionInvoiceTable,
+} from './billing/billing.table';
 import type { CalibrationFileTable } from './files/calibration-file.table';
 import type { DatalogMappingTable, DatalogTable } from './datalogs/datalog.table';
 import type { DealerTable } from './dealers/dealer.table';
@@ -28,4 +37,11 @@ export interface Database {
   datalogs: DatalogTable;
   datalog_mappings: DatalogMappingTable;
   calibration_files: CalibrationFileTable;
+  shop_subscriptions: ShopSubscriptionTable;
+  subscription_changes: SubscriptionChangeTable;
+  subscription_invoices: SubscriptionInvoiceTable;
+  stripe_events: StripeEventTable;
+  payments: PaymentTable;
+  payment_refunds: PaymentRefundTable;
+  ledger_entries: LedgerEntryTable;
 }

@@ -26,3 +26,8 @@ export * from './files/calibration-file.table';
 export * from './files/calibration-file.repository';
 export * from './datalogs/datalog.table';
 export * from './datalogs/datalog.repository';
+export * from './billing/billing.table';
+export * from './billing/subscription.repository';
+export * from './billing/stripe-event.repository';
+export * from './billing/payment.repository';
+export * from './billing/ledger.repository';

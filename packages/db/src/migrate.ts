@@ -4,6 +4,7 @@ import * as foundation from './migrations/2026-12-02-001-foundation';
 import * as jobs from './migrations/2026-12-02-002-jobs';
 import * as files from './migrations/2026-12-02-003-files';
 import * as datalogs from './migrations/2026-12-02-004-datalogs';
+import * as billing from './migrations/2026-12-02-005-billing';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -11,6 +12,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-002-jobs': jobs,
   '2026-12-02-003-files': files,
   '2026-12-02-004-datalogs': datalogs,
+  '2026-12-02-005-billing': billing,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
