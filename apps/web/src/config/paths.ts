@@ -16,7 +16,10 @@ export const paths = {
     shops: { path: '/admin/shops', getHref: () => '/admin/shops' },
   },
   jobs: { path: '/jobs', getHref: () => '/jobs' },
+  newJob: { path: '/jobs/new', getHref: (customerUserId?: string) => (customerUserId ? `/jobs/new?customer=${encodeURIComponent(customerUserId)}` : '/jobs/new') },
+  job: { path: '/jobs/:jobId', getHref: (jobId: string) => `/jobs/${encodeURIComponent(jobId)}` },
   vehicles: { path: '/vehicles', getHref: () => '/vehicles' },
+  vehicle: { path: '/vehicles/:vehicleId', getHref: (vehicleId: string) => `/vehicles/${encodeURIComponent(vehicleId)}` },
   customers: { path: '/customers', getHref: () => '/customers' },
   team: { path: '/team', getHref: () => '/team' },
   dealers: {
@@ -27,6 +30,12 @@ export const paths = {
     root: { path: '/settings', getHref: () => '/settings' },
     profile: { path: '/settings/profile', getHref: () => '/settings/profile' },
     shop: { path: '/settings/shop', getHref: () => '/settings/shop' },
+    packages: { path: '/settings/packages', getHref: () => '/settings/packages' },
+    notifications: { path: '/settings/notifications', getHref: () => '/settings/notifications' },
+  },
+  datalogs: {
+    report: { path: '/datalogs/:datalogId', getHref: (datalogId: string) => `/datalogs/${encodeURIComponent(datalogId)}` },
+    jobLogs: { path: '/jobs/:jobId/logs', getHref: (jobId: string) => `/jobs/${encodeURIComponent(jobId)}/logs` },
   },
   dev: {
     mailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
