@@ -14,6 +14,7 @@ import { createAuditRouter } from './features/audit/audit.router';
 import { createAuthRouter } from './features/auth/auth.router';
 import type { SignInThrottle } from './features/auth/sign-in-throttle';
 import { sessionPolicyOf, secureCookiesOf } from './features/auth/start-session';
+import { createDatalogsRouter } from './features/datalogs/datalogs.router';
 import { createDealersRouter } from './features/dealers/dealers.router';
 import { createDevRouter } from './features/dev/dev.router';
 import { createInvitationsRouter } from './features/invitations/invitations.router';
@@ -102,6 +103,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/packages', createPackagesRouter(deps));
   api.use('/customers', createCustomersRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
+  api.use(createDatalogsRouter(deps));
   if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
   api.use((_req, _res, next) => next(new DomainError('not_found', 'No such API route.')));
   app.use('/api', api);

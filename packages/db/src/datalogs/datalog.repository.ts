@@ -1,42 +1,30 @@
 import type { Db } from '../client';
 import type { DatalogMappingRow, DatalogRow, InsertableDatalogRow, UpdateableDatalogRow } from './datalog.table';
 
-/** Listing columns: everything but the report JSON, which can be large. */
-const SUMMARY_COLUMNS = [
-  'id',
-  'shop_id',
-  'job_id',
-  'round',
-  'original_name',
-  'sha256',
-  'size_bytes',
-  'header_signature',
-  'mapping',
-  'fuel',
-  'status',
-  'error',
-  'uploaded_by',
-  'created_at',
-] as const;
-export type DatalogSummaryRow = Omit<DatalogRow, 'report'> & { uploaded_by_name: string | null };
+/** A log with the name of the member who uploaded it. */
+export type DatalogListRow = DatalogRow & { uploaded_by_name: string | null };
+
+function withUploader(db: Db, shopId: string) {
+  return db
+    .selectFrom('datalogs')
+    .leftJoin('users', 'users.id', 'datalogs.uploaded_by')
+    .selectAll('datalogs')
+    .select('users.name as uploaded_by_name')
+    .where('datalogs.shop_id', '=', shopId);
+}
 
 export async function insertDatalog(db: Db, row: InsertableDatalogRow): Promise<DatalogRow> {
   return db.insertInto('datalogs').values(row).returningAll().executeTakeFirstOrThrow();
 }
 
 /** One log of this shop; another shop's id reads as undefined. */
-export async function findDatalog(db: Db, shopId: string, id: string): Promise<DatalogRow | undefined> {
-  return db.selectFrom('datalogs').selectAll().where('shop_id', '=', shopId).where('id', '=', id).executeTakeFirst();
+export async function findDatalog(db: Db, shopId: string, id: string): Promise<DatalogListRow | undefined> {
+  return withUploader(db, shopId).where('datalogs.id', '=', id).executeTakeFirst();
 }
 
-/** A job's logs, newest first, without their reports. */
-export async function listJobDatalogs(db: Db, shopId: string, jobId: string): Promise<DatalogSummaryRow[]> {
-  return db
-    .selectFrom('datalogs')
-    .leftJoin('users', 'users.id', 'datalogs.uploaded_by')
-    .select(SUMMARY_COLUMNS.map((c) => `datalogs.${c}` as const))
-    .select('users.name as uploaded_by_name')
-    .where('datalogs.shop_id', '=', shopId)
+/** A job's logs, newest first. */
+export async function listJobDatalogs(db: Db, shopId: string, jobId: string): Promise<DatalogListRow[]> {
+  return withUploader(db, shopId)
     .where('datalogs.job_id', '=', jobId)
     .orderBy('datalogs.created_at', 'desc')
     .orderBy('datalogs.id')

@@ -1,0 +1,258 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CANONICAL_CHANNELS } from '@revloop/domain/datalog';
+import { generateLog } from '@revloop/domain/datalog/testing';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
+
+type Agent = Awaited<ReturnType<typeof signIn>>;
+
+let t: TestApp;
+let scratch: string;
+beforeAll(async () => {
+  t = await createTestApp();
+  scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'datalogs-api-'));
+});
+afterAll(async () => {
+  await t.close();
+  fs.rmSync(scratch, { recursive: true, force: true });
+});
+
+/** A short generated drive: warm-up past the requested five minutes, one pull, a knock burst. */
+const drive = generateLog({
+  rateHz: 10,
+  warmupS: 320,
+  cruiseS: 90,
+  pulls: [{ gears: [3] }],
+  knock: [{ pull: 0, atFraction: 0.5, peakDeg: 4 }],
+  gearChannel: true,
+}).text;
+
+const customerJob = (state: string) =>
+  t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.state === state && j.customerUserId === t.ids.kestrel.customerIds[0] && j.dealerId === null)!;
+
+async function upload(agent: Agent, jobId: string, text: string | Buffer, name = 'drive.csv', map?: Record<string, string>) {
+  const req = agent.post(`/api/jobs/${jobId}/datalogs`).attach('file', Buffer.isBuffer(text) ? text : Buffer.from(text), name);
+  return map ? req.field('map', JSON.stringify(map)) : req;
+}
+
+/** Polls the log until the worker is done with it. */
+async function settled(agent: Agent, id: string) {
+  for (let i = 0; i < 200; i++) {
+    const res = await agent.get(`/api/datalogs/${id}`);
+    expect(res.status).toBe(200);
+    expect(res.body.data.progress).toBeGreaterThanOrEqual(0);
+    expect(res.body.data.progress).toBeLessThanOrEqual(1);
+    if (res.body.data.status !== 'processing') return res.body.data;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error('analysis did not finish');
+}
+
+describe('datalog upload and report', () => {
+  it('a customer uploads a log; it is analysed off the request, the job moves to log review and the tuner hears of it', async () => {
+    const job = customerJob('with_customer');
+    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const res = await upload(customer, job.id, drive);
+    expect(res.status).toBe(202);
+    expect(res.body.data).toMatchObject({ status: 'processing', round: job.round, originalName: 'drive.csv', uploadedBy: { name: 'Jordan Hale' } });
+
+    const log = await settled(customer, res.body.data.id);
+    expect(log.status).toBe('ready');
+    expect(log.progress).toBe(1);
+    const report = log.report;
+    // DESIGN "Datalog report contract": every named field, with its shape.
+    expect(Object.keys(report)).toEqual(expect.arrayContaining(['rows', 'durationS', 'sampleRateHz', 'channels', 'units', 'checks', 'fuelTrim', 'wot', 'knock', 'sensors']));
+    expect(report.rows).toBe(drive.trimEnd().split('\n').length - 1);
+    // [CALC] rows at 10 Hz: (rows − 1)/duration.
+    expect(report.sampleRateHz).toBeCloseTo(10, 1);
+    expect(report.checks.map((c: { id: string }) => c.id)).toEqual(['required_channels', 'engine_warm', 'full_throttle', 'wot_gears', 'sensor_sanity']);
+    for (const check of report.checks) {
+      expect(['pass', 'warn', 'fail']).toContain(check.status);
+      expect(check.message.length).toBeGreaterThan(10);
+    }
+    expect(report.fuelTrim).toMatchObject({ rpmAxis: expect.any(Array), mapAxis: expect.any(Array), cells: expect.any(Array) });
+    expect(report.wot.pulls).toHaveLength(1);
+    expect(report.wot.pulls[0]).toMatchObject({ gears: [3], lambdaError: expect.any(Array) });
+    expect(report.knock.events).toHaveLength(1);
+    expect(report.knock.maxRetardDeg).toBeGreaterThan(0);
+    expect(Object.keys(report.channels).every((c) => (CANONICAL_CHANNELS as readonly string[]).includes(c))).toBe(true);
+
+    const after = await customer.get(`/api/jobs/${job.id}`);
+    expect(after.body.data.state).toBe('log_review');
+    expect(after.body.data.facts.hasLogForRound).toBe(true);
+    expect(after.body.data.timeline.map((e: { text: string }) => e.text)).toEqual(
+      expect.arrayContaining([`Log drive.csv uploaded (on revision ${job.round})`, expect.stringMatching(/^Log drive\.csv checked: /)]),
+    );
+    const tunerNotices = await t.db.selectFrom('notifications').select(['user_id', 'kind']).where('job_id', '=', job.id).where('kind', '=', 'log_received').execute();
+    expect(tunerNotices.length).toBeGreaterThan(0);
+
+    const list = await customer.get(`/api/jobs/${job.id}/datalogs`);
+    expect(list.body.data[0]).toMatchObject({ id: log.id, status: 'ready', checks: report.checks });
+  });
+
+  it('serves chart series downsampled to the requested points, knock markers and CSV exports', async () => {
+    const job = customerJob('log_review');
+    const tuner = await signIn(t.app, 'owner@kestrel.test');
+    const { id } = (await upload(tuner, job.id, drive)).body.data;
+    const log = await settled(tuner, id);
+    const series = await tuner.get(`/api/datalogs/${id}/series?channels=rpm,map,knock_retard&points=300`);
+    expect(series.status).toBe(200);
+    expect(series.body.data.channels.map((c: { channel: string }) => c.channel)).toEqual(['rpm', 'map', 'knock_retard']);
+    for (const c of series.body.data.channels) {
+      expect(c.t.length).toBeLessThanOrEqual(300);
+      expect(c.t.length).toBe(c.v.length);
+      // LTTB keeps the first and last sample of the range.
+      expect(c.t[0]).toBe(0);
+      expect(c.t.at(-1)).toBeCloseTo(log.report.durationS, 1);
+    }
+    // LTTB keeps the burst visible but need not keep its exact peak: the chart's knock markers come from the report.
+    expect(Math.max(...series.body.data.channels[2].v)).toBeGreaterThan(0);
+    expect(series.body.data.knock).toHaveLength(1);
+    const window = await tuner.get(`/api/datalogs/${id}/series?channels=rpm&from=100&to=110&points=2000`);
+    // [CALC] 10 s at 10 Hz is 101 samples, fewer than asked for, so all are returned.
+    expect(window.body.data.channels[0].t).toHaveLength(101);
+    expect((await tuner.get(`/api/datalogs/${id}/series?channels=bogus`)).status).toBe(400);
+
+    const trims = await tuner.get(`/api/datalogs/${id}/export/trims.csv`);
+    expect(trims.status).toBe(200);
+    expect(trims.headers['content-type']).toMatch(/text\/csv/);
+    expect(trims.text.split('\n')[0]).toMatch(/^"?rpm \\ MAP kPa/);
+    const wot = await tuner.get(`/api/datalogs/${id}/export/wot.csv`);
+    expect(wot.text.split('\n')[0]).toContain('fuel_correction_pct');
+  });
+
+  it('compares two logs of one job and refuses logs of different jobs', async () => {
+    const job = customerJob('log_review');
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const lean = generateLog({ rateHz: 10, warmupS: 320, cruiseS: 90, pulls: [{ gears: [3] }], leanWot: { aboveRpm: 0, errorPct: 6 }, gearChannel: true }).text;
+    const a = await settled(owner, (await upload(owner, job.id, drive, 'before.csv')).body.data.id);
+    const b = await settled(owner, (await upload(owner, job.id, lean, 'after.csv')).body.data.id);
+    const cmp = await owner.get(`/api/datalogs/${a.id}/compare/${b.id}`);
+    expect(cmp.status).toBe(200);
+    expect(cmp.body.data.base.id).toBe(a.id);
+    const bins = cmp.body.data.lambdaError.filter((bin: { deltaPct: number | null }) => bin.deltaPct !== null);
+    expect(bins.length).toBeGreaterThan(0);
+    // [CALC] 6 % leaner measured λ at the same commanded λ: error grows by about 6 points.
+    for (const bin of bins) expect(bin.deltaPct).toBeGreaterThan(4);
+    const otherJob = customerJob('with_customer');
+    const c = (await upload(owner, otherJob.id, drive, 'elsewhere.csv')).body.data.id;
+    expect((await owner.get(`/api/datalogs/${a.id}/compare/${c}`)).status).toBe(400);
+  });
+});
+
+describe('datalog access', () => {
+  it('lets whoever reads the job read its logs; others in the shop and other shops get 404', async () => {
+    const job = customerJob('log_review');
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const { id } = (await upload(owner, job.id, drive)).body.data;
+    await settled(owner, id);
+    expect((await (await signIn(t.app, 'customer@kestrel.test')).get(`/api/datalogs/${id}`)).status).toBe(200);
+    for (const email of ['riley.moss@kestrel.test', 'dealer@kestrel.test', 'owner@harbor.test', 'tuner@harbor.test', 'customer@harbor.test']) {
+      const agent = await signIn(t.app, email);
+      expect((await agent.get(`/api/datalogs/${id}`)).status, email).toBe(404);
+      expect((await agent.get(`/api/datalogs/${id}/series?channels=rpm`)).status, email).toBe(404);
+      expect((await agent.get(`/api/datalogs/${id}/export/trims.csv`)).status, email).toBe(404);
+      expect((await agent.get(`/api/jobs/${job.id}/datalogs`)).status, email).toBe(404);
+      expect((await upload(agent, job.id, drive)).status, email).toBe(404);
+    }
+    expect((await (await signIn(t.app, 'owner@harbor.test')).put(`/api/datalogs/${id}/mapping`).send({ channels: {} })).status).toBe(404);
+  });
+
+  it('lets a dealer upload for the dealer’s own customer, and refuses logs on a finished job', async () => {
+    const dealerJob = t.ids.jobs.find((j) => j.dealerId === t.ids.kestrel.dealerId && ['with_customer', 'log_review', 'on_bench'].includes(j.state))!;
+    const dealer = await signIn(t.app, 'dealer@kestrel.test');
+    expect((await upload(dealer, dealerJob.id, drive)).status).toBe(202);
+    const done = customerJob('dialed_in') ?? t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.state === 'dialed_in')!;
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const refused = await upload(owner, done.id, drive);
+    expect(refused.status).toBe(409);
+  });
+});
+
+describe('bad input gets a clear error and stores nothing', () => {
+  const tempFiles = () => fs.readdirSync(t.blobs.tempDir);
+  const rowCount = async () => Number((await t.db.selectFrom('datalogs').select((eb) => eb.fn.countAll().as('n')).executeTakeFirstOrThrow()).n);
+
+  it.each([
+    ['binary', Buffer.from([0x7f, 0x45, 0x4c, 0x46, 0, 1, 2, 0, 0, 0, 255, 254]), 'binary data'],
+    ['empty', Buffer.alloc(0), 'The file is empty.'],
+    ['header only', Buffer.from('Time (s),Engine RPM,MAP (kPa)\n'), 'header row but no data rows'],
+  ])('%s file → 422', async (_name, bytes, message) => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const before = await rowCount();
+    const res = await upload(owner, customerJob('log_review').id, bytes, 'x.csv');
+    expect(res.status).toBe(422);
+    expect(res.body.error.code).toBe('invalid_datalog');
+    expect(res.body.error.message).toContain(message);
+    expect(await rowCount()).toBe(before);
+    expect(tempFiles()).toEqual([]);
+  });
+
+  it('no file → 400; a map naming a missing column → 400', async () => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const job = customerJob('log_review');
+    const none = await owner.post(`/api/jobs/${job.id}/datalogs`).field('note', 'x');
+    expect(none.status).toBe(400);
+    expect(none.body.error.message).toMatch(/Choose a CSV log file/);
+    const badMap = await upload(owner, job.id, drive, 'd.csv', { rpm: 'No such column' });
+    expect(badMap.status).toBe(400);
+    expect(badMap.body.error.message).toMatch(/no column "No such column"/);
+    expect(tempFiles()).toEqual([]);
+  });
+
+  it('a 200 MB file is refused at the shop limit with 413 and leaves nothing behind', async () => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const big = path.join(scratch, 'big.csv');
+    const fd = fs.openSync(big, 'w');
+    const block = Buffer.alloc(1024 * 1024, '1000,2000,3000\n');
+    for (let i = 0; i < 200; i++) fs.writeSync(fd, block);
+    fs.closeSync(fd);
+    const before = await rowCount();
+    const res = await owner.post(`/api/jobs/${customerJob('log_review').id}/datalogs`).attach('file', big);
+    expect(res.status).toBe(413);
+    expect(res.body.error).toMatchObject({ code: 'payload_too_large', message: expect.stringContaining('16 MiB') });
+    expect(await rowCount()).toBe(before);
+    expect(tempFiles()).toEqual([]);
+  });
+});
+
+describe('header mapping', () => {
+  // "Motor speed" matches no rpm synonym: the tuner maps it by hand once.
+  const oddHeaders = drive.replace('Engine RPM (rpm)', 'Motor speed (rpm)');
+
+  it('is confirmed once, re-analyses the log, and is remembered for this shop only', async () => {
+    expect(oddHeaders).not.toBe(drive);
+    const tuner = await signIn(t.app, 'owner@kestrel.test');
+    const job = customerJob('log_review');
+    const first = await settled(tuner, (await upload(tuner, job.id, oddHeaders, 'odd.csv')).body.data.id);
+    expect(first.report.channels.rpm).toBeUndefined();
+    const mapping = await tuner.get(`/api/datalogs/${first.id}/mapping`);
+    expect(mapping.body.data).toMatchObject({ remembered: false });
+    expect(mapping.body.data.headers).toContain('Motor speed (rpm)');
+
+    const put = await tuner.put(`/api/datalogs/${first.id}/mapping`).send({ channels: { rpm: 'Motor speed (rpm)' } });
+    expect(put.status).toBe(200);
+    expect(put.body.data.status).toBe('processing');
+    const again = await settled(tuner, first.id);
+    expect(again.report.channels.rpm).toBe('Motor speed (rpm)');
+    expect((await tuner.get(`/api/datalogs/${first.id}/mapping`)).body.data.remembered).toBe(true);
+
+    const second = await settled(tuner, (await upload(tuner, job.id, oddHeaders, 'odd-2.csv')).body.data.id);
+    expect(second.report.channels.rpm).toBe('Motor speed (rpm)');
+
+    const harborJob = t.ids.jobs.find((j) => j.shopId === t.ids.harbor.shopId && j.state === 'log_review')!;
+    const harbor = await signIn(t.app, 'owner@harbor.test');
+    const elsewhere = await settled(harbor, (await upload(harbor, harborJob.id, oddHeaders, 'odd.csv')).body.data.id);
+    expect(elsewhere.report.channels.rpm).toBeUndefined();
+  });
+
+  it('refuses a mapping that names a column the log does not have', async () => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const log = await settled(owner, (await upload(owner, customerJob('log_review').id, drive)).body.data.id);
+    const res = await owner.put(`/api/datalogs/${log.id}/mapping`).send({ channels: { rpm: 'Nope' } });
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('validation');
+  });
+});
