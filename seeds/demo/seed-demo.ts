@@ -10,6 +10,7 @@ import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword } from '../../apps/api/src/features/auth/password';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
 import { seedJobs, type SeededJob } from './jobs-scenario';
+import { seedLogs } from './logs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
 export interface SeededShop {
@@ -35,7 +36,7 @@ export interface SeedOptions {
 }
 
 /** Loads the invented scenario into an empty, migrated database. Times are spread back from `now`. */
-export async function seedDemo(db: Db, now: Date = new Date(), _options: SeedOptions = {}): Promise<DemoIds> {
+export async function seedDemo(db: Db, now: Date = new Date(), options: SeedOptions = {}): Promise<DemoIds> {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const daysAgo = (d: number) => new Date(now.getTime() - d * 86_400_000).toISOString();
 
@@ -122,6 +123,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), _options: SeedOpt
     ...(await seedJobs(db, kestrel, { plan: 'kestrel', now, customerNames: names, seed: 7 })),
     ...(await seedJobs(db, harbor, { plan: 'harbor', now, customerNames: names, seed: 11 })),
   ];
+  if (options.blobs) await seedLogs(db, options.blobs, jobs, now);
   return { adminId, kestrel, harbor, jobs };
 }
 
