@@ -9,6 +9,11 @@ const restrict = (patterns) => ({
   'no-restricted-imports': ['error', { patterns }],
 });
 
+// A later block replaces an earlier block's rule, so every web block repeats the web-wide patterns.
+const WEB_WIDE = [
+  { group: ['@revloop/db', 'kysely', 'better-sqlite3', 'express', '@revloop/api', '../../api/*', 'node:*'], message: 'apps/web talks to the server only over /api.' },
+];
+
 export default tseslint.config(
   { ignores: ['**/node_modules/**', '**/dist/**', 'data/**', 'test-results/**', 'playwright-report/**', '.tmp/**'] },
   js.configs.recommended,
@@ -54,17 +59,20 @@ export default tseslint.config(
     rules: {
       ...reactHooks.configs.recommended.rules,
       'react-hooks/set-state-in-effect': 'off',
-      ...restrict([
-        { group: ['@revloop/db', 'kysely', 'better-sqlite3', 'express', '@revloop/api', '../../api/*', 'node:*'], message: 'apps/web talks to the server only over /api.' },
-      ]),
+      ...restrict(WEB_WIDE),
     },
   },
   {
     files: ['apps/web/src/components/**', 'apps/web/src/lib/**', 'apps/web/src/config/**'],
-    rules: restrict([{ group: ['@/features/*', '@/app/*', '../features/*', '../../features/*', '../app/*', '../../app/*'], message: 'shared web code does not import features or app.' }]),
+    rules: restrict([...WEB_WIDE, { group: ['@/features/*', '@/app/*', '../features/*', '../../features/*', '../app/*', '../../app/*'], message: 'shared web code does not import features or app.' }]),
   },
   {
     files: ['apps/web/src/features/**'],
-    rules: restrict([{ group: ['@/app/*', '../../app/*', '../../../app/*'], message: 'features do not import app routes.' }]),
+    rules: restrict([...WEB_WIDE, { group: ['@/app/*', '../../app/*', '../../../app/*'], message: 'features do not import app routes.' }]),
+  },
+  {
+    // Tests run in Node and may read fixtures from disk; they never ship.
+    files: ['apps/web/src/**/*.test.{ts,tsx}'],
+    rules: restrict([{ group: ['@revloop/db', '@revloop/api', 'express'], message: 'web tests do not reach into the server.' }]),
   },
 );
