@@ -46,6 +46,8 @@ export const router = createBrowserRouter([
               { path: paths.settings.shop.path, lazy: screen(() => import('./routes/app/settings/shop'), (m) => m.ShopSettingsRoute) },
             ],
           },
+          { path: paths.datalogs.report.path, lazy: screen(() => import('./routes/app/datalogs/report'), (m) => m.DatalogReportRoute) },
+          { path: paths.datalogs.jobLogs.path, lazy: screen(() => import('./routes/app/datalogs/job-logs'), (m) => m.JobLogsRoute) },
           { id: 'not-found', path: '*', lazy: screen(() => import('./routes/not-found'), (m) => m.NotFoundRoute) },
         ],
       },
