@@ -19,33 +19,35 @@ export interface ShopOverview extends ShopRow {
 export async function listShopsForPlatform(db: Db): Promise<ShopOverview[]> {
   return db
     .selectFrom('shops')
+    // The shop's first owner stands for it in the platform's list.
+    .leftJoin('memberships as owner_membership', (join) =>
+      join
+        .onRef('owner_membership.shop_id', '=', 'shops.id')
+        .on((eb) =>
+          eb(
+            'owner_membership.id',
+            '=',
+            eb
+              .selectFrom('memberships')
+              .select('memberships.id')
+              .whereRef('memberships.shop_id', '=', 'shops.id')
+              .where('memberships.role', '=', 'owner')
+              .orderBy('memberships.created_at')
+              .limit(1),
+          ),
+        ),
+    )
+    .leftJoin('users as owner', 'owner.id', 'owner_membership.user_id')
     .selectAll('shops')
-    .select((eb) => [
-      eb
-        .selectFrom('memberships')
-        .innerJoin('users', 'users.id', 'memberships.user_id')
-        .select('users.name')
-        .whereRef('memberships.shop_id', '=', 'shops.id')
-        .where('memberships.role', '=', 'owner')
-        .orderBy('memberships.created_at')
-        .limit(1)
-        .as('owner_name'),
-      eb
-        .selectFrom('memberships')
-        .innerJoin('users', 'users.id', 'memberships.user_id')
-        .select('users.email')
-        .whereRef('memberships.shop_id', '=', 'shops.id')
-        .where('memberships.role', '=', 'owner')
-        .orderBy('memberships.created_at')
-        .limit(1)
-        .as('owner_email'),
+    .select(['owner.name as owner_name', 'owner.email as owner_email'])
+    .select((eb) =>
       eb
         .selectFrom('memberships')
         .select((e) => e.fn.countAll<number>().as('n'))
         .whereRef('memberships.shop_id', '=', 'shops.id')
         .where('memberships.status', '=', 'active')
         .as('member_count'),
-    ])
+    )
     .orderBy('shops.created_at', 'desc')
     .execute() as Promise<ShopOverview[]>;
 }
