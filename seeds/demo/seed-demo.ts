@@ -9,6 +9,8 @@ import {
 import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword } from '../../apps/api/src/features/auth/password';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { seedBilling } from './billing-scenario';
+import { seedFiles } from './files-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
 import { seedLogs } from './logs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
@@ -123,7 +125,9 @@ export async function seedDemo(db: Db, now: Date = new Date(), options: SeedOpti
     ...(await seedJobs(db, kestrel, { plan: 'kestrel', now, customerNames: names, seed: 7 })),
     ...(await seedJobs(db, harbor, { plan: 'harbor', now, customerNames: names, seed: 11 })),
   ];
+  if (options.blobs) await seedFiles(db, options.blobs, [kestrel, harbor], jobs);
   if (options.blobs) await seedLogs(db, options.blobs, jobs, now);
+  await seedBilling(db, now, { kestrel, harbor }, jobs);
   return { adminId, kestrel, harbor, jobs };
 }
 
