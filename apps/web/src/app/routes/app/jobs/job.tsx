@@ -1,0 +1,59 @@
+import { useParams } from 'react-router-dom';
+import { useAbility } from '@casl/react';
+import { asSubject, type AppAbility } from '@revloop/domain/auth';
+import { PageHeader } from '../../../../components/layout/page-header';
+import { Banner } from '../../../../components/ui/banner';
+import { PageSpinner } from '../../../../components/ui/spinner';
+import { TextLink } from '../../../../components/ui/text-link';
+import { paths } from '../../../../config/paths';
+import { useSignedInMe } from '../../../../features/auth/api/get-me';
+import { JobPaymentPanel } from '../../../../features/billing/components/job-payment-panel';
+import { JobLogsPanel } from '../../../../features/datalogs/components/job-logs-panel';
+import { JobFilesPanel } from '../../../../features/files/components/job-files-panel';
+import { useJob } from '../../../../features/jobs/api/get-job';
+import { JobSummary } from '../../../../features/jobs/components/job-summary';
+import { JobTimeline } from '../../../../features/jobs/components/job-timeline';
+import { LogRequestCard } from '../../../../features/jobs/components/log-request-card';
+import { MessageThread } from '../../../../features/jobs/components/message-thread';
+import { GoalsCard } from '../../../../features/jobs/components/special-requests-card';
+import { errorMessage } from '../../../../lib/form-errors';
+
+export function JobRoute() {
+  const { jobId = '' } = useParams();
+  const me = useSignedInMe();
+  const ability = useAbility<AppAbility>();
+  const job = useJob(jobId);
+
+  if (job.isPending) return <PageSpinner label="Loading the job" />;
+  if (job.isError) {
+    return (
+      <Banner tone="bad" title="This job could not be opened">
+        {errorMessage(job.error)} <TextLink to={paths.jobs.getHref()}>Back to jobs</TextLink>
+      </Banner>
+    );
+  }
+  const data = job.data.data;
+  const subject = asSubject('Job', { shopId: me.shop?.id ?? '', assignedTunerId: data.tuner?.id ?? null, dealerId: data.dealer?.id ?? null, customerUserId: data.customer.id });
+  const canEditLogRequest = ability.can('update', subject);
+  const canPost = ability.can('create', asSubject('Message', subject));
+
+  return (
+    <>
+      <PageHeader title={`Job ${data.number}`} description={data.vehicle.description} actions={<TextLink to={paths.jobs.getHref()}>All jobs</TextLink>} />
+      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="flex min-w-0 flex-col gap-6">
+          <JobSummary job={data} canSeeVehicle={ability.can('read', 'Vehicle')} />
+          <JobFilesPanel jobId={data.id} job={data} />
+          <LogRequestCard jobId={data.id} request={data.logRequest} canEdit={canEditLogRequest} />
+          <JobLogsPanel jobId={data.id} job={data} />
+          <GoalsCard goals={data.goals} requests={data.specialRequests} units={me.user.unitSystem} />
+        </div>
+        <div className="flex min-w-0 flex-col gap-6">
+          <JobPaymentPanel jobId={data.id} job={data} />
+          <MessageThread jobId={data.id} canPost={canPost} />
+          <JobTimeline entries={data.timeline} />
+        </div>
+      </div>
+    </>
+  );
+}

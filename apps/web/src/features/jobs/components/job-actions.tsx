@@ -1,0 +1,135 @@
+import { useState } from 'react';
+import { useAbility } from '@casl/react';
+import { asSubject, type AppAbility } from '@revloop/domain/auth';
+import type { AvailableTransition } from '@revloop/domain/jobs';
+import { Button } from '../../../components/ui/button';
+import { ConfirmDialog, Dialog } from '../../../components/ui/dialog';
+import { Field } from '../../../components/ui/field';
+import { Select } from '../../../components/ui/select';
+import { useSignedInMe } from '../../auth/api/get-me';
+import { useMembers } from '../../members/api/get-members';
+import { errorMessage } from '../../../lib/form-errors';
+import { useAssignJob } from '../api/assign-job';
+import type { Job } from '../api/get-jobs';
+import { useMoveJob } from '../api/move-job';
+import { useTakeJob } from '../api/take-job';
+
+/** Moves that end or pause the work get a confirm step; the rest are one click. */
+const CONFIRMED: Partial<Record<AvailableTransition['to'], string>> = {
+  cancelled: 'The job stops here and cannot be reopened.',
+  dialed_in: 'The current revision becomes the final calibration.',
+  on_hold: 'The job waits until someone resumes it, e.g. when the payment or information arrives.',
+};
+
+const jobRef = (job: Job) => `job ${job.number} (${job.vehicle.description})`;
+
+function AssignDialog({ job, open, onClose }: { job: Job; open: boolean; onClose: () => void }) {
+  const members = useMembers();
+  const assign = useAssignJob();
+  const [tunerId, setTunerId] = useState(job.tuner?.id ?? '');
+  const tuners = (members.data?.data ?? []).filter((m) => m.role === 'tuner' && m.status === 'active');
+  return (
+    <Dialog
+      open={open}
+      title={`Assign ${jobRef(job)}`}
+      onClose={onClose}
+      footer={
+        <>
+          <Button variant="secondary" onClick={onClose} disabled={assign.isPending}>
+            Cancel
+          </Button>
+          <Button pending={assign.isPending} onClick={() => assign.mutate({ jobId: job.id, tunerId: tunerId || null }, { onSuccess: onClose })}>
+            Save
+          </Button>
+        </>
+      }
+    >
+      <Field id={`assign-${job.id}`} label="Tuner">
+        {(a11y) => (
+          <Select
+            {...a11y}
+            value={tunerId}
+            onChange={(event) => setTunerId(event.target.value)}
+            options={[{ value: '', label: 'Nobody (unassigned)' }, ...tuners.map((t) => ({ value: t.userId, label: t.name }))]}
+          />
+        )}
+      </Field>
+      {assign.error && (
+        <p role="alert" className="mt-3 text-bad">
+          {errorMessage(assign.error)}
+        </p>
+      )}
+    </Dialog>
+  );
+}
+
+/**
+ * The moves this viewer can make on a job now (from the API's `transitions`), plus take and assign.
+ * Every action is a real button, so the board works from the keyboard.
+ */
+export function JobActions({ job, size = 'sm', showAssign = true }: { job: Job; size?: 'sm' | 'md'; showAssign?: boolean }) {
+  const ability = useAbility<AppAbility>();
+  const me = useSignedInMe();
+  const move = useMoveJob();
+  const take = useTakeJob();
+  const [confirming, setConfirming] = useState<AvailableTransition | null>(null);
+  const [assigning, setAssigning] = useState(false);
+  const subject = asSubject('Job', { shopId: me.shop?.id ?? '', assignedTunerId: job.tuner?.id ?? null, dealerId: job.dealer?.id ?? null, customerUserId: job.customer.id });
+  const canTake = !job.tuner && ability.can('take', subject);
+  const canAssign = showAssign && ability.can('assign', 'Job');
+  const error = move.error ?? take.error;
+
+  const run = (transition: AvailableTransition) => move.mutate({ jobId: job.id, to: transition.to }, { onSuccess: () => setConfirming(null) });
+
+  if (job.transitions.length === 0 && !canTake && !canAssign) return null;
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="flex flex-wrap gap-2">
+        {canTake && (
+          <Button size={size} variant="secondary" pending={take.isPending} onClick={() => take.mutate(job.id)} aria-label={`Take ${jobRef(job)}`}>
+            Take
+          </Button>
+        )}
+        {job.transitions.map((transition, index) => (
+          <Button
+            key={transition.to}
+            size={size}
+            variant={index === 0 && !CONFIRMED[transition.to] ? 'primary' : transition.to === 'cancelled' ? 'ghost' : 'secondary'}
+            pending={move.isPending && move.variables?.to === transition.to && !confirming}
+            disabled={move.isPending}
+            onClick={() => (CONFIRMED[transition.to] ? setConfirming(transition) : run(transition))}
+            aria-label={`${transition.label}: ${jobRef(job)}`}
+          >
+            {transition.label}
+          </Button>
+        ))}
+        {canAssign && (
+          <Button size={size} variant="ghost" onClick={() => setAssigning(true)} aria-label={`Assign ${jobRef(job)}`}>
+            {job.tuner ? 'Reassign' : 'Assign'}
+          </Button>
+        )}
+      </div>
+      {error && !confirming && (
+        <p role="alert" className="text-sm text-bad">
+          {errorMessage(error)}
+        </p>
+      )}
+      <ConfirmDialog
+        open={confirming !== null}
+        title={`${confirming?.label ?? ''}: ${jobRef(job)}?`}
+        confirmLabel={confirming?.label ?? 'Confirm'}
+        confirmVariant={confirming?.to === 'cancelled' ? 'danger' : 'primary'}
+        pending={move.isPending}
+        error={move.error ? errorMessage(move.error) : null}
+        onConfirm={() => confirming && run(confirming)}
+        onCancel={() => {
+          setConfirming(null);
+          move.reset();
+        }}
+      >
+        {confirming ? CONFIRMED[confirming.to] : null}
+      </ConfirmDialog>
+      {canAssign && assigning && <AssignDialog job={job} open={assigning} onClose={() => setAssigning(false)} />}
+    </div>
+  );
+}

@@ -1,0 +1,255 @@
+import { useEffect } from 'react';
+import { useForm, useWatch, type FieldPath } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { formatMoney } from '@revloop/domain/billing';
+import { jobIntakeSchema, type JobIntakeFormValues, type JobIntakeInput } from '@revloop/domain/jobs';
+import { Button } from '../../../components/ui/button';
+import { Card } from '../../../components/ui/card';
+import { Field } from '../../../components/ui/field';
+import { FormErrorSummary } from '../../../components/ui/form-error-summary';
+import { Input, controlClasses } from '../../../components/ui/input';
+import { Select } from '../../../components/ui/select';
+import { cn } from '../../../lib/cn';
+import { errorMessage, fieldErrorsFrom } from '../../../lib/form-errors';
+import { plainErrors } from '../../../lib/form-messages';
+import type { Me } from '../../auth/api/get-me';
+import { useCustomers } from '../../customers/api/get-customers';
+import { usePackages } from '../../packages/api/get-packages';
+import { useVehicles } from '../../vehicles/api/get-vehicles';
+import { formatSpeed } from '../../vehicles/components/vehicle-units';
+import { useCreateJob } from '../api/create-job';
+import type { Job } from '../api/get-jobs';
+import { CautionsList } from './cautions';
+import { fieldId, flattenFieldErrors } from './intake-errors';
+import { IntakeVehicleFields, NEW_VEHICLE, asNumber } from './intake-vehicle-fields';
+
+type SpecialRequests = JobIntakeInput['specialRequests'];
+
+/** Special requests the user left blank are not sent, so the job page lists only real ones. */
+export function keepFilledRequests(requests: SpecialRequests): SpecialRequests {
+  return Object.fromEntries(
+    Object.entries(requests).filter(([, request]) => request && Object.entries(request).some(([, value]) => value !== undefined && value !== '')),
+  ) as SpecialRequests;
+}
+
+const radioClasses = 'size-4 accent-accent-600';
+
+export interface JobIntakeFormProps {
+  me: Me;
+  /** A customer preselected from the dealer's customer list. */
+  customerUserId?: string;
+  onDone: (job: Job) => void;
+  onCancel: () => void;
+}
+
+/** Opens a job: who it is for, which vehicle, which package, what they want, and the cautions accepted. */
+export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntakeFormProps) {
+  const isCustomer = me.role === 'customer';
+  const units = me.user.unitSystem;
+  const form = useForm<JobIntakeFormValues, unknown, JobIntakeInput>({
+    resolver: zodResolver(jobIntakeSchema, plainErrors),
+    defaultValues: {
+      customer: { kind: 'existing', customerUserId: isCustomer ? me.user.id : (customerUserId ?? '') },
+      vehicle: { kind: 'existing', vehicleId: '' },
+      packageId: '',
+      goals: '',
+      specialRequests: {},
+    },
+  });
+  const { register } = form;
+  const create = useCreateJob();
+  const customerKind = useWatch({ control: form.control, name: 'customer.kind' });
+  const chosenCustomer = useWatch({ control: form.control, name: 'customer.customerUserId' });
+  const vehicleKind = useWatch({ control: form.control, name: 'vehicle.kind' });
+  const customers = useCustomers({ enabled: !isCustomer });
+  const packages = usePackages();
+  const vehicleOwner = isCustomer ? undefined : customerKind === 'existing' ? chosenCustomer : undefined;
+  const vehicles = useVehicles(vehicleOwner, { enabled: isCustomer || Boolean(vehicleOwner) });
+  const ownVehicles = customerKind === 'existing' && (isCustomer || Boolean(chosenCustomer)) ? (vehicles.data?.data ?? []) : [];
+
+  useEffect(() => {
+    // A new customer has no vehicles yet; someone without vehicles enters one.
+    if (vehicleKind === 'existing' && (customerKind === 'new' || (vehicles.isSuccess && ownVehicles.length === 0))) {
+      form.setValue('vehicle', { kind: 'new', vehicle: NEW_VEHICLE });
+    }
+  }, [customerKind, vehicleKind, vehicles.isSuccess, ownVehicles.length, form]);
+
+  const { errors, isSubmitted } = form.formState;
+  const flat = isSubmitted ? flattenFieldErrors(errors) : [];
+  const items = [
+    ...flat.map((e) => ({ fieldId: fieldId('intake', e.path), message: e.message })),
+    ...(create.error ? [{ message: errorMessage(create.error) }] : []),
+  ];
+  const err = (path: string) => flat.find((e) => e.path === path)?.message;
+  const currency = packages.data?.meta.currency ?? me.shop?.currency ?? 'USD';
+  const activePackages = (packages.data?.data ?? []).filter((pkg) => pkg.active);
+  const priceOf = (pkg: (typeof activePackages)[number]) => formatMoney(me.role === 'dealer' && pkg.dealerPriceMinor !== null ? pkg.dealerPriceMinor : pkg.retailPriceMinor, currency);
+
+  const onSubmit = form.handleSubmit((values) =>
+    create.mutate(
+      { ...values, specialRequests: keepFilledRequests(values.specialRequests) },
+      {
+        onSuccess: (response) => onDone(response.data),
+        onError: (error) => {
+          for (const [path, message] of Object.entries(fieldErrorsFrom(error))) form.setError(path as FieldPath<JobIntakeFormValues>, { message });
+        },
+      },
+    ),
+  );
+
+  const request = (name: 'shiftPoints' | 'revLimit' | 'launch' | 'idle', label: string) => (
+    <div className="grid gap-3 sm:grid-cols-[10rem_1fr]">
+      <Field id={fieldId('intake', `specialRequests.${name}.rpm`)} label={`${label} (rpm)`} error={err(`specialRequests.${name}.rpm`)}>
+        {(a11y) => <Input {...a11y} type="number" inputMode="numeric" {...register(`specialRequests.${name}.rpm`, asNumber)} />}
+      </Field>
+      <Field id={fieldId('intake', `specialRequests.${name}.notes`)} label={`${label}: notes`} error={err(`specialRequests.${name}.notes`)}>
+        {(a11y) => <Input {...a11y} {...register(`specialRequests.${name}.notes`)} />}
+      </Field>
+    </div>
+  );
+
+  return (
+    <form noValidate onSubmit={onSubmit} className="flex flex-col gap-6">
+      <FormErrorSummary items={items} />
+
+      {!isCustomer && (
+        <Card title="Customer" description={me.role === 'dealer' ? 'One of your customers, or a new one.' : 'Someone already in the shop, or a new customer.'}>
+          <div className="flex flex-col gap-4">
+            <div role="radiogroup" aria-label="Customer" className="flex flex-wrap gap-4 text-sm">
+              <label className="flex items-center gap-2">
+                <input type="radio" value="existing" className={radioClasses} {...register('customer.kind')} />
+                Existing customer
+              </label>
+              <label className="flex items-center gap-2">
+                <input type="radio" value="new" className={radioClasses} {...register('customer.kind')} />
+                New customer
+              </label>
+            </div>
+            {customerKind === 'existing' ? (
+              <Field id={fieldId('intake', 'customer.customerUserId')} label="Customer" error={err('customer.customerUserId')}>
+                {(a11y) => (
+                  <Select
+                    {...a11y}
+                    options={[{ value: '', label: customers.isPending ? 'Loading customers…' : 'Choose a customer' }, ...(customers.data?.data ?? []).map((c) => ({ value: c.id, label: `${c.name} — ${c.email}` }))]}
+                    {...register('customer.customerUserId', { onChange: () => form.setValue('vehicle', { kind: 'existing', vehicleId: '' }) })}
+                  />
+                )}
+              </Field>
+            ) : (
+              <div className="grid gap-4 sm:grid-cols-2">
+                <Field id={fieldId('intake', 'customer.name')} label="Customer name" error={err('customer.name')}>
+                  {(a11y) => <Input {...a11y} autoComplete="off" {...register('customer.name')} />}
+                </Field>
+                <Field id={fieldId('intake', 'customer.email')} label="Customer e-mail" hint="They get the job's updates here." error={err('customer.email')}>
+                  {(a11y) => <Input {...a11y} type="email" autoComplete="off" {...register('customer.email')} />}
+                </Field>
+              </div>
+            )}
+          </div>
+        </Card>
+      )}
+
+      <Card title="Vehicle">
+        <div className="flex flex-col gap-4">
+          {ownVehicles.length > 0 && (
+            <div role="radiogroup" aria-label="Vehicle" className="flex flex-wrap gap-4 text-sm">
+              <label className="flex items-center gap-2">
+                <input type="radio" value="existing" className={radioClasses} {...register('vehicle.kind', { onChange: () => form.setValue('vehicle', { kind: 'existing', vehicleId: '' }) })} />
+                A vehicle on file
+              </label>
+              <label className="flex items-center gap-2">
+                <input type="radio" value="new" className={radioClasses} {...register('vehicle.kind', { onChange: () => form.setValue('vehicle', { kind: 'new', vehicle: NEW_VEHICLE }) })} />
+                Another vehicle
+              </label>
+            </div>
+          )}
+          {vehicleKind === 'existing' ? (
+            !isCustomer && customerKind === 'existing' && !chosenCustomer ? (
+              <p className="text-sm text-ink-600">Choose the customer first.</p>
+            ) : (
+              <Field id={fieldId('intake', 'vehicle.vehicleId')} label="Vehicle on file" error={err('vehicle.vehicleId')}>
+                {(a11y) => (
+                  <Select
+                    {...a11y}
+                    options={[{ value: '', label: vehicles.isPending ? 'Loading vehicles…' : 'Choose a vehicle' }, ...ownVehicles.map((v) => ({ value: v.id, label: `${v.description} — ${v.vin}` }))]}
+                    {...register('vehicle.vehicleId')}
+                  />
+                )}
+              </Field>
+            )
+          ) : (
+            <IntakeVehicleFields form={form} units={units} />
+          )}
+        </div>
+      </Card>
+
+      <Card title="Package and goals">
+        <div className="flex flex-col gap-4">
+          <Field id={fieldId('intake', 'packageId')} label="Package" error={err('packageId')}>
+            {(a11y) => (
+              <Select
+                {...a11y}
+                options={[{ value: '', label: packages.isPending ? 'Loading packages…' : 'Choose a package' }, ...activePackages.map((pkg) => ({ value: pkg.id, label: `${pkg.name} (${pkg.modules.join(' + ')}) — ${priceOf(pkg)}, ${pkg.roundsIncluded} rounds` }))]}
+                {...register('packageId')}
+              />
+            )}
+          </Field>
+          <Field id={fieldId('intake', 'goals')} label="Goals" hint="What the calibration should achieve: power, response, economy, towing, parts to match…" error={err('goals')}>
+            {(a11y) => <textarea {...a11y} rows={3} className={cn(controlClasses, 'py-2')} {...register('goals')} />}
+          </Field>
+        </div>
+      </Card>
+
+      <Card title="Special requests" description="Optional. Leave blank what you do not need.">
+        <div className="flex flex-col gap-4">
+          {request('shiftPoints', 'Shift points')}
+          {request('revLimit', 'Rev limit')}
+          <div className="grid gap-3 sm:grid-cols-[10rem_1fr]">
+            <Field
+              id={fieldId('intake', 'specialRequests.speedLimiter.kmh')}
+              label="Speed limiter (km/h)"
+              hint={units === 'imperial' ? `100 km/h = ${formatSpeed(100, 'imperial', 1)}` : undefined}
+              error={err('specialRequests.speedLimiter.kmh')}
+            >
+              {(a11y) => <Input {...a11y} type="number" inputMode="numeric" {...register('specialRequests.speedLimiter.kmh', asNumber)} />}
+            </Field>
+            <Field id={fieldId('intake', 'specialRequests.speedLimiter.notes')} label="Speed limiter: notes" error={err('specialRequests.speedLimiter.notes')}>
+              {(a11y) => <Input {...a11y} {...register('specialRequests.speedLimiter.notes')} />}
+            </Field>
+          </div>
+          <div className="grid gap-3 sm:grid-cols-[10rem_10rem_1fr]">
+            <Field id={fieldId('intake', 'specialRequests.tyreOrGearChange.tyreSize')} label="New tyre size" error={err('specialRequests.tyreOrGearChange.tyreSize')}>
+              {(a11y) => <Input {...a11y} {...register('specialRequests.tyreOrGearChange.tyreSize', { setValueAs: (v: unknown) => (typeof v === 'string' && v.trim() ? v : undefined) })} />}
+            </Field>
+            <Field id={fieldId('intake', 'specialRequests.tyreOrGearChange.finalDrive')} label="New final drive" error={err('specialRequests.tyreOrGearChange.finalDrive')}>
+              {(a11y) => <Input {...a11y} type="number" step="0.01" inputMode="decimal" {...register('specialRequests.tyreOrGearChange.finalDrive', asNumber)} />}
+            </Field>
+            <Field id={fieldId('intake', 'specialRequests.tyreOrGearChange.notes')} label="Tyre or gear change: notes" error={err('specialRequests.tyreOrGearChange.notes')}>
+              {(a11y) => <Input {...a11y} {...register('specialRequests.tyreOrGearChange.notes')} />}
+            </Field>
+          </div>
+          {request('launch', 'Launch')}
+          {request('idle', 'Idle speed')}
+        </div>
+      </Card>
+
+      <Card title="Cautions">
+        <CautionsList />
+        <label className="mt-4 flex items-start gap-2 text-sm font-medium text-ink-900">
+          <input id={fieldId('intake', 'cautionsAccepted')} type="checkbox" className="mt-0.5 size-4 accent-accent-600" aria-invalid={err('cautionsAccepted') ? true : undefined} {...register('cautionsAccepted')} />
+          {isCustomer ? 'I have read and accept these cautions.' : 'The customer has read and accepts these cautions.'}
+        </label>
+        {err('cautionsAccepted') && <p className="mt-1 text-sm text-bad">{err('cautionsAccepted')}</p>}
+      </Card>
+
+      <div className="flex justify-end gap-2">
+        <Button variant="secondary" onClick={onCancel} disabled={create.isPending}>
+          Cancel
+        </Button>
+        <Button type="submit" pending={create.isPending}>
+          Open the job
+        </Button>
+      </div>
+    </form>
+  );
+}

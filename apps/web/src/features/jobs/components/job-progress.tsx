@@ -1,0 +1,59 @@
+import { Link } from 'react-router-dom';
+import { JOB_STATE_LABELS } from '@revloop/domain/jobs';
+import { paths } from '../../../config/paths';
+import { cn } from '../../../lib/cn';
+import { formatDate } from '../../../lib/format';
+import type { Job } from '../api/get-jobs';
+import { PROGRESS_STATES, progressIndex } from './job-format';
+import { JobStateBadge } from './job-state-badge';
+
+/** The normal path of a job as numbered steps, the current one named for screen readers too. */
+export function JobSteps({ job }: { job: Job }) {
+  const current = progressIndex(job.state, job.heldFrom);
+  const stopped = job.state === 'on_hold' || job.state === 'cancelled';
+  return (
+    <ol aria-label="Progress" className="grid grid-cols-3 gap-1 sm:grid-cols-6">
+      {PROGRESS_STATES.map((state, index) => {
+        const done = index < current || job.state === 'dialed_in';
+        const here = index === current && job.state !== 'dialed_in';
+        return (
+          <li key={state} aria-current={here ? 'step' : undefined} className="flex flex-col gap-1">
+            <span aria-hidden="true" className={cn('h-1.5 rounded-full', done ? 'bg-accent-600' : here ? (stopped ? 'bg-warn' : 'bg-accent-300') : 'bg-ink-200')} />
+            <span className={cn('text-xs', here ? 'font-semibold text-ink-900' : done ? 'text-ink-700' : 'text-ink-500')}>
+              {done && <span className="sr-only">Done: </span>}
+              {here && <span className="sr-only">Now: </span>}
+              {JOB_STATE_LABELS[state]}
+            </span>
+          </li>
+        );
+      })}
+    </ol>
+  );
+}
+
+/** A job as its customer (or their dealer) follows it: where it is and, in plain words, what happens next. */
+export function JobProgressCard({ job, showCustomer = false }: { job: Job; showCustomer?: boolean }) {
+  return (
+    <article aria-labelledby={`progress-${job.id}`} className="flex flex-col gap-3 rounded-card border border-ink-200 bg-white p-4 shadow-xs">
+      <header className="flex flex-wrap items-start justify-between gap-2">
+        <div className="min-w-0">
+          <h3 id={`progress-${job.id}`} className="font-semibold text-ink-900">
+            <Link to={paths.job.getHref(job.id)} className="hover:underline">
+              Job {job.number}: {job.vehicle.description}
+            </Link>
+          </h3>
+          <p className="text-sm text-ink-600">
+            {showCustomer && `${job.customer.name} · `}
+            {job.package.name} · opened {formatDate(job.createdAt)} · {job.round === 0 ? 'no revision yet' : `revision ${job.round}`}
+          </p>
+        </div>
+        <JobStateBadge state={job.state} />
+      </header>
+      <JobSteps job={job} />
+      <p className="rounded-lg bg-accent-50 px-3 py-2 text-sm text-accent-900">
+        <span className="font-medium">Next: </span>
+        {job.nextStep}
+      </p>
+    </article>
+  );
+}

@@ -1,0 +1,188 @@
+import { Link } from 'react-router-dom';
+import {
+  createColumnHelper,
+  functionalUpdate,
+  rowPaginationFeature,
+  rowSortingFeature,
+  tableFeatures,
+  useTable,
+  type PaginationState,
+  type SortingState,
+  type Updater,
+} from '@tanstack/react-table';
+import { Banner } from '../../../components/ui/banner';
+import { buttonClasses } from '../../../components/ui/button';
+import { Select } from '../../../components/ui/select';
+import { Spinner } from '../../../components/ui/spinner';
+import { textLinkClasses } from '../../../components/ui/text-link';
+import { paths } from '../../../config/paths';
+import { cn } from '../../../lib/cn';
+import { errorMessage } from '../../../lib/form-errors';
+import { formatDateTime } from '../../../lib/format';
+import { getJobsExportHref } from '../api/export-jobs';
+import { JOB_SORT_KEYS, useJobs, type Job, type JobSortKey } from '../api/get-jobs';
+import { formatTimeInState } from './job-format';
+import { PAGE_SIZES, tableParams, type JobsScreenState } from './job-list-params';
+import { JobStateBadge, StaleBadge } from './job-state-badge';
+
+// Sorting and paging happen on the server: the table only renders the page it is given and reports clicks.
+const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
+const helper = createColumnHelper<typeof features, Job>();
+
+const columns = helper.columns([
+  helper.accessor('number', {
+    id: 'number',
+    header: 'Job',
+    cell: (info) => (
+      <Link to={paths.job.getHref(info.row.original.id)} className={textLinkClasses}>
+        #{info.getValue()}
+      </Link>
+    ),
+  }),
+  helper.accessor('state', { id: 'state', header: 'State', cell: (info) => <JobStateBadge state={info.getValue()} /> }),
+  helper.accessor((job) => job.vehicle.description, { id: 'vehicle', header: 'Vehicle', cell: (info) => <span className="block max-w-64 truncate">{info.getValue()}</span> }),
+  helper.accessor((job) => job.customer.name, { id: 'customer', header: 'Customer' }),
+  helper.accessor((job) => job.dealer?.name ?? '', { id: 'dealer', header: 'Dealer', enableSorting: false, cell: (info) => info.getValue() || '—' }),
+  helper.accessor((job) => job.package.name, { id: 'package', header: 'Package', enableSorting: false }),
+  helper.accessor((job) => job.tuner?.name ?? '', { id: 'tuner', header: 'Tuner', enableSorting: false, cell: (info) => info.getValue() || 'Unassigned' }),
+  helper.accessor('round', { id: 'round', header: 'Round' }),
+  helper.accessor('stateChangedAt', {
+    id: 'state_changed',
+    header: 'In state',
+    cell: (info) => (
+      <span className="inline-flex items-center gap-2">
+        {formatTimeInState(info.row.original.hoursInState)}
+        {info.row.original.stale && <StaleBadge />}
+      </span>
+    ),
+  }),
+  helper.accessor('updatedAt', { id: 'updated', header: 'Updated', cell: (info) => formatDateTime(info.getValue()) }),
+]);
+
+const SORT_ICON = { asc: '▲', desc: '▼' } as const;
+
+export interface JobsTableProps {
+  state: JobsScreenState;
+  onChange: (patch: Partial<JobsScreenState>) => void;
+}
+
+/** Every job the viewer may see, a page at a time, with the server's sort and filters; exports the filtered list. */
+export function JobsTable({ state, onChange }: JobsTableProps) {
+  const params = tableParams(state);
+  const jobs = useJobs(params);
+  const sorting: SortingState = [{ id: state.sort, desc: state.dir === 'desc' }];
+  const pagination: PaginationState = { pageIndex: state.page - 1, pageSize: state.pageSize };
+
+  const table = useTable({
+    features,
+    columns,
+    data: jobs.data?.data ?? [],
+    getRowId: (job) => job.id,
+    state: { sorting, pagination },
+    manualSorting: true,
+    manualPagination: true,
+    enableMultiSort: false,
+    enableSortingRemoval: false,
+    rowCount: jobs.data?.meta.total ?? 0,
+    onSortingChange: (updater: Updater<SortingState>) => {
+      const [next] = functionalUpdate(updater, sorting);
+      if (next && (JOB_SORT_KEYS as readonly string[]).includes(next.id)) onChange({ sort: next.id as JobSortKey, dir: next.desc ? 'desc' : 'asc', page: 1 });
+    },
+    onPaginationChange: (updater: Updater<PaginationState>) => {
+      const next = functionalUpdate(updater, pagination);
+      onChange({ page: next.pageIndex + 1, pageSize: next.pageSize });
+    },
+  });
+
+  if (jobs.isError) return <Banner tone="bad">{errorMessage(jobs.error)}</Banner>;
+  const meta = jobs.data?.meta;
+  const rows = table.getRowModel().rows;
+
+  return (
+    <div className="flex flex-col gap-3">
+      <div className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
+        <p aria-live="polite">
+          {meta ? `${meta.total} ${meta.total === 1 ? 'job' : 'jobs'}` : 'Loading jobs'}
+          {jobs.isFetching && <Spinner label="Updating" className="ml-2 align-middle" />}
+        </p>
+        <a href={getJobsExportHref(params)} download className={buttonClasses('secondary', 'sm')}>
+          Export CSV
+        </a>
+      </div>
+      <div className="overflow-x-auto rounded-lg border border-ink-200 bg-white">
+        <table className="w-full min-w-[56rem] border-collapse text-left text-sm">
+          <caption className="sr-only">Jobs, sorted by {state.sort.replace('_', ' ')} {state.dir === 'asc' ? 'ascending' : 'descending'}</caption>
+          <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => {
+                  const sorted = header.column.getIsSorted();
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : header.column.getCanSort() ? 'none' : undefined}
+                      className="border-b border-ink-200 px-3 py-2.5 font-medium"
+                    >
+                      {header.column.getCanSort() ? (
+                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded uppercase hover:text-ink-900">
+                          <table.FlexRender header={header} />
+                          <span aria-hidden="true" className={cn('text-[0.6rem]', !sorted && 'opacity-30')}>
+                            {sorted ? SORT_ICON[sorted] : '▲'}
+                          </span>
+                        </button>
+                      ) : (
+                        <table.FlexRender header={header} />
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {rows.length === 0 ? (
+              <tr>
+                <td colSpan={columns.length} className="px-4 py-8 text-center text-ink-600">
+                  {jobs.isPending ? 'Loading…' : 'No job matches the filters.'}
+                </td>
+              </tr>
+            ) : (
+              rows.map((row) => (
+                <tr key={row.id} className="border-b border-ink-100 last:border-b-0 hover:bg-ink-50">
+                  {row.getAllCells().map((cell) => (
+                    <td key={cell.id} className="px-3 py-2.5 align-middle whitespace-nowrap text-ink-800">
+                      <table.FlexRender cell={cell} />
+                    </td>
+                  ))}
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+      <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
+        <label className="flex items-center gap-2">
+          Rows per page
+          <Select
+            className="w-20"
+            value={String(state.pageSize)}
+            onChange={(event) => table.setPageSize(Number(event.target.value))}
+            options={PAGE_SIZES.map((size) => ({ value: String(size), label: String(size) }))}
+          />
+        </label>
+        <div className="flex items-center gap-2">
+          <button type="button" className={buttonClasses('secondary', 'sm')} disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
+            Previous
+          </button>
+          <span>
+            Page {state.page} of {Math.max(1, table.getPageCount())}
+          </span>
+          <button type="button" className={buttonClasses('secondary', 'sm')} disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
+            Next
+          </button>
+        </div>
+      </nav>
+    </div>
+  );
+}
