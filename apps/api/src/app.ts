@@ -14,6 +14,8 @@ import { createAuditRouter } from './features/audit/audit.router';
 import { createAuthRouter } from './features/auth/auth.router';
 import type { SignInThrottle } from './features/auth/sign-in-throttle';
 import { sessionPolicyOf, secureCookiesOf } from './features/auth/start-session';
+import { createBillingRouter } from './features/billing/billing.router';
+import { createStripeWebhookRouter } from './features/billing/stripe-webhook.router';
 import { createDatalogsRouter } from './features/datalogs/datalogs.router';
 import { createDealersRouter } from './features/dealers/dealers.router';
 import { createDevRouter } from './features/dev/dev.router';
@@ -69,6 +71,8 @@ export function createApp(deps: AppDeps): Express {
   app.use(pinoHttp({ logger: deps.logger, autoLogging: deps.env.NODE_ENV !== 'test' }));
 
   const api = Router();
+  // The webhook verifies its signature over the raw body, so it is mounted before the JSON parser (and needs no session).
+  api.use('/stripe', createStripeWebhookRouter(deps));
   api.use(express.json({ limit: '1mb' }));
   api.get('/health', (_req, res) => {
     res.json({ status: 'ok' });
@@ -104,6 +108,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/customers', createCustomersRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
   api.use(createDatalogsRouter(deps));
+  api.use(createBillingRouter(deps));
   if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
   api.use((_req, _res, next) => next(new DomainError('not_found', 'No such API route.')));
   app.use('/api', api);

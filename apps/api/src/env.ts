@@ -21,6 +21,14 @@ const envSchema = z.object({
   SESSION_IDLE_DAYS: z.coerce.number().positive().default(7),
   SESSION_ABSOLUTE_DAYS: z.coerce.number().positive().default(30),
   WEB_DIST_DIR: z.string().optional(),
+  STRIPE_SECRET_KEY: z.string().min(1).default('sk_test_revloop_local'),
+  STRIPE_WEBHOOK_SECRET: z.string().min(1).default('whsec_revloop_local'),
+  /** Base URL of a Stripe-compatible API (the local stand-in); unset means Stripe itself. */
+  STRIPE_API_URL: z.string().url().optional(),
+  /** Start the local Stripe stand-in and point the SDK at it (development and tests). */
+  LOCAL_STRIPE: flag.optional(),
+  /** Port of the local Stripe stand-in; defaults to PORT + 1. */
+  STRIPE_FAKE_PORT: z.coerce.number().int().min(0).max(65535).optional(),
   /** Express 'trust proxy' setting, for when a reverse proxy sets X-Forwarded-For (sign-in throttling keys on the client address). */
   TRUST_PROXY: z.string().optional(),
   /** HMAC key for e-mailed file download links; required in production, a fixed development key otherwise. */
@@ -50,6 +58,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     WEB_DIST_DIR: env.WEB_DIST_DIR ? path.resolve(env.WEB_DIST_DIR) : undefined,
     APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
+    LOCAL_STRIPE: env.LOCAL_STRIPE ?? env.NODE_ENV === 'development',
     FILE_LINK_SECRET: env.FILE_LINK_SECRET ?? DEV_FILE_LINK_SECRET,
   };
 }

@@ -2,9 +2,11 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { pino } from 'pino';
 import { createDb, migrateToLatest } from '@revloop/db';
-import { createApp } from './app';
+import { createApp, type AppDeps } from './app';
 import { loadEnv } from './env';
 import { startSmtpFake } from './fakes/smtp/smtp-fake';
+import { startStripeFake } from './fakes/stripe';
+import { applyBillingDeadlines } from './features/billing/subscription.service';
 import { SignInThrottle } from './features/auth/sign-in-throttle';
 import { createSmtpMailer } from './features/mail/mailer';
 import { systemClock } from './http/clock';
@@ -20,22 +22,39 @@ await migrateToLatest(db);
 const smtp = env.LOCAL_SMTP ? await startSmtpFake({ port: env.SMTP_PORT }) : undefined;
 const mailer = createSmtpMailer({ host: env.SMTP_HOST, port: smtp?.port ?? env.SMTP_PORT, from: env.MAIL_FROM });
 
-const app = createApp({
+// The local Stripe stand-in: the real SDK is pointed at it and it posts signed webhooks back to this server.
+const stripeFake = env.LOCAL_STRIPE
+  ? await startStripeFake({
+      port: env.STRIPE_FAKE_PORT ?? env.PORT + 1,
+      webhookUrl: `http://127.0.0.1:${env.PORT}/api/stripe/webhook`,
+      webhookSecret: env.STRIPE_WEBHOOK_SECRET,
+      logger: (msg) => logger.warn(msg),
+    })
+  : undefined;
+
+const deps: AppDeps = {
   db,
-  env,
+  env: stripeFake ? { ...env, STRIPE_API_URL: stripeFake.url } : env,
   clock: systemClock,
   mailer,
   logger,
   throttle: new SignInThrottle(),
   blobs: new BlobStore(env.DATA_DIR),
   mailbox: smtp?.mailbox,
-});
+};
+const app = createApp(deps);
 const server = app.listen(env.PORT, env.HOST, () => {
-  logger.info({ url: env.APP_ORIGIN, smtpPort: smtp?.port }, 'Revloop is listening');
+  logger.info({ url: env.APP_ORIGIN, smtpPort: smtp?.port, stripeFake: stripeFake?.url }, 'Revloop is listening');
 });
+// Trials and grace periods also end when no webhook arrives: check them hourly.
+const billingSweep = setInterval(() => {
+  applyBillingDeadlines(deps).catch((err: unknown) => logger.error({ err }, 'billing deadline check failed'));
+}, 3_600_000);
 
 async function shutdown() {
   server.close();
+  clearInterval(billingSweep);
+  await stripeFake?.close();
   await smtp?.close();
   await db.destroy();
   process.exit(0);

@@ -2,10 +2,12 @@ import type { Request, RequestHandler } from 'express';
 import {
   findMembershipOfUser,
   findShopById,
+  findShopSubscription,
   findUserById,
   type Db,
   type MembershipRow,
   type ShopRow,
+  type ShopSubscriptionRow,
   type UserRow,
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
@@ -35,17 +37,18 @@ declare module 'express-serve-static-core' {
   }
 }
 
-/** A suspended shop signs in read-only; billing adds its own reason later through this one predicate. */
-export const isShopReadOnly = (shop: ShopRow): boolean => shop.status !== 'active';
+/** A suspended shop, or one whose trial ended or subscription lapsed past its grace period, signs in read-only. */
+export const isShopReadOnly = (shop: ShopRow, billing?: Pick<ShopSubscriptionRow, 'read_only_reason'>): boolean =>
+  shop.status !== 'active' || Boolean(billing?.read_only_reason);
 
-export function buildActor(user: UserRow, membership: MembershipRow | null, shop: ShopRow | null): Actor {
+export function buildActor(user: UserRow, membership: MembershipRow | null, shop: ShopRow | null, billing?: Pick<ShopSubscriptionRow, 'read_only_reason'>): Actor {
   return {
     userId: user.id,
     platformAdmin: user.platform_admin === 1,
     shopId: membership && shop ? shop.id : null,
     role: membership?.role ?? null,
     dealerId: membership?.dealer_id ?? null,
-    shopReadOnly: shop ? isShopReadOnly(shop) : false,
+    shopReadOnly: shop ? isShopReadOnly(shop, billing) : false,
   };
 }
 
@@ -65,7 +68,8 @@ export async function loadAuthContext(
     shop = (await findShopById(db, shopId)) ?? null;
     if (!shop) return null;
   }
-  const actor = buildActor(user, membership, shop);
+  const billing = shop ? await findShopSubscription(db, shop.id) : undefined;
+  const actor = buildActor(user, membership, shop, billing);
   return { sessionId, user, shop, membership, actor, ability: defineAbilityFor(actor) };
 }
 

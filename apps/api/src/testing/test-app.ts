@@ -1,4 +1,6 @@
 import fs from 'node:fs';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { pino } from 'pino';
@@ -9,6 +11,7 @@ import { DEMO_PASSWORD } from '../../../../seeds/demo/people';
 import { createApp } from '../app';
 import { loadEnv, type Env } from '../env';
 import { startSmtpFake, type Mailbox } from '../fakes/smtp/smtp-fake';
+import { startStripeFake, type StripeFakeControl } from '../fakes/stripe';
 import { SignInThrottle } from '../features/auth/sign-in-throttle';
 import { createSmtpMailer } from '../features/mail/mailer';
 import type { Clock } from '../http/clock';
@@ -36,11 +39,15 @@ export interface TestApp {
   mailbox: Mailbox;
   blobs: BlobStore;
   ids: DemoIds;
+  /** Present when asked for: the local Stripe stand-in, posting signed webhooks to this app on a real port. */
+  stripe?: { url: string; control: StripeFakeControl };
   close(): Promise<void>;
 }
 
+export const TEST_WEBHOOK_SECRET = 'whsec_revloop_test';
+
 /** The whole API on an in-memory database loaded with the demo scenario, a fake clock and a live local SMTP mailbox. */
-export async function createTestApp(envOverrides: Record<string, string> = {}): Promise<TestApp> {
+export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean } = {}): Promise<TestApp> {
   const db = createDb(':memory:');
   await migrateToLatest(db);
   const clock = new FakeClock();
@@ -48,8 +55,20 @@ export async function createTestApp(envOverrides: Record<string, string> = {}): 
   const blobs = new BlobStore(dataDir);
   const ids = await seedDemo(db, clock.now(), { blobs });
   const smtp = await startSmtpFake();
+  // The fake needs the webhook address before the app exists, so the listener opens first and takes the app after.
+  const listener = options.stripe ? createServer() : undefined;
+  if (listener) await new Promise<void>((resolve) => listener.listen(0, '127.0.0.1', resolve));
+  const stripe = listener
+    ? await startStripeFake({
+        webhookUrl: `http://127.0.0.1:${(listener.address() as AddressInfo).port}/api/stripe/webhook`,
+        webhookSecret: TEST_WEBHOOK_SECRET,
+        webhookRetryDelaysMs: [20, 40],
+      })
+    : undefined;
   const env = loadEnv({
     NODE_ENV: 'test',
+    STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET,
+    ...(stripe && { STRIPE_API_URL: stripe.url }),
     APP_ORIGIN: TEST_ORIGIN,
     LOG_LEVEL: 'silent',
     DATA_DIR: dataDir,
@@ -67,6 +86,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}): 
     blobs,
     mailbox: smtp.mailbox,
   });
+  listener?.on('request', app);
   return {
     app,
     db,
@@ -75,7 +95,13 @@ export async function createTestApp(envOverrides: Record<string, string> = {}): 
     mailbox: smtp.mailbox,
     blobs,
     ids,
+    ...(stripe && { stripe: { url: stripe.url, control: stripe.control } }),
     close: async () => {
+      await stripe?.close();
+      if (listener) {
+        listener.closeAllConnections();
+        await new Promise<void>((resolve) => listener.close(() => resolve()));
+      }
       await smtp.close();
       await db.destroy();
       fs.rmSync(dataDir, { recursive: true, force: true });

@@ -34,6 +34,7 @@ import type { VehicleInput } from '@revloop/domain/vehicles';
 import type { AppDeps } from '../../app';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
+import { afterDealerDebit, debitDealerForJob } from '../billing/ledger.service';
 import { notify, type NotificationKind } from '../notifications/notify.service';
 
 export const factsOf = (row: JobRow): JobFacts => ({
@@ -281,15 +282,17 @@ async function resolveVehicle(db: Db, shopId: string, customer: { userId: string
 }
 
 /** Opens a job from the intake form, in one transaction, then tells both sides. */
-export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: string; settings: string } }, input: JobIntakeInput): Promise<JobListRow> {
+export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: string; settings: string; currency: string } }, input: JobIntakeInput): Promise<JobListRow> {
   const { db, clock } = deps;
   const at = clock.now().toISOString();
   const pkg = await findPackage(db, auth.shop.id, input.packageId);
   if (!pkg || pkg.active !== 1) throw new DomainError('validation', 'Choose one of the shop’s packages.');
   const settings = parseShopSettings(auth.shop.settings);
-  const jobId = await db.transaction().execute(async (trx) => {
+  const { jobId, debit } = await db.transaction().execute(async (trx) => {
     const customer = await resolveCustomer(trx, auth, input.customer, at);
     const vehicle = await resolveVehicle(trx, auth.shop.id, customer, input.vehicle, at);
+    // A dealer's customer is paid wholesale from the dealer balance below; others may wait on hold for their payment.
+    const holdForPayment = settings.holdUntilPaid && !customer.dealerId && pkg.retail_price_minor > 0;
     const job = await insertJob(trx, {
       id: newId(),
       shop_id: auth.shop.id,
@@ -299,8 +302,8 @@ export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
       dealer_id: customer.dealerId,
       package_id: pkg.id,
       assigned_tuner_id: null,
-      state: 'intake',
-      held_from: null,
+      state: holdForPayment ? 'on_hold' : 'intake',
+      held_from: holdForPayment ? 'intake' : null,
       goals: input.goals,
       special_requests: JSON.stringify(input.specialRequests),
       log_request: JSON.stringify(logRequestFor(settings, vehicle.spec.engine.family, 1)),
@@ -310,8 +313,12 @@ export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
       created_at: at,
       updated_at: at,
     });
-    return job.id;
+    const debit = customer.dealerId
+      ? await debitDealerForJob(trx, { shopId: auth.shop.id, currency: auth.shop.currency, dealerId: customer.dealerId, jobId: job.id, packageName: pkg.name, amountMinor: pkg.dealer_price_minor, userId: auth.user.id, at })
+      : null;
+    return { jobId: job.id, debit };
   });
+  await afterDealerDebit(deps, auth.shop.id, debit);
   await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'job.opened', subjectType: 'Job', subjectId: jobId, at: clock.now() });
   const job = (await findJob(db, auth.shop.id, jobId))!;
   const link = jobLink(deps.env.APP_ORIGIN, job.id);
