@@ -34,6 +34,7 @@ export const router = createBrowserRouter([
           { path: paths.jobs.path, lazy: screen(() => import('./routes/app/jobs/list'), (m) => m.JobsRoute) },
           { path: paths.newJob.path, lazy: screen(() => import('./routes/app/jobs/new'), (m) => m.NewJobRoute) },
           { path: paths.job.path, lazy: screen(() => import('./routes/app/jobs/job'), (m) => m.JobRoute) },
+          { path: paths.fileDiff.path, lazy: screen(() => import('./routes/app/files/diff'), (m) => m.FileDiffRoute) },
           { path: paths.vehicles.path, lazy: screen(() => import('./routes/app/vehicles/list'), (m) => m.VehiclesRoute) },
           { path: paths.vehicle.path, lazy: screen(() => import('./routes/app/vehicles/detail'), (m) => m.VehicleRoute) },
           { path: paths.customers.path, lazy: screen(() => import('./routes/app/customers/list'), (m) => m.CustomersRoute) },

@@ -40,4 +40,8 @@ export const paths = {
   dev: {
     mailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
   },
+  fileDiff: {
+    path: '/jobs/:jobId/files/diff',
+    getHref: (jobId: string, a: string, b: string) => `/jobs/${encodeURIComponent(jobId)}/files/diff?${new URLSearchParams({ a, b })}`,
+  },
 } as const;

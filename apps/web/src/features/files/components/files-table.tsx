@@ -1,0 +1,119 @@
+import { useState } from 'react';
+import { Badge } from '../../../components/ui/badge';
+import { Banner } from '../../../components/ui/banner';
+import { Button } from '../../../components/ui/button';
+import { errorMessage } from '../../../lib/form-errors';
+import { formatDateTime } from '../../../lib/format';
+import { ProgressBar } from '../../datalogs/components/progress-bar';
+import { useDownloadFile } from '../api/download-file';
+import type { CalibrationFile } from '../api/get-job-files';
+import { formatBytes } from './file-format';
+import { VerifyResult } from './verify-result';
+
+const KIND_TONE = { read: 'neutral', re_read: 'accent', revision: 'ok' } as const;
+
+function DownloadButton({ file }: { file: CalibrationFile }) {
+  const [progress, setProgress] = useState(0);
+  const download = useDownloadFile();
+  return (
+    <div className="flex min-w-40 flex-col gap-1">
+      <Button
+        size="sm"
+        variant="secondary"
+        pending={download.isPending}
+        aria-label={`Download ${file.label}`}
+        onClick={() => {
+          setProgress(0);
+          download.mutate({ file, onProgress: setProgress });
+        }}
+      >
+        Download
+      </Button>
+      {download.isPending && <ProgressBar label={`Downloading ${file.downloadName}`} value={progress} />}
+      {download.isError && <p className="text-xs text-bad">{errorMessage(download.error)}</p>}
+    </div>
+  );
+}
+
+/** The job's files, oldest first, with what proves each one: format, sizes, CRC-32 of the image, SHA-256 of the file. */
+export function FilesTable({ files, canVerify }: { files: CalibrationFile[]; canVerify: boolean }) {
+  // Reads and re-reads are checked as soon as the shop opens the list; a clean read stays quiet.
+  const [toggled, setToggled] = useState<Record<string, boolean>>({});
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full min-w-[44rem] text-left text-sm">
+        <thead className="border-b border-ink-200 text-xs text-ink-600 uppercase">
+          <tr>
+            <th scope="col" className="py-2 pr-3 font-medium">File</th>
+            <th scope="col" className="py-2 pr-3 font-medium">Format and size</th>
+            <th scope="col" className="py-2 pr-3 font-medium">CRC-32 / SHA-256</th>
+            <th scope="col" className="py-2 pr-3 font-medium">Uploaded</th>
+            <th scope="col" className="py-2 font-medium"><span className="sr-only">Actions</span></th>
+          </tr>
+        </thead>
+        <tbody className="divide-y divide-ink-100">
+          {files.map((file) => (
+            <FileRow
+              key={file.id}
+              file={file}
+              canVerify={canVerify && file.kind !== 'revision'}
+              checking={toggled[file.id] ?? true}
+              onCheck={() => setToggled({ ...toggled, [file.id]: !(toggled[file.id] ?? true) })}
+            />
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+function FileRow({ file, canVerify, checking, onCheck }: { file: CalibrationFile; canVerify: boolean; checking: boolean; onCheck: () => void }) {
+  return (
+    <>
+      <tr className="align-top">
+        <td className="py-3 pr-3">
+          <div className="flex flex-wrap items-center gap-2">
+            <Badge tone={KIND_TONE[file.kind]}>{file.label}</Badge>
+          </div>
+          <p className="mt-1 break-all text-ink-700">{file.kind === 'revision' ? file.downloadName : file.originalName}</p>
+          {file.notes && <p className="mt-1 text-ink-600">{file.notes}</p>}
+        </td>
+        <td className="py-3 pr-3 text-ink-700">
+          <p>{file.formatLabel}</p>
+          <p className="text-xs text-ink-600">
+            {formatBytes(file.imageBytes)} data · {formatBytes(file.sizeBytes)} file
+          </p>
+        </td>
+        <td className="py-3 pr-3 font-mono text-xs text-ink-800">
+          <p>{file.crc32Hex}</p>
+          <p title={file.sha256}>{file.sha256.slice(0, 12)}…</p>
+        </td>
+        <td className="py-3 pr-3 text-ink-700">
+          <p>{file.uploadedBy.name}</p>
+          <p className="text-xs text-ink-600">{formatDateTime(file.createdAt)}</p>
+        </td>
+        <td className="py-3">
+          <div className="flex flex-col items-end gap-2">
+            <DownloadButton file={file} />
+            {canVerify && (
+              <Button size="sm" variant="ghost" aria-expanded={checking} onClick={onCheck}>
+                {checking ? 'Hide check' : 'Show check'}
+              </Button>
+            )}
+          </div>
+        </td>
+      </tr>
+      {canVerify && checking && (
+        <tr>
+          <td colSpan={5} className="pb-3">
+            <VerifyResult fileId={file.id} quietWhenClean={file.kind === 'read'} />
+          </td>
+        </tr>
+      )}
+    </>
+  );
+}
+
+export function NoFilesYet({ canUpload }: { canUpload: boolean }) {
+  return <Banner tone="neutral">{canUpload ? 'No files yet. Upload the stock read to start the job.' : 'No files you can see yet.'}</Banner>;
+}
