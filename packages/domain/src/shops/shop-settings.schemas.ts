@@ -10,6 +10,22 @@ export const shopSettingsSchema = z.object({
   holdUntilPaid: z.boolean().default(false),
   /** Default log requests by engine family (free text such as "v8" or "2.0 turbo i4"), matched case-insensitively. */
   logRequestDefaults: z.record(z.string().trim().min(1).max(80), logRequestSchema).default({}),
+  /**
+   * Log-check thresholds the shop may tune; anything left out uses DEFAULT_ANALYSIS_SETTINGS, whose sources are
+   * given there (warm coolant 80 °C and pedal on the floor at 95 % are common practice [CP]).
+   */
+  analysis: z
+    .object({
+      warmCoolantC: z.number().min(50).max(110),
+      wotThresholdPct: z.number().min(50).max(100),
+      partialPedalPct: z.number().min(10).max(90),
+      trimRpmBinWidth: z.number().int().min(100).max(2000),
+      trimMapBinWidthKpa: z.number().min(2).max(50),
+      trimMinSamples: z.number().int().min(1).max(1000),
+      wotRpmBinWidth: z.number().int().min(100).max(2000),
+    })
+    .partial()
+    .default({}),
 });
 export type ShopSettings = z.infer<typeof shopSettingsSchema>;
 

@@ -26,6 +26,7 @@ import { defaultLogRequest } from '@revloop/domain/datalog';
 import { vehicleFuelSpec, type FuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
 import type { AppDeps } from '../../app';
 import type { AuthContext } from '../../http/auth-context';
+import { parseShopSettings } from '@revloop/domain/shops';
 import { analyzeFileInWorker } from '../../workers/datalog/analyze-file';
 import { recordAudit } from '../audit/audit.service';
 import { loadJob, moveJob, setJobFacts } from '../jobs/job.service';
@@ -121,6 +122,7 @@ export class DatalogAnalyzer {
       fuel: JSON.parse(row.fuel) as FuelSpec,
       map: mapping.overrides,
       logRequest: logRequestOf(job, spec),
+      settings: parseShopSettings(auth.shop.settings).analysis,
       ...(vehicle && { vehicle }),
     };
     let report: DatalogReport;
