@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useAbility } from '@casl/react';
 import { asSubject, type AppAbility } from '@revloop/domain/auth';
 import type { AvailableTransition } from '@revloop/domain/jobs';
-import { Button } from '../../../components/ui/button';
+import { Button, type ButtonVariant } from '../../../components/ui/button';
 import { ConfirmDialog, Dialog } from '../../../components/ui/dialog';
 import { Field } from '../../../components/ui/field';
 import { Select } from '../../../components/ui/select';
@@ -20,6 +20,8 @@ const CONFIRMED: Partial<Record<AvailableTransition['to'], string>> = {
   dialed_in: 'The current revision becomes the final calibration.',
   on_hold: 'The job waits until someone resumes it, e.g. when the payment or information arrives.',
 };
+
+const ASIDE = new Set<AvailableTransition['to']>(['on_hold', 'cancelled']);
 
 const jobRef = (job: Job) => `job ${job.number} (${job.vehicle.description})`;
 
@@ -67,7 +69,8 @@ function AssignDialog({ job, open, onClose }: { job: Job; open: boolean; onClose
  * The moves this viewer can make on a job now (from the API's `transitions`), plus take and assign.
  * Every action is a real button, so the board works from the keyboard.
  */
-export function JobActions({ job, size = 'sm', showAssign = true }: { job: Job; size?: 'sm' | 'md'; showAssign?: boolean }) {
+export function JobActions({ job, compact = false }: { job: Job; compact?: boolean }) {
+  const size = compact ? 'sm' : 'md';
   const ability = useAbility<AppAbility>();
   const me = useSignedInMe();
   const move = useMoveJob();
@@ -76,8 +79,25 @@ export function JobActions({ job, size = 'sm', showAssign = true }: { job: Job; 
   const [assigning, setAssigning] = useState(false);
   const subject = asSubject('Job', { shopId: me.shop?.id ?? '', assignedTunerId: job.tuner?.id ?? null, dealerId: job.dealer?.id ?? null, customerUserId: job.customer.id });
   const canTake = !job.tuner && ability.can('take', subject);
-  const canAssign = showAssign && ability.can('assign', 'Job');
+  const canAssign = ability.can('assign', 'Job');
   const error = move.error ?? take.error;
+
+  // Pausing and cancelling sit apart from the forward moves, folded away on a board card.
+  const main = job.transitions.filter((t) => !ASIDE.has(t.to));
+  const aside = job.transitions.filter((t) => ASIDE.has(t.to));
+  const button = (transition: AvailableTransition, variant: ButtonVariant) => (
+    <Button
+      key={transition.to}
+      size={size}
+      variant={variant}
+      pending={move.isPending && move.variables?.to === transition.to && !confirming}
+      disabled={move.isPending}
+      onClick={() => (CONFIRMED[transition.to] ? setConfirming(transition) : run(transition))}
+      aria-label={`${transition.label}: ${jobRef(job)}`}
+    >
+      {transition.label}
+    </Button>
+  );
 
   const run = (transition: AvailableTransition) => move.mutate({ jobId: job.id, to: transition.to }, { onSuccess: () => setConfirming(null) });
 
@@ -90,25 +110,20 @@ export function JobActions({ job, size = 'sm', showAssign = true }: { job: Job; 
             Take
           </Button>
         )}
-        {job.transitions.map((transition, index) => (
-          <Button
-            key={transition.to}
-            size={size}
-            variant={index === 0 && !CONFIRMED[transition.to] ? 'primary' : transition.to === 'cancelled' ? 'ghost' : 'secondary'}
-            pending={move.isPending && move.variables?.to === transition.to && !confirming}
-            disabled={move.isPending}
-            onClick={() => (CONFIRMED[transition.to] ? setConfirming(transition) : run(transition))}
-            aria-label={`${transition.label}: ${jobRef(job)}`}
-          >
-            {transition.label}
-          </Button>
-        ))}
+        {main.map((transition, index) => button(transition, index === 0 && !CONFIRMED[transition.to] ? 'primary' : 'secondary'))}
         {canAssign && (
           <Button size={size} variant="ghost" onClick={() => setAssigning(true)} aria-label={`Assign ${jobRef(job)}`}>
             {job.tuner ? 'Reassign' : 'Assign'}
           </Button>
         )}
+        {!compact && aside.map((transition) => button(transition, transition.to === 'cancelled' ? 'ghost' : 'secondary'))}
       </div>
+      {compact && aside.length > 0 && (
+        <details className="text-sm">
+          <summary className="cursor-pointer rounded text-ink-600 hover:text-ink-900">More actions</summary>
+          <div className="mt-2 flex flex-wrap gap-2">{aside.map((transition) => button(transition, 'secondary'))}</div>
+        </details>
+      )}
       {error && !confirming && (
         <p role="alert" className="text-sm text-bad">
           {errorMessage(error)}

@@ -44,7 +44,7 @@ export function JobCard({ job }: { job: Job }) {
         <span className="font-medium">Next: </span>
         {job.nextStep}
       </p>
-      <JobActions job={job} />
+      <JobActions job={job} compact />
     </article>
   );
 }

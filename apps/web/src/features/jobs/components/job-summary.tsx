@@ -54,7 +54,7 @@ export function JobSummary({ job, canSeeVehicle }: { job: Job; canSeeVehicle: bo
           <span className="font-medium">Next step: </span>
           {job.nextStep}
         </p>
-        <JobActions job={job} size="md" />
+        <JobActions job={job} />
       </div>
     </Card>
   );

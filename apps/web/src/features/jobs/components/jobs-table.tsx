@@ -162,7 +162,7 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
         </table>
       </div>
       <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
-        <label className="flex items-center gap-2">
+        <label className="flex items-center gap-2 whitespace-nowrap">
           Rows per page
           <Select
             className="w-20"

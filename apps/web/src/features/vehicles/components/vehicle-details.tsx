@@ -99,7 +99,7 @@ export function VehicleNumbersCard({ vehicle, units }: { vehicle: Vehicle; units
             </table>
           </div>
         )}
-        <p className="text-xs text-ink-600">Speed = rpm × tyre circumference ÷ (gear ratio × final drive). Tyre wear and slip change it by a few percent.</p>
+        <p className="text-xs text-ink-600">Speed = rpm × tyre circumference ÷ (gear ratio × final drive). Tyre wear and slip change it by a few percent; at the rev limit in the top gears it is the gearing's limit, not a speed the car reaches.</p>
       </div>
     </Card>
   );

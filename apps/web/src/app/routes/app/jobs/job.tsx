@@ -33,9 +33,10 @@ export function JobRoute() {
     );
   }
   const data = job.data.data;
-  const subject = asSubject('Job', { shopId: me.shop?.id ?? '', assignedTunerId: data.tuner?.id ?? null, dealerId: data.dealer?.id ?? null, customerUserId: data.customer.id });
-  const canEditLogRequest = ability.can('update', subject);
-  const canPost = ability.can('create', asSubject('Message', subject));
+  // CASL tags the object it checks, so each subject type gets its own copy of the job's fields.
+  const fields = { shopId: me.shop?.id ?? '', assignedTunerId: data.tuner?.id ?? null, dealerId: data.dealer?.id ?? null, customerUserId: data.customer.id };
+  const canEditLogRequest = ability.can('update', asSubject('Job', { ...fields }));
+  const canPost = ability.can('create', asSubject('Message', { ...fields }));
 
   return (
     <>
