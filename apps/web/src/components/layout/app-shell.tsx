@@ -13,6 +13,8 @@ export interface AppShellProps {
   /** Shown beside the wordmark: the shop the user works in, or the platform. */
   context?: ReactNode;
   userMenu: ReactNode;
+  /** The notification bell, beside the user menu. */
+  notifications?: ReactNode;
   banner?: ReactNode;
   footer?: ReactNode;
   children: ReactNode;
@@ -25,7 +27,7 @@ const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
   );
 
 /** The signed-in frame: header, navigation (a side column, folded behind a button on phones), content, footer. */
-export function AppShell({ nav, context, userMenu, banner, footer, children }: AppShellProps) {
+export function AppShell({ nav, context, userMenu, notifications, banner, footer, children }: AppShellProps) {
   const [navOpen, setNavOpen] = useState(false);
   const location = useLocation();
   useEffect(() => setNavOpen(false), [location.pathname]);
@@ -56,7 +58,10 @@ export function AppShell({ nav, context, userMenu, banner, footer, children }: A
               <div className="hidden min-w-0 truncate text-sm text-ink-700 sm:block">{context}</div>
             </>
           )}
-          <div className="ml-auto">{userMenu}</div>
+          <div className="ml-auto flex items-center gap-1">
+            {notifications}
+            {userMenu}
+          </div>
         </div>
       </header>
       <div className="mx-auto flex w-full max-w-7xl flex-1 flex-col md:flex-row">

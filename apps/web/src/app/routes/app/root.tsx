@@ -12,6 +12,7 @@ import { useMe, type Me } from '../../../features/auth/api/get-me';
 import { navItemsFor } from '../../../features/auth/components/nav-items';
 import { UserMenu } from '../../../features/auth/components/user-menu';
 import { MailboxLink } from '../../../features/mailbox/components/mailbox-link';
+import { NotificationBell } from '../../../features/notifications/components/notification-bell';
 import { errorMessage } from '../../../lib/form-errors';
 
 function ShopContext({ me }: { me: Me }) {
@@ -76,6 +77,7 @@ export function AppRoot() {
       nav={navItemsFor(ability, me.data)}
       context={<ShopContext me={me.data} />}
       userMenu={<UserMenu me={me.data} />}
+      notifications={me.data.shop && <NotificationBell />}
       banner={<ReadOnlyBanner me={me.data} />}
       footer={<MailboxLink />}
     >
