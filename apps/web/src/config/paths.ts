@@ -14,6 +14,7 @@ export const paths = {
   },
   admin: {
     shops: { path: '/admin/shops', getHref: () => '/admin/shops' },
+    revenue: { path: '/admin/revenue', getHref: () => '/admin/revenue' },
   },
   jobs: { path: '/jobs', getHref: () => '/jobs' },
   newJob: { path: '/jobs/new', getHref: (customerUserId?: string) => (customerUserId ? `/jobs/new?customer=${encodeURIComponent(customerUserId)}` : '/jobs/new') },
@@ -36,6 +37,10 @@ export const paths = {
   datalogs: {
     report: { path: '/datalogs/:datalogId', getHref: (datalogId: string) => `/datalogs/${encodeURIComponent(datalogId)}` },
     jobLogs: { path: '/jobs/:jobId/logs', getHref: (jobId: string) => `/jobs/${encodeURIComponent(jobId)}/logs` },
+  },
+  billing: {
+    shop: { path: '/billing', getHref: () => '/billing' },
+    statement: { path: '/billing/statement/:dealerId', getHref: (dealerId: string) => `/billing/statement/${encodeURIComponent(dealerId)}` },
   },
   dev: {
     mailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
