@@ -53,6 +53,7 @@ export const router = createBrowserRouter([
           { path: paths.datalogs.report.path, lazy: screen(() => import('./routes/app/datalogs/report'), (m) => m.DatalogReportRoute) },
           { path: paths.datalogs.jobLogs.path, lazy: screen(() => import('./routes/app/datalogs/job-logs'), (m) => m.JobLogsRoute) },
           { path: paths.billing.shop.path, lazy: screen(() => import('./routes/app/billing/shop-billing'), (m) => m.ShopBillingRoute) },
+          { path: paths.billing.myStatement.path, lazy: screen(() => import('./routes/app/billing/dealer-statement'), (m) => m.DealerStatementRoute) },
           { path: paths.billing.statement.path, lazy: screen(() => import('./routes/app/billing/dealer-statement'), (m) => m.DealerStatementRoute) },
           { path: paths.admin.revenue.path, lazy: screen(() => import('./routes/app/billing/revenue'), (m) => m.RevenueRoute) },
           { id: 'not-found', path: '*', lazy: screen(() => import('./routes/not-found'), (m) => m.NotFoundRoute) },

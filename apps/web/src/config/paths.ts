@@ -40,6 +40,8 @@ export const paths = {
   },
   billing: {
     shop: { path: '/billing', getHref: () => '/billing' },
+    /** A dealer user's own statement. */
+    myStatement: { path: '/billing/statement', getHref: () => '/billing/statement' },
     statement: { path: '/billing/statement/:dealerId', getHref: (dealerId: string) => `/billing/statement/${encodeURIComponent(dealerId)}` },
   },
   dev: {

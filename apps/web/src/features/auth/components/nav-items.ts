@@ -16,6 +16,9 @@ export const screenAccess = {
   team: (ability: AppAbility) => ability.can('read', 'Member'),
   dealers: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Dealer'),
   shopSettings: (ability: AppAbility) => ability.can('read', 'ShopSettings'),
+  revenue: (ability: AppAbility) => ability.can('manage', 'Platform'),
+  billing: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Subscription'),
+  statement: (ability: AppAbility, viewer: Viewer) => viewer.role === 'dealer' && ability.can('read', 'Ledger'),
 } satisfies Record<string, (ability: AppAbility, viewer: Viewer) => boolean>;
 
 export type Screen = keyof typeof screenAccess;
@@ -29,11 +32,14 @@ export interface NavItem {
 
 const NAV: Array<{ screen: Screen; label: (viewer: Viewer) => string; to: string }> = [
   { screen: 'shops', label: () => 'Shops', to: paths.admin.shops.getHref() },
+  { screen: 'revenue', label: () => 'Revenue', to: paths.admin.revenue.getHref() },
   { screen: 'jobs', label: (viewer) => (viewer.role === 'customer' ? 'My jobs' : 'Jobs'), to: paths.jobs.getHref() },
   { screen: 'vehicles', label: () => 'Vehicles', to: paths.vehicles.getHref() },
   { screen: 'customers', label: () => 'Customers', to: paths.customers.getHref() },
   { screen: 'team', label: () => 'Team', to: paths.team.getHref() },
   { screen: 'dealers', label: () => 'Dealers', to: paths.dealers.list.getHref() },
+  { screen: 'statement', label: () => 'Statement', to: paths.billing.myStatement.getHref() },
+  { screen: 'billing', label: () => 'Billing', to: paths.billing.shop.getHref() },
   { screen: 'shopSettings', label: () => 'Settings', to: paths.settings.shop.getHref() },
 ];
 

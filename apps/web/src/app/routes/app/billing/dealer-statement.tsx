@@ -7,6 +7,7 @@ import { Banner } from '../../../../components/ui/banner';
 import { buttonClasses } from '../../../../components/ui/button';
 import { Card } from '../../../../components/ui/card';
 import { PageSpinner } from '../../../../components/ui/spinner';
+import { useSignedInMe } from '../../../../features/auth/api/get-me';
 import { dealerLedgerCsvHref, getDealerLedgerQueryOptions, useDealerLedger } from '../../../../features/billing/api/get-dealer-ledger';
 import { LedgerTable } from '../../../../features/billing/components/ledger-table';
 import { TopUpForm } from '../../../../features/billing/components/top-up-form';
@@ -14,7 +15,9 @@ import { isApiError } from '../../../../lib/api-client';
 import { errorMessage } from '../../../../lib/form-errors';
 
 export function DealerStatementRoute() {
-  const { dealerId = '' } = useParams();
+  const me = useSignedInMe();
+  // The dealer's own statement has no id in its address; the owner opens one per dealer.
+  const { dealerId = me.dealer?.id ?? '' } = useParams();
   const [params] = useSearchParams();
   const toppedUp = params.get('topup') === 'done';
   const ledger = useDealerLedger(dealerId);
