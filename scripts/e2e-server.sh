@@ -4,7 +4,8 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 export NODE_ENV=development
 export PORT="${E2E_PORT:-8181}"
-export DATA_DIR=.tmp/e2e-data
+# One data folder per port, so two browser-test runs at once never share a database.
+export DATA_DIR=.tmp/e2e-data-$PORT
 export APP_ORIGIN="http://localhost:$PORT"
 export WEB_DIST_DIR=apps/web/dist
 export SMTP_PORT=0
