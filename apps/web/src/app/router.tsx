@@ -48,6 +48,8 @@ export const router = createBrowserRouter([
               { index: true, element: <Navigate to={paths.settings.profile.getHref()} replace /> },
               { path: paths.settings.profile.path, lazy: screen(() => import('./routes/app/settings/profile'), (m) => m.ProfileRoute) },
               { path: paths.settings.shop.path, lazy: screen(() => import('./routes/app/settings/shop'), (m) => m.ShopSettingsRoute) },
+              { path: paths.settings.packages.path, lazy: screen(() => import('./routes/app/settings/packages'), (m) => m.PackagesSettingsRoute) },
+              { path: paths.settings.notifications.path, lazy: screen(() => import('./routes/app/settings/notifications'), (m) => m.NotificationsSettingsRoute) },
             ],
           },
           { path: paths.datalogs.report.path, lazy: screen(() => import('./routes/app/datalogs/report'), (m) => m.DatalogReportRoute) },

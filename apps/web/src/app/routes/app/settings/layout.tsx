@@ -12,20 +12,40 @@ const tabClasses = ({ isActive }: { isActive: boolean }) =>
 
 export function SettingsLayout() {
   const ability = useAbility<AppAbility>();
-  const showShop = canOpen('shopSettings', ability, useSignedInMe());
+  const me = useSignedInMe();
+  const showShop = canOpen('shopSettings', ability, me);
+  const showNotifications = me.shop !== null;
+  if (!showShop && !showNotifications) {
+    return (
+      <>
+        <PageHeader title="Settings" />
+        <Outlet />
+      </>
+    );
+  }
   return (
     <>
       <PageHeader title="Settings" />
-      {showShop && (
-        <nav aria-label="Settings" className="mb-6 flex gap-2 border-b border-ink-200">
-          <NavLink to={paths.settings.profile.getHref()} className={tabClasses}>
-            Profile
+      <nav aria-label="Settings" className="mb-6 flex gap-2 overflow-x-auto border-b border-ink-200">
+        <NavLink to={paths.settings.profile.getHref()} className={tabClasses}>
+          Profile
+        </NavLink>
+        {showNotifications && (
+          <NavLink to={paths.settings.notifications.getHref()} className={tabClasses}>
+            Notifications
           </NavLink>
-          <NavLink to={paths.settings.shop.getHref()} className={tabClasses}>
-            Shop
-          </NavLink>
-        </nav>
-      )}
+        )}
+        {showShop && (
+          <>
+            <NavLink to={paths.settings.shop.getHref()} className={tabClasses}>
+              Shop
+            </NavLink>
+            <NavLink to={paths.settings.packages.getHref()} className={tabClasses}>
+              Packages
+            </NavLink>
+          </>
+        )}
+      </nav>
       <Outlet />
     </>
   );

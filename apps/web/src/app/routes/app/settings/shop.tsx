@@ -1,22 +1,31 @@
+import { useAbility } from '@casl/react';
+import type { AppAbility } from '@revloop/domain/auth';
 import { Badge } from '../../../../components/ui/badge';
+import { Banner } from '../../../../components/ui/banner';
 import { Card } from '../../../../components/ui/card';
-import { useSignedInMe } from '../../../../features/auth/api/get-me';
+import { PageSpinner } from '../../../../components/ui/spinner';
+import { useShop } from '../../../../features/shop-settings/api/get-shop';
+import { ShopSettingsForm } from '../../../../features/shop-settings/components/shop-settings-form';
+import { errorMessage } from '../../../../lib/form-errors';
 import { RequireScreen } from '../require-screen';
 
 function ShopSettings() {
-  const me = useSignedInMe();
-  const shop = me.shop;
-  if (!shop) return null;
+  const ability = useAbility<AppAbility>();
+  const shop = useShop();
+  if (shop.isPending) return <PageSpinner label="Loading shop settings" />;
+  if (shop.isError) return <Banner tone="bad">{errorMessage(shop.error)}</Banner>;
+  const data = shop.data.data;
   return (
-    <Card title="Shop" description="Packages, prices, payments and default log requests get their own settings in a later release.">
-      <dl className="grid max-w-lg grid-cols-[auto_1fr] gap-x-6 gap-y-2 text-sm">
-        <dt className="text-ink-600">Name</dt>
-        <dd className="font-medium text-ink-900">{shop.name}</dd>
-        <dt className="text-ink-600">Status</dt>
-        <dd>{shop.status === 'active' ? <Badge tone="ok">Active</Badge> : <Badge tone="warn">Suspended</Badge>}</dd>
-        <dt className="text-ink-600">Currency</dt>
-        <dd className="text-ink-900">{shop.currency}</dd>
-      </dl>
+    <Card
+      title="Shop"
+      description={
+        <span className="inline-flex flex-wrap items-center gap-2">
+          {data.status === 'active' ? <Badge tone="ok">Active</Badge> : <Badge tone="warn">Suspended</Badge>}
+          <span>Prices in {data.currency}.</span>
+        </span>
+      }
+    >
+      <ShopSettingsForm shop={data} canEdit={ability.can('update', 'ShopSettings')} />
     </Card>
   );
 }

@@ -1,0 +1,43 @@
+import { z } from 'zod';
+import { logRequestSchema } from '@revloop/domain/datalog';
+import { shopSettingsSchema, type ShopSettings } from '@revloop/domain/shops';
+import type { Shop } from '../api/get-shop';
+
+const familyKey = (family: string) => family.toLowerCase().replace(/[^a-z0-9]/g, '');
+
+/** Shop settings as a form: the per-family log request defaults become an editable list, checked for repeats. */
+export const shopSettingsFormSchema = z
+  .object({
+    name: z.string().trim().min(2, 'Use at least 2 characters.').max(80),
+    uploadLimitMiB: shopSettingsSchema.shape.uploadLimitMiB,
+    holdUntilPaid: z.boolean(),
+    defaults: z.array(logRequestSchema.extend({ family: z.string().trim().min(1, 'Name the engine family.').max(80) })),
+  })
+  .superRefine((values, ctx) => {
+    const seen = new Set<string>();
+    values.defaults.forEach((entry, index) => {
+      const key = familyKey(entry.family);
+      if (seen.has(key)) ctx.addIssue({ code: 'custom', path: ['defaults', index, 'family'], message: `"${entry.family}" is listed twice.` });
+      seen.add(key);
+    });
+  })
+  .transform(({ name, uploadLimitMiB, holdUntilPaid, defaults }) => ({
+    name,
+    settings: {
+      uploadLimitMiB,
+      holdUntilPaid,
+      logRequestDefaults: Object.fromEntries(defaults.map(({ family, ...request }) => [family, request])),
+    } satisfies Partial<ShopSettings>,
+  }));
+
+export type ShopSettingsFormValues = z.input<typeof shopSettingsFormSchema>;
+export type ShopSettingsFormOutput = z.output<typeof shopSettingsFormSchema>;
+
+export function shopSettingsFormDefaults(shop: Shop): ShopSettingsFormValues {
+  return {
+    name: shop.name,
+    uploadLimitMiB: shop.settings.uploadLimitMiB,
+    holdUntilPaid: shop.settings.holdUntilPaid,
+    defaults: Object.entries(shop.settings.logRequestDefaults).map(([family, request]) => ({ family, ...request })),
+  };
+}
