@@ -16,7 +16,7 @@ function DownloadButton({ file }: { file: CalibrationFile }) {
   const [progress, setProgress] = useState(0);
   const download = useDownloadFile();
   return (
-    <div className="flex min-w-40 flex-col gap-1">
+    <div className="flex min-w-32 flex-col gap-1">
       <Button
         size="sm"
         variant="secondary"
@@ -41,14 +41,13 @@ export function FilesTable({ files, canVerify }: { files: CalibrationFile[]; can
   const [toggled, setToggled] = useState<Record<string, boolean>>({});
   return (
     <div className="overflow-x-auto">
-      <table className="w-full min-w-[44rem] text-left text-sm">
+      <table className="w-full min-w-[34rem] text-left text-sm">
         <thead className="border-b border-ink-200 text-xs text-ink-600 uppercase">
           <tr>
             <th scope="col" className="py-2 pr-3 font-medium">File</th>
             <th scope="col" className="py-2 pr-3 font-medium">Format and size</th>
             <th scope="col" className="py-2 pr-3 font-medium">CRC-32 / SHA-256</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Uploaded</th>
-            <th scope="col" className="py-2 font-medium"><span className="sr-only">Actions</span></th>
+            <th scope="col" className="py-2 font-medium">Uploaded</th>
           </tr>
         </thead>
         <tbody className="divide-y divide-ink-100">
@@ -77,6 +76,14 @@ function FileRow({ file, canVerify, checking, onCheck }: { file: CalibrationFile
           </div>
           <p className="mt-1 break-all text-ink-700">{file.kind === 'revision' ? file.downloadName : file.originalName}</p>
           {file.notes && <p className="mt-1 text-ink-600">{file.notes}</p>}
+          <div className="mt-2 flex flex-wrap items-start gap-2">
+            <DownloadButton file={file} />
+            {canVerify && (
+              <Button size="sm" variant="ghost" aria-expanded={checking} onClick={onCheck}>
+                {checking ? 'Hide check' : 'Show check'}
+              </Button>
+            )}
+          </div>
         </td>
         <td className="py-3 pr-3 text-ink-700">
           <p>{file.formatLabel}</p>
@@ -88,24 +95,14 @@ function FileRow({ file, canVerify, checking, onCheck }: { file: CalibrationFile
           <p>{file.crc32Hex}</p>
           <p title={file.sha256}>{file.sha256.slice(0, 12)}…</p>
         </td>
-        <td className="py-3 pr-3 text-ink-700">
+        <td className="py-3 text-ink-700">
           <p>{file.uploadedBy.name}</p>
           <p className="text-xs text-ink-600">{formatDateTime(file.createdAt)}</p>
-        </td>
-        <td className="py-3">
-          <div className="flex flex-col items-end gap-2">
-            <DownloadButton file={file} />
-            {canVerify && (
-              <Button size="sm" variant="ghost" aria-expanded={checking} onClick={onCheck}>
-                {checking ? 'Hide check' : 'Show check'}
-              </Button>
-            )}
-          </div>
         </td>
       </tr>
       {canVerify && checking && (
         <tr>
-          <td colSpan={5} className="pb-3">
+          <td colSpan={4} className="pb-3">
             <VerifyResult fileId={file.id} quietWhenClean={file.kind === 'read'} />
           </td>
         </tr>
