@@ -19,6 +19,7 @@ import { createStripeWebhookRouter } from './features/billing/stripe-webhook.rou
 import { createDatalogsRouter } from './features/datalogs/datalogs.router';
 import { createDealersRouter } from './features/dealers/dealers.router';
 import { createDevRouter } from './features/dev/dev.router';
+import { createFilesRouter } from './features/files/files.router';
 import { createInvitationsRouter } from './features/invitations/invitations.router';
 import type { Mailer } from './features/mail/mailer';
 import { createMeRouter } from './features/me/me.router';
@@ -107,6 +108,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/packages', createPackagesRouter(deps));
   api.use('/customers', createCustomersRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
+  api.use(createFilesRouter(deps));
   api.use(createDatalogsRouter(deps));
   api.use(createBillingRouter(deps));
   if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
