@@ -256,7 +256,7 @@ export function IntakeVehicleFields({ form, units }: { form: IntakeForm; units: 
           {(a11y) => <Input {...a11y} type="number" inputMode="numeric" {...register('vehicle.vehicle.modelYear', asNumber)} />}
         </Field>
       </div>
-      <Field id={id('description')} label="Vehicle" hint="Make, model and trim in your own words." error={err('description')}>
+      <Field id={id('description')} label="Make, model and trim" hint="In your own words, e.g. compact hatchback, 2.0 turbo, 6-speed manual." error={err('description')}>
         {(a11y) => <Input {...a11y} {...register('vehicle.vehicle.description')} />}
       </Field>
 
@@ -274,7 +274,7 @@ export function IntakeVehicleFields({ form, units }: { form: IntakeForm; units: 
         <Field id={id('engine.family')} label="Engine family" hint='e.g. "2.0 turbo I4" or "V8"' error={err('engine.family')}>
           {(a11y) => <Input {...a11y} {...register('vehicle.vehicle.engine.family')} />}
         </Field>
-        <Field id={id('revLimitRpm')} label="Rev limit (rpm)" error={err('revLimitRpm')}>
+        <Field id={id('revLimitRpm')} label="Current rev limit (rpm)" error={err('revLimitRpm')}>
           {(a11y) => <Input {...a11y} type="number" inputMode="numeric" {...register('vehicle.vehicle.revLimitRpm', asNumber)} />}
         </Field>
       </fieldset>

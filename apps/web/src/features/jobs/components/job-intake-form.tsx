@@ -203,7 +203,7 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
       <Card title="Special requests" description="Optional. Leave blank what you do not need.">
         <div className="flex flex-col gap-4">
           {request('shiftPoints', 'Shift points')}
-          {request('revLimit', 'Rev limit')}
+          {request('revLimit', 'New rev limit')}
           <div className="grid gap-3 sm:grid-cols-[10rem_1fr]">
             <Field
               id={fieldId('intake', 'specialRequests.speedLimiter.kmh')}
