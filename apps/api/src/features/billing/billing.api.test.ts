@@ -130,6 +130,19 @@ describe('customer pays a job', () => {
     const tuner = await signIn(t.app, 'tuner@kestrel.test');
     expect((await tuner.post(`/api/billing/payments/${paid.id}/refunds`).send({ ...refund, requestId: 'req-refund-0004' })).status).toBe(403);
   });
+  it('holds a new job until it is paid when the shop asks for it, then releases it', async () => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    expect((await owner.patch('/api/shop').send({ settings: { holdUntilPaid: true } })).status).toBe(200);
+    const customer = await signIn(t.app, 'riley.moss@kestrel.test');
+    const me = (await customer.get('/api/me')).body;
+    const packageId = (await customer.get('/api/packages')).body.data[0].id as string;
+    const opened = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: me.user.id }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId, goals: 'Hold me', cautionsAccepted: true });
+    expect(opened.body.data).toMatchObject({ state: 'on_hold', heldFrom: 'intake' });
+    const started = await customer.post('/api/billing/checkout').send({ purpose: 'job', jobId: opened.body.data.id });
+    await pay(started.body.url);
+    expect((await customer.get(`/api/jobs/${opened.body.data.id}`)).body.data).toMatchObject({ state: 'intake', heldFrom: null });
+    await owner.patch('/api/shop').send({ settings: { holdUntilPaid: false } });
+  });
 });
 
 describe('dealer wholesale', () => {

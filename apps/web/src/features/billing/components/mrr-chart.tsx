@@ -15,7 +15,7 @@ export function MrrChart({ series, currency }: { series: MrrPoint[]; currency: s
             <XAxis dataKey="label" tick={{ fontSize: 12 }} />
             <YAxis tick={{ fontSize: 12 }} width={64} tickFormatter={(v: number) => formatMoney(Math.round(v), currency).replace(/\.0+$/, '')} />
             <Tooltip formatter={(_v, _n, item) => [formatMoney((item.payload as MrrPoint).mrrMinor, currency), 'MRR']} />
-            <Area type="stepAfter" dataKey="mrrMinor" stroke="var(--color-accent-600)" fill="var(--color-accent-100)" strokeWidth={2} />
+            <Area type="stepAfter" isAnimationActive={false} dataKey="mrrMinor" stroke="var(--color-accent-600)" fill="var(--color-accent-100)" strokeWidth={2} />
           </AreaChart>
         </ResponsiveContainer>
       </div>
