@@ -15,6 +15,8 @@ export function singleFileUpload(store: BlobStore, field: string, maxBytes: (req
         destination: store.tempDir,
         filename: (_req, _file, cb) => cb(null, store.tempPath().split('/').pop()!),
       }),
+      // Keep the client's path so a name like "../x.bin" reaches our own name check and is refused, not silently trimmed.
+      preservePath: true,
       limits: { fileSize: limit, files: 1, fields: 20, fieldSize: 64 * 1024 },
     }).single(field);
     upload(req, res, (err: unknown) => {
@@ -23,6 +25,10 @@ export function singleFileUpload(store: BlobStore, field: string, maxBytes: (req
         return next(new DomainError('payload_too_large', `The file is larger than this shop allows (${Math.round(limit / 1048576)} MiB).`));
       }
       if (err instanceof multer.MulterError) return next(new DomainError('validation', `Upload refused: ${err.message}.`));
+      // busboy's own refusals: a control character in a part header, a form cut off mid-way.
+      if (err instanceof Error && /Malformed part header|Unexpected end of form|Multipart: Boundary not found/.test(err.message)) {
+        return next(new DomainError('validation', 'The upload could not be read: file names must not contain control characters, and the form must arrive whole.'));
+      }
       next(err);
     });
   };

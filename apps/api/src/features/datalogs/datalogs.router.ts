@@ -4,6 +4,7 @@ import { findDatalogMapping, insertDatalog, listJobDatalogs, newId, saveDatalogM
 import { DomainError } from '@revloop/domain';
 import { CANONICAL_CHANNELS, CHANNEL_INFO, headerSignature, mapHeaders, trimGridToCsv, wotTableToCsv, type CanonicalChannel } from '@revloop/domain/datalog';
 import type { JobState } from '@revloop/domain/jobs';
+import { safeUploadName } from '@revloop/domain/calibration';
 import { parseShopSettings } from '@revloop/domain/shops';
 import type { AppDeps } from '../../app';
 import { authorizeRow, requireShop } from '../../http/auth-context';
@@ -87,6 +88,8 @@ export function createDatalogsRouter(deps: AppDeps): Router {
       try {
         if (!req.file || !temp) throw new DomainError('validation', 'Choose a CSV log file to upload (form field "file").');
         const { map } = parseInput(uploadFieldsSchema, req.body ?? {});
+        // Browsers send the name as raw UTF-8 while multer reads it as Latin-1; the bytes convert back losslessly.
+        const originalName = safeUploadName(Buffer.from(req.file.originalname, 'latin1').toString('utf8')).slice(0, 200);
         const headers = await readLogHeaders(temp);
         const signature = headerSignature(headers);
         const overrides = await resolveOverrides(db, auth.shop.id, headers, signature, map);
@@ -98,7 +101,7 @@ export function createDatalogsRouter(deps: AppDeps): Router {
           shop_id: auth.shop.id,
           job_id: job.id,
           round: job.round,
-          original_name: req.file.originalname.slice(0, 200) || 'datalog.csv',
+          original_name: originalName,
           sha256: blob.sha256,
           size_bytes: blob.size,
           header_signature: signature,

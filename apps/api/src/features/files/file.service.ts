@@ -33,7 +33,6 @@ import {
 import { JOB_STATE_LABELS } from '@revloop/domain/jobs';
 import type { AppDeps } from '../../app';
 import type { AuthContext } from '../../http/auth-context';
-import type { Mailer } from '../mail/mailer';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';
 import { fileLinkQuery } from './file-links';
@@ -182,10 +181,6 @@ async function revisionPlace(db: Db, shopId: string, jobId: string, module: Cali
   return { number: (previous?.revision_number ?? 0) + 1, parentId: parent?.id ?? null };
 }
 
-/** A mailer that adds the signed download links to the revision-ready e-mail the job move sends. */
-function withDownloadLinks(mailer: Mailer, lines: string[]): Mailer {
-  return { send: (mail) => mailer.send({ ...mail, text: `${mail.text}\n\n${lines.join('\n')}` }) };
-}
 
 export interface UploadResult {
   file: ApiCalibrationFile;
@@ -292,7 +287,7 @@ async function followJobFlow(deps: AppDeps, auth: ShopAuth, job: JobListRow, row
     'Download (each link works for 7 days without signing in):',
     ...files.map((f) => `- ${fileLabel(f)}: ${deps.env.APP_ORIGIN}/api/files/${f.id}/download?${fileLinkQuery(deps.env.FILE_LINK_SECRET, auth.shop.id, f.id, clock.now())}`),
   ];
-  await moveJob({ ...deps, mailer: withDownloadLinks(deps.mailer, lines) }, auth, job.id, 'with_customer', { bySystem: true });
+  await moveJob(deps, auth, job.id, 'with_customer', { bySystem: true, extraEmailLines: lines });
   return { waitingFor: [], movedTo: 'with_customer' };
 }
 

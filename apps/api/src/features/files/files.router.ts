@@ -1,6 +1,6 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
 import { findCalibrationFile, findJob, type CalibrationFileRow, type JobListRow } from '@revloop/db';
-import { DomainError, isDomainError } from '@revloop/domain';
+import { DomainError } from '@revloop/domain';
 import { diffImages, hexView, pageDiffRanges } from '@revloop/domain/calibration';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { z } from 'zod';
@@ -61,19 +61,8 @@ function sendFile(deps: AppDeps, res: Response, row: CalibrationFileRow, name: s
   deps.blobs.stream(row.sha256).pipe(res);
 }
 
-/**
- * The shared upload step, with busboy's own refusals (a control character in a part header, a cut-off form) turned
- * into a clear 400 instead of an unexplained 500; multer has already removed any partial file.
- */
 function calibrationUpload(deps: AppDeps): RequestHandler {
-  const upload = singleFileUpload(deps.blobs, 'file', (req) => parseShopSettings(requireShop(req).shop.settings).uploadLimitMiB * 1024 * 1024);
-  return (req, res, next) =>
-    upload(req, res, (err?: unknown) => {
-      if (err instanceof Error && !isDomainError(err) && /Malformed part header|Unexpected end of form/.test(err.message)) {
-        return next(new DomainError('validation', 'The upload could not be read: file names must not contain control characters, and the form must arrive whole.'));
-      }
-      next(err);
-    });
+  return singleFileUpload(deps.blobs, 'file', (req) => parseShopSettings(requireShop(req).shop.settings).uploadLimitMiB * 1024 * 1024);
 }
 
 export function createFilesRouter(deps: AppDeps): Router {

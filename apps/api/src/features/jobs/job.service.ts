@@ -166,13 +166,14 @@ async function noticeForMove(db: Db, job: JobListRow, to: JobState) {
  * Moves a job: the domain decides whether the move is allowed, the update only lands if nobody moved it first.
  * `bySystem` is for moves that follow from an upload (a read makes the job ready, a log starts the review):
  * the person uploading may not make the move by hand, but its precondition is still checked.
+ * `extraEmailLines` are added to the e-mails the move sends (e.g. signed download links for a revision).
  */
 export async function moveJob(
   deps: AppDeps,
   auth: AuthContext & { shop: { id: string } },
   jobId: string,
   to: JobState,
-  options: { bySystem?: boolean } = {},
+  options: { bySystem?: boolean; extraEmailLines?: string[] } = {},
 ): Promise<JobListRow> {
   const { db, clock } = deps;
   const job = await loadJob(db, auth, jobId);
@@ -209,7 +210,8 @@ export async function moveJob(
   });
   const fresh = (await findJob(db, auth.shop.id, job.id))!;
   for (const n of await noticeForMove(db, fresh, to)) {
-    await notify(db, deps.mailer, { shopId: auth.shop.id, jobId: job.id, link: jobLink(deps.env.APP_ORIGIN, job.id), at: clock.now(), ...n }, auth.user.id);
+    const emailLines = [...(n.emailLines ?? []), ...(options.extraEmailLines ? ['', ...options.extraEmailLines] : [])];
+    await notify(db, deps.mailer, { shopId: auth.shop.id, jobId: job.id, link: jobLink(deps.env.APP_ORIGIN, job.id), at: clock.now(), ...n, emailLines }, auth.user.id);
   }
   return fresh;
 }
