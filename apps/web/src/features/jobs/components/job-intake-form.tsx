@@ -34,6 +34,35 @@ export function keepFilledRequests(requests: SpecialRequests): SpecialRequests {
 
 const radioClasses = 'size-4 accent-accent-600';
 
+/** Field names for the error summary, so "Fill in this field." says which field. */
+const SUMMARY_LABELS: Record<string, string> = {
+  'customer.customerUserId': 'Customer',
+  'customer.name': 'Customer name',
+  'customer.email': 'Customer e-mail',
+  'vehicle.vehicleId': 'Vehicle on file',
+  'vehicle.vehicle.vin': 'VIN',
+  'vehicle.vehicle.modelYear': 'Model year',
+  'vehicle.vehicle.description': 'Make, model and trim',
+  'vehicle.vehicle.engine.displacementL': 'Displacement',
+  'vehicle.vehicle.engine.cylinders': 'Cylinders',
+  'vehicle.vehicle.engine.family': 'Engine family',
+  'vehicle.vehicle.revLimitRpm': 'Current rev limit',
+  'vehicle.vehicle.transmission.gearRatios': 'Gear ratios',
+  'vehicle.vehicle.finalDrive': 'Final drive ratio',
+  'vehicle.vehicle.tyreSize': 'Tyre size',
+  'vehicle.vehicle.curbMassKg': 'Curb mass',
+  'vehicle.vehicle.fuel.octane': 'Pump octane',
+  'vehicle.vehicle.fuel.ethanolPct': 'Ethanol',
+  packageId: 'Package',
+  goals: 'Goals',
+  cautionsAccepted: 'Cautions',
+};
+
+const summaryLine = (path: string, message: string) => {
+  const label = SUMMARY_LABELS[path] ?? SUMMARY_LABELS[path.replace(/\.\d+$/, '')];
+  return label ? `${label}: ${message}` : message;
+};
+
 export interface JobIntakeFormProps {
   me: Me;
   /** A customer preselected from the dealer's customer list. */
@@ -77,7 +106,7 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
   const { errors, isSubmitted } = form.formState;
   const flat = isSubmitted ? flattenFieldErrors(errors) : [];
   const items = [
-    ...flat.map((e) => ({ fieldId: fieldId('intake', e.path), message: e.message })),
+    ...flat.map((e) => ({ fieldId: fieldId('intake', e.path), message: summaryLine(e.path, e.message) })),
     ...(create.error ? [{ message: errorMessage(create.error) }] : []),
   ];
   const err = (path: string) => flat.find((e) => e.path === path)?.message;

@@ -43,7 +43,7 @@ export function ShopSettingsForm({ shop, canEdit }: { shop: Shop; canEdit: boole
           <input type="checkbox" className="mt-0.5 size-4 accent-accent-600" {...form.register('holdUntilPaid')} />
           <span>
             <span className="font-medium">Hold new jobs until paid</span>
-            <span className="block text-ink-600">A new job waits on hold until its package is paid.</span>
+            <span className="block text-ink-600">A direct customer's new job waits on hold until its package is paid; dealer jobs are paid from the dealer balance.</span>
           </span>
         </label>
       </fieldset>
