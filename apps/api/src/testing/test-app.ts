@@ -5,7 +5,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
-import { createDb, migrateToLatest, type Db } from '@revloop/db';
+import { createDb, migrateToLatest, snapshotDb, type Db } from '@revloop/db';
 import { seedDemo, type DemoIds } from '../../../../seeds/demo/seed-demo';
 import { DEMO_PASSWORD } from '../../../../seeds/demo/people';
 import { createApp } from '../app';
@@ -46,14 +46,37 @@ export interface TestApp {
 
 export const TEST_WEBHOOK_SECRET = 'whsec_revloop_test';
 
+interface SeededTemplate {
+  snapshot: Buffer;
+  ids: DemoIds;
+  dataDir: string;
+}
+let template: Promise<SeededTemplate> | undefined;
+
+/**
+ * The demo scenario is seeded once per test process and every test gets its own in-memory copy of it. The blob
+ * store is shared within the process: it is content-addressed, so a test's uploads never change what another reads.
+ */
+function seededTemplate(): Promise<SeededTemplate> {
+  template ??= (async () => {
+    const db = createDb(':memory:');
+    await migrateToLatest(db);
+    const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-api-test-'));
+    process.once('exit', () => fs.rmSync(dataDir, { recursive: true, force: true }));
+    const ids = await seedDemo(db, new Date(), { blobs: new BlobStore(dataDir) });
+    const snapshot = snapshotDb(db);
+    await db.destroy();
+    return { snapshot, ids, dataDir };
+  })();
+  return template;
+}
+
 /** The whole API on an in-memory database loaded with the demo scenario, a fake clock and a live local SMTP mailbox. */
 export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean } = {}): Promise<TestApp> {
-  const db = createDb(':memory:');
-  await migrateToLatest(db);
+  const { snapshot, ids, dataDir } = await seededTemplate();
+  const db = createDb(snapshot);
   const clock = new FakeClock();
-  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-api-test-'));
   const blobs = new BlobStore(dataDir);
-  const ids = await seedDemo(db, clock.now(), { blobs });
   const smtp = await startSmtpFake();
   // The fake needs the webhook address before the app exists, so the listener opens first and takes the app after.
   const listener = options.stripe ? createServer() : undefined;
@@ -104,7 +127,6 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
       }
       await smtp.close();
       await db.destroy();
-      fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
 }
