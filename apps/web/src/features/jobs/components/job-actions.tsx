@@ -112,7 +112,7 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
         )}
         {main.map((transition, index) => button(transition, index === 0 && !CONFIRMED[transition.to] ? 'primary' : 'secondary'))}
         {canAssign && (
-          <Button size={size} variant="ghost" onClick={() => setAssigning(true)} aria-label={`Assign ${jobRef(job)}`}>
+          <Button size={size} variant="ghost" onClick={() => setAssigning(true)} aria-label={`${job.tuner ? 'Reassign' : 'Assign'} ${jobRef(job)}`}>
             {job.tuner ? 'Reassign' : 'Assign'}
           </Button>
         )}
