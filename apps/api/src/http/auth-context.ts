@@ -12,6 +12,7 @@ import {
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { defineAbilityFor, type Action, type Actor, type AppAbility, type SubjectName, asSubject } from '@revloop/domain/auth';
+import { READ_ONLY_REASON_TEXT } from '@revloop/domain/billing';
 import { readCookie } from './cookies';
 import type { Clock } from './clock';
 import {
@@ -24,6 +25,8 @@ import {
 
 export interface AuthContext {
   sessionId: string;
+  /** Why the shop is read-only, in words for the banner; null when it is not. */
+  readOnlyReason: string | null;
   user: UserRow;
   shop: ShopRow | null;
   membership: MembershipRow | null;
@@ -70,7 +73,14 @@ export async function loadAuthContext(
   }
   const billing = shop ? await findShopSubscription(db, shop.id) : undefined;
   const actor = buildActor(user, membership, shop, billing);
-  return { sessionId, user, shop, membership, actor, ability: defineAbilityFor(actor) };
+  const readOnlyReason = !shop
+    ? null
+    : shop.status !== 'active'
+      ? 'This shop is suspended by the platform: you can read and download, but not change anything.'
+      : billing?.read_only_reason
+        ? READ_ONLY_REASON_TEXT[billing.read_only_reason]
+        : null;
+  return { sessionId, user, shop, membership, actor, readOnlyReason, ability: defineAbilityFor(actor) };
 }
 
 /** Reads the session cookie on every request; a renewed session gets a fresh cookie. */

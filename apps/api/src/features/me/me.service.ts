@@ -10,7 +10,7 @@ export async function toMe(db: Db, auth: AuthContext) {
     role: actor.platformAdmin ? 'platform_admin' : (actor.role ?? null),
     platformAdmin: actor.platformAdmin,
     shop: shop
-      ? { id: shop.id, name: shop.name, status: shop.status, readOnly: actor.shopReadOnly, currency: shop.currency }
+      ? { id: shop.id, name: shop.name, status: shop.status, readOnly: actor.shopReadOnly, readOnlyReason: auth.readOnlyReason, currency: shop.currency }
       : null,
     dealer: dealer ? { id: dealer.id, name: dealer.name } : null,
     actor,

@@ -38,7 +38,7 @@ function ReadOnlyBanner({ me }: { me: Me }) {
   }
   return (
     <Banner tone="warn" title="This shop is read-only: you can read and download, but not change anything.">
-      The owner can settle the subscription to restore it.
+      {me.shop.readOnlyReason ?? 'The owner can settle the subscription to restore it.'}
     </Banner>
   );
 }

@@ -8,7 +8,7 @@ export interface Me {
   user: { id: string; email: string; name: string; unitSystem: UnitSystem };
   role: ShopRole | 'platform_admin' | null;
   platformAdmin: boolean;
-  shop: { id: string; name: string; status: 'active' | 'suspended'; readOnly: boolean; currency: string } | null;
+  shop: { id: string; name: string; status: 'active' | 'suspended'; readOnly: boolean; readOnlyReason: string | null; currency: string } | null;
   dealer: { id: string; name: string } | null;
   actor: Actor;
 }
