@@ -46,6 +46,7 @@ export async function seedBilling(db: Db, now: Date, shops: { kestrel: SeededSho
     { daysAgo: 306, planId: 'solo', seats: 1, status: 'active' },
     { daysAgo: 300, planId: 'workshop', seats: 2, status: 'active' },
     { daysAgo: 210, planId: 'workshop', seats: 3, status: 'active' },
+    { daysAgo: 45, planId: 'workshop', seats: 5, status: 'active' },
   ]);
   await history(shops.harbor.shopId, [
     { daysAgo: 180, planId: 'workshop', seats: 2, status: 'trialing' },

@@ -64,3 +64,17 @@ export async function revokeInvitation(db: Db, shopId: string, id: string, at: s
 export async function findInvitation(db: Db, shopId: string, id: string): Promise<InvitationRow | undefined> {
   return db.selectFrom('invitations').selectAll().where('shop_id', '=', shopId).where('id', '=', id).executeTakeFirst();
 }
+
+/** Live invitations that will take a tuner seat when accepted (owners and tuners). */
+export async function countPendingSeatInvitations(db: Db, shopId: string, now: string): Promise<number> {
+  const row = await db
+    .selectFrom('invitations')
+    .select((eb) => eb.fn.countAll<number>().as('n'))
+    .where('shop_id', '=', shopId)
+    .where('role', 'in', ['owner', 'tuner'])
+    .where('accepted_at', 'is', null)
+    .where('revoked_at', 'is', null)
+    .where('expires_at', '>', now)
+    .executeTakeFirstOrThrow();
+  return Number(row.n);
+}

@@ -4,3 +4,4 @@ export * from './subscription.rules';
 export * from './mrr';
 export * from './ledger.rules';
 export * from './billing.schemas';
+export * from './plan-limits.rules';

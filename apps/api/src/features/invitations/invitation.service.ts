@@ -16,6 +16,7 @@ import {
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
+import { assertSeatFor } from '../billing/plan-limits.service';
 import type { Mailer } from '../mail/mailer';
 import { invitationMail } from '../mail/mail-templates';
 import { hashPassword, verifyPassword } from '../auth/password';
@@ -54,6 +55,7 @@ export async function createInvitation(
     const membership = await findMembershipOfUser(db, input.shopId, existing.id);
     if (membership?.status === 'active') throw new DomainError('conflict', 'This person is already a member of the shop.');
   }
+  if (input.role === 'owner' || input.role === 'tuner') await assertSeatFor(db, input.shopId, now);
   const token = generateToken();
   const expiresAt = new Date(now.getTime() + INVITATION_TTL_MS);
   const invitation = await insertInvitation(db, {

@@ -34,6 +34,7 @@ import type { VehicleInput } from '@revloop/domain/vehicles';
 import type { AppDeps } from '../../app';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
+import { assertJobRoom } from '../billing/plan-limits.service';
 import { afterDealerDebit, debitDealerForJob } from '../billing/ledger.service';
 import { notify, type NotificationKind } from '../notifications/notify.service';
 
@@ -290,6 +291,7 @@ export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
   const pkg = await findPackage(db, auth.shop.id, input.packageId);
   if (!pkg || pkg.active !== 1) throw new DomainError('validation', 'Choose one of the shop’s packages.');
   const settings = parseShopSettings(auth.shop.settings);
+  await assertJobRoom(db, auth.shop.id, clock.now());
   const { jobId, debit } = await db.transaction().execute(async (trx) => {
     const customer = await resolveCustomer(trx, auth, input.customer, at);
     const vehicle = await resolveVehicle(trx, auth.shop.id, customer, input.vehicle, at);

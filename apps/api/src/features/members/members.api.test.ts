@@ -56,6 +56,19 @@ describe('invitations', () => {
     expect(foreignDealer.status).toBe(400);
   });
 
+  it('keeps owners and tuners within the plan’s paid seats', async () => {
+    // Harbor pays for 2 Workshop seats and has an owner and a tuner (demo billing scenario).
+    const owner = await signIn(t.app, 'owner@harbor.test');
+    const refused = await owner.post('/api/invitations').send({ email: 'third@harbor.test', role: 'tuner' });
+    expect(refused.status).toBe(402);
+    expect(refused.body.error.message).toMatch(/seats of the Workshop plan are taken/);
+    // Customers take no seat.
+    expect((await owner.post('/api/invitations').send({ email: 'driver@harbor.test', role: 'customer' })).status).toBe(201);
+    const members = (await owner.get('/api/members')).body.data as Array<{ id: string; email: string }>;
+    const customer = members.find((m) => m.email === 'customer@harbor.test')!;
+    expect((await owner.patch(`/api/members/${customer.id}`).send({ role: 'tuner' })).status).toBe(402);
+  });
+
   it('lets only owners invite', async () => {
     for (const email of ['tuner@kestrel.test', 'dealer@kestrel.test', 'customer@kestrel.test']) {
       const agent = await signIn(t.app, email);

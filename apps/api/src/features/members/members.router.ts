@@ -15,7 +15,11 @@ import type { AppDeps } from '../../app';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
+import { assertSeatFor } from '../billing/plan-limits.service';
 import { invalidateUserSessions } from '../auth/session.service';
+
+/** Owners and tuners work the bench, so they fill the plan's tuner seats. */
+const takesSeat = (role: string) => role === 'owner' || role === 'tuner';
 
 const changeRoleSchema = z.object({ role: z.enum(SHOP_ROLES), dealerId: z.string().min(1).nullish() });
 
@@ -65,6 +69,7 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
     const row = await loadForChange(auth, req.params.id);
     const input = parseInput(changeRoleSchema, req.body);
     if (input.role !== 'owner') await assertNotLastOwner(auth.shop.id, row);
+    if (takesSeat(input.role) && !takesSeat(row.role) && row.status === 'active') await assertSeatFor(db, auth.shop.id, clock.now());
     const dealerId = input.role === 'dealer' || input.role === 'customer' ? (input.dealerId ?? (input.role === 'customer' ? row.dealer_id : null)) : null;
     if (input.role === 'dealer' && !dealerId) throw new DomainError('validation', 'Choose the dealer account this user acts for.');
     if (dealerId && !(await findDealer(db, auth.shop.id, dealerId))) throw new DomainError('validation', 'That dealer is not part of this shop.');
@@ -89,6 +94,7 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
     router.post(`/:id/${path}`, async (req, res) => {
       const auth = requireShop(req);
       const row = await loadForChange(auth, req.params.id);
+      if (status === 'active' && row.status !== 'active' && takesSeat(row.role)) await assertSeatFor(db, auth.shop.id, clock.now());
       if (status === 'deactivated') {
         await assertNotLastOwner(auth.shop.id, row);
         // Deactivating ends the member's sessions in this shop at once, not at their next expiry.
