@@ -1,24 +1,11 @@
 import { expect, test, type Page } from '@playwright/test';
+import { TEST_VEHICLE } from '../../apps/api/src/testing/test-vehicle';
 import { signIn } from './support';
 
 // The API starts the local Stripe stand-in on its own port + 1 (scripts/e2e-server.sh sets PORT).
 const FAKE = `http://127.0.0.1:${Number(process.env.E2E_PORT ?? 8181) + 1}`;
 const DAY = 86_400;
 
-// A well-formed VIN: the 49 CFR 565 check-digit example in REFERENCES.md [STD/3P].
-const NEW_VEHICLE = {
-  vin: '1M8GDM9AXKP042788',
-  modelYear: 1989,
-  description: 'Browser test hatchback, 2.0 turbo I4',
-  engine: { displacementL: 2, cylinders: 4, aspiration: 'turbocharged', family: '2.0 turbo I4' },
-  transmission: { type: 'manual', gearRatios: [3.36, 2.09, 1.47, 1.1, 0.87, 0.71] },
-  finalDrive: 3.47,
-  tyreSize: '245/40R20',
-  curbMassKg: 1400,
-  fuel: { type: 'gasoline', octane: { scale: 'AKI', rating: 93 }, ethanolPct: 10 },
-  modifications: { parts: ['intake'], notes: '' },
-  revLimitRpm: 6800,
-};
 
 test.describe.configure({ mode: 'serial' });
 
@@ -95,7 +82,7 @@ test('a dealer tops up the balance and a new job is debited from it', async ({ p
   const opened = await page.request.post('/api/jobs', {
     data: {
       customer: { kind: 'existing', customerUserId: customers[0]!.id },
-      vehicle: { kind: 'new', vehicle: NEW_VEHICLE },
+      vehicle: { kind: 'new', vehicle: TEST_VEHICLE },
       packageId: packages[0]!.id,
       goals: 'Opened from the browser test',
       cautionsAccepted: true,

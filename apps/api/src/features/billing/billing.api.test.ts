@@ -2,6 +2,7 @@ import Stripe from 'stripe';
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { createTestApp, signIn, TEST_WEBHOOK_SECRET, type TestApp } from '../../testing/test-app';
+import { TEST_VEHICLE } from '../../testing/test-vehicle';
 
 let t: TestApp;
 let stripe: Stripe;
@@ -16,20 +17,6 @@ beforeEach(() => {
 
 const fake = () => t.stripe!.control;
 
-// A well-formed VIN: the 49 CFR 565 check-digit example in REFERENCES.md [STD/3P].
-const newVehicle = {
-  vin: '1M8GDM9AXKP042788',
-  modelYear: 1989,
-  description: 'Test hatchback, 2.0 turbo I4',
-  engine: { displacementL: 2, cylinders: 4, aspiration: 'turbocharged', family: '2.0 turbo I4' },
-  transmission: { type: 'manual', gearRatios: [3.36, 2.09, 1.47, 1.1, 0.87, 0.71] },
-  finalDrive: 3.47,
-  tyreSize: '245/40R20',
-  curbMassKg: 1400,
-  fuel: { type: 'gasoline', octane: { scale: 'AKI', rating: 93 }, ethanolPct: 10 },
-  modifications: { parts: ['intake'], notes: '' },
-  revLimitRpm: 6800,
-};
 const DAY = 86_400;
 
 /** Submits the hosted payment page the way the browser form does. */
@@ -136,7 +123,7 @@ describe('customer pays a job', () => {
     const customer = await signIn(t.app, 'riley.moss@kestrel.test');
     const me = (await customer.get('/api/me')).body;
     const packageId = (await customer.get('/api/packages')).body.data[0].id as string;
-    const opened = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: me.user.id }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId, goals: 'Hold me', cautionsAccepted: true });
+    const opened = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: me.user.id }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId, goals: 'Hold me', cautionsAccepted: true });
     expect(opened.body.data).toMatchObject({ state: 'on_hold', heldFrom: 'intake' });
     const started = await customer.post('/api/billing/checkout').send({ purpose: 'job', jobId: opened.body.data.id });
     await pay(started.body.url);
@@ -161,7 +148,7 @@ describe('dealer wholesale', () => {
     const customers = (await dealer.get('/api/customers')).body.data as Array<{ id: string }>;
     const packages = (await dealer.get('/api/packages')).body.data as Array<{ id: string }>;
     const pkg = await t.db.selectFrom('packages').selectAll().where('id', '=', packages[0]!.id).executeTakeFirstOrThrow();
-    const intake = { customer: { kind: 'existing', customerUserId: customers[0]!.id }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg.id, goals: 'Stage one', cautionsAccepted: true };
+    const intake = { customer: { kind: 'existing', customerUserId: customers[0]!.id }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg.id, goals: 'Stage one', cautionsAccepted: true };
     const opened = await dealer.post('/api/jobs').send(intake);
     expect(opened.status).toBe(201);
     const ledger = (await dealer.get(`/api/dealers/${dealerId}/ledger`)).body.data;
@@ -191,7 +178,7 @@ describe('dealer wholesale', () => {
     const dealer = await signIn(t.app, 'dealer@kestrel.test');
     const customers = (await dealer.get('/api/customers')).body.data as Array<{ id: string }>;
     const pkg = await t.db.selectFrom('packages').selectAll().where('shop_id', '=', t.ids.kestrel.shopId).where('dealer_price_minor', '=', 69900).executeTakeFirstOrThrow();
-    const intake = { customer: { kind: 'existing', customerUserId: customers[0]!.id }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg.id, goals: 'Both units', cautionsAccepted: true };
+    const intake = { customer: { kind: 'existing', customerUserId: customers[0]!.id }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg.id, goals: 'Both units', cautionsAccepted: true };
     // [CALC] 1.00 + 1,200.00 = 1,201.00; after 699.00 → 502.00 < 699.00: one mail
     expect((await dealer.post('/api/jobs').send(intake)).status).toBe(201);
     expect(mailsTo('dealer@kestrel.test', /^Low balance/)).toHaveLength(1);

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
+import { TEST_VEHICLE } from '../../testing/test-vehicle';
 
 let t: TestApp;
 beforeEach(async () => {
@@ -16,20 +17,6 @@ const kestrelJob = (pred: (j: TestApp['ids']['jobs'][number]) => boolean) => {
   return job;
 };
 
-// A real, well-formed VIN: 49 CFR 565 check digit example from REFERENCES.md [STD/3P].
-const newVehicle = {
-  vin: '1M8GDM9AXKP042788',
-  modelYear: 1989,
-  description: 'Test hatchback, 2.0 turbo I4',
-  engine: { displacementL: 2, cylinders: 4, aspiration: 'turbocharged', family: '2.0 turbo I4' },
-  transmission: { type: 'manual', gearRatios: [3.36, 2.09, 1.47, 1.1, 0.87, 0.71] },
-  finalDrive: 3.47,
-  tyreSize: '245/40R20',
-  curbMassKg: 1400,
-  fuel: { type: 'gasoline', octane: { scale: 'AKI', rating: 93 }, ethanolPct: 10 },
-  modifications: { parts: ['intake'], notes: '' },
-  revLimitRpm: 6800,
-};
 
 async function firstPackageId(agent: ReturnType<typeof request.agent>) {
   return (await agent.get('/api/packages')).body.data[0].id as string;
@@ -78,7 +65,7 @@ describe('job lists follow the role', () => {
     const pkg = await firstPackageId(owner);
     await owner
       .post('/api/jobs')
-      .send({ customer: { kind: 'new', name: '=HYPERLINK("http://x")', email: 'inject@kestrel.test' }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg, goals: 'x', cautionsAccepted: true });
+      .send({ customer: { kind: 'new', name: '=HYPERLINK("http://x")', email: 'inject@kestrel.test' }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg, goals: 'x', cautionsAccepted: true });
     const res = await owner.get('/api/jobs/export.csv?state=intake');
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);
@@ -95,7 +82,7 @@ describe('opening a job', () => {
     const me = (await customer.get('/api/me')).body;
     const res = await customer.post('/api/jobs').send({
       customer: { kind: 'existing', customerUserId: me.user.id },
-      vehicle: { kind: 'new', vehicle: newVehicle },
+      vehicle: { kind: 'new', vehicle: TEST_VEHICLE },
       packageId: await firstPackageId(customer),
       goals: 'More torque for towing.',
       specialRequests: { revLimit: { rpm: 7000, notes: '' } },
@@ -117,9 +104,9 @@ describe('opening a job', () => {
   it('refuses an intake without accepted cautions, and a customer opening for someone else', async () => {
     const customer = await signIn(t.app, 'customer@kestrel.test');
     const pkg = await firstPackageId(customer);
-    const noCautions = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: 'x' }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg, goals: 'x', cautionsAccepted: false });
+    const noCautions = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: 'x' }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg, goals: 'x', cautionsAccepted: false });
     expect(noCautions.status).toBe(400);
-    const other = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: t.ids.kestrel.customerIds[1] }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg, goals: 'x', cautionsAccepted: true });
+    const other = await customer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: t.ids.kestrel.customerIds[1] }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg, goals: 'x', cautionsAccepted: true });
     expect(other.status).toBe(400);
   });
 
@@ -128,10 +115,10 @@ describe('opening a job', () => {
     const customers = (await dealer.get('/api/customers')).body.data as Array<{ id: string; email: string }>;
     expect(customers.map((c) => c.email).sort()).toEqual(['dcustomer@kestrel.test', 'taylor.reyes@kestrel.test']);
     const pkg = await firstPackageId(dealer);
-    const ok = await dealer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: customers[0]!.id }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg, goals: 'x', cautionsAccepted: true });
+    const ok = await dealer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: customers[0]!.id }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg, goals: 'x', cautionsAccepted: true });
     expect(ok.status).toBe(201);
     expect(ok.body.data.dealer.id).toBe(t.ids.kestrel.dealerId);
-    const direct = await dealer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: t.ids.kestrel.customerIds[0] }, vehicle: { kind: 'new', vehicle: newVehicle }, packageId: pkg, goals: 'x', cautionsAccepted: true });
+    const direct = await dealer.post('/api/jobs').send({ customer: { kind: 'existing', customerUserId: t.ids.kestrel.customerIds[0] }, vehicle: { kind: 'new', vehicle: TEST_VEHICLE }, packageId: pkg, goals: 'x', cautionsAccepted: true });
     expect(direct.status).toBe(400);
   });
 
@@ -140,7 +127,7 @@ describe('opening a job', () => {
     const pkg = await firstPackageId(owner);
     const body = (vin: string, vinCheckDigitOverride = false) => ({
       customer: { kind: 'existing', customerUserId: t.ids.kestrel.customerIds[0] },
-      vehicle: { kind: 'new', vehicle: { ...newVehicle, vin, vinCheckDigitOverride } },
+      vehicle: { kind: 'new', vehicle: { ...TEST_VEHICLE, vin, vinCheckDigitOverride } },
       packageId: pkg,
       goals: 'x',
       cautionsAccepted: true,
@@ -248,7 +235,7 @@ describe('role × route matrix with another shop’s ids', () => {
         agent.get(`/api/jobs/${harborJob.id}/messages`),
         agent.post(`/api/jobs/${harborJob.id}/messages`).send({ body: 'hello' }),
         agent.get(`/api/vehicles/${harborVehicle}`),
-        agent.put(`/api/vehicles/${harborVehicle}`).send(newVehicle),
+        agent.put(`/api/vehicles/${harborVehicle}`).send(TEST_VEHICLE),
         agent.put(`/api/packages/${harborPackage}`).send({ name: 'x', modules: ['ECM'], retailPriceMinor: 1, dealerPriceMinor: 1, roundsIncluded: 1 }),
         agent.patch(`/api/packages/${harborPackage}`).send({ active: false }),
       ]);
@@ -293,7 +280,7 @@ describe('role × route matrix with another shop’s ids', () => {
 describe('vehicles', () => {
   it('shows what the numbers mean: speed per gear from ratios and tyre size', async () => {
     const customer = await signIn(t.app, 'customer@kestrel.test');
-    const created = await customer.post('/api/vehicles').send({ vehicle: { ...newVehicle, transmission: { type: 'manual', gearRatios: [1.0] }, finalDrive: 3.15 } });
+    const created = await customer.post('/api/vehicles').send({ vehicle: { ...TEST_VEHICLE, transmission: { type: 'manual', gearRatios: [1.0] }, finalDrive: 3.15 } });
     expect(created.status).toBe(201);
     const v = created.body.data;
     // REFERENCES.md: 245/40R20 → D 704.0 mm, C 2211.7 mm [MEM]; 1.00 gear, 3.15 final: 3000 rpm → 126.38 km/h [CALC].
