@@ -1,3 +1,4 @@
+import os from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { DomainError, type DomainErrorCode } from '@revloop/domain';
 import type { AnalyzeOptions, DatalogReport } from '@revloop/domain/datalog';
@@ -18,12 +19,37 @@ export type AnalyzeMessage =
 // A plain .mjs entry: worker threads do not get the TypeScript loader of vitest, so it loads tsx itself.
 const WORKER_ENTRY = new URL('./analyze-file.worker.mjs', import.meta.url);
 
+/**
+ * At most this many analyses run at once (one per core); the rest wait their turn, so a burst of uploads cannot
+ * start dozens of threads that each hold a large log in memory.
+ */
+const MAX_RUNNING = Math.max(1, os.availableParallelism());
+let running = 0;
+const waiting: Array<() => void> = [];
+
+async function withSlot<T>(work: () => Promise<T>): Promise<T> {
+  // A finishing analysis hands its slot straight to the next in line, so the count never overshoots.
+  if (running >= MAX_RUNNING) await new Promise<void>((resolve) => waiting.push(resolve));
+  else running += 1;
+  try {
+    return await work();
+  } finally {
+    const next = waiting.shift();
+    if (next) next();
+    else running -= 1;
+  }
+}
+
 /** Reads and analyses a datalog file on a worker thread so a 90 MB log never blocks the request thread. */
 export function analyzeFileInWorker(
   filePath: string,
   options: WorkerAnalyzeOptions = {},
   onProgress?: (fraction: number) => void,
 ): Promise<DatalogReport> {
+  return withSlot(() => runWorker(filePath, options, onProgress));
+}
+
+function runWorker(filePath: string, options: WorkerAnalyzeOptions, onProgress?: (fraction: number) => void): Promise<DatalogReport> {
   return new Promise((resolve, reject) => {
     const job: AnalyzeJob = { filePath, options };
     const worker = new Worker(WORKER_ENTRY, { workerData: job });
