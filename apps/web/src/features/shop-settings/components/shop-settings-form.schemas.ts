@@ -11,6 +11,7 @@ export const shopSettingsFormSchema = z
     name: z.string().trim().min(2, 'Use at least 2 characters.').max(80),
     uploadLimitMiB: shopSettingsSchema.shape.uploadLimitMiB,
     holdUntilPaid: z.boolean(),
+    analysis: shopSettingsSchema.shape.analysis,
     defaults: z.array(logRequestSchema.extend({ family: z.string().trim().min(1, 'Name the engine family.').max(80) })),
   })
   .superRefine((values, ctx) => {
@@ -21,11 +22,13 @@ export const shopSettingsFormSchema = z
       seen.add(key);
     });
   })
-  .transform(({ name, uploadLimitMiB, holdUntilPaid, defaults }) => ({
+  .transform(({ name, uploadLimitMiB, holdUntilPaid, analysis, defaults }) => ({
     name,
     settings: {
       uploadLimitMiB,
       holdUntilPaid,
+      // An empty field means "use Revloop's default", so only the shop's own values are kept.
+      analysis: Object.fromEntries(Object.entries(analysis).filter(([, value]) => value !== undefined)),
       logRequestDefaults: Object.fromEntries(defaults.map(({ family, ...request }) => [family, request])),
     } satisfies Partial<ShopSettings>,
   }));
@@ -38,6 +41,7 @@ export function shopSettingsFormDefaults(shop: Shop): ShopSettingsFormValues {
     name: shop.name,
     uploadLimitMiB: shop.settings.uploadLimitMiB,
     holdUntilPaid: shop.settings.holdUntilPaid,
+    analysis: shop.settings.analysis ?? {},
     defaults: Object.entries(shop.settings.logRequestDefaults).map(([family, request]) => ({ family, ...request })),
   };
 }

@@ -1,6 +1,6 @@
 import { useFieldArray, useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { CANONICAL_CHANNELS, CHANNEL_INFO, defaultLogRequest } from '@revloop/domain/datalog';
+import { CANONICAL_CHANNELS, CHANNEL_INFO, DEFAULT_ANALYSIS_SETTINGS, defaultLogRequest } from '@revloop/domain/datalog';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
@@ -12,6 +12,17 @@ import { fieldId, flattenFieldErrors } from '../../jobs/components/intake-errors
 import type { Shop } from '../api/get-shop';
 import { useUpdateShop } from '../api/update-shop';
 import { shopSettingsFormDefaults, shopSettingsFormSchema, type ShopSettingsFormOutput, type ShopSettingsFormValues } from './shop-settings-form.schemas';
+
+/** The log-check thresholds a shop may tune; the hints say what each one decides. */
+const THRESHOLDS = [
+  { key: 'warmCoolantC', label: 'Warm engine at (°C)', hint: 'Coolant at or above this counts as warm (common practice: 80–105 °C).' },
+  { key: 'wotThresholdPct', label: 'Full throttle at (%)', hint: 'Pedal or throttle at or above this is a full-throttle pull.' },
+  { key: 'partialPedalPct', label: 'Half-pressed pedal above (%)', hint: 'A sustained pedal above this that never reaches full throttle fails the pull.' },
+  { key: 'trimRpmBinWidth', label: 'Trim grid rpm step', hint: 'Width of each fuel-trim cell in rpm.' },
+  { key: 'trimMapBinWidthKpa', label: 'Trim grid MAP step (kPa)', hint: 'Height of each fuel-trim cell in kPa.' },
+  { key: 'trimMinSamples', label: 'Samples per trim cell', hint: 'Fewer samples than this leave a cell out as noise.' },
+  { key: 'wotRpmBinWidth', label: 'Full-throttle rpm step', hint: 'Width of each rpm bin in the full-throttle table.' },
+] as const;
 
 const asNumber = { setValueAs: (value: unknown) => (value === '' || value === undefined ? undefined : Number(value)) };
 
@@ -47,6 +58,24 @@ export function ShopSettingsForm({ shop, canEdit }: { shop: Shop; canEdit: boole
           </span>
         </label>
       </fieldset>
+
+      <section aria-labelledby="thresholds-title" className="flex flex-col gap-3">
+        <div>
+          <h3 id="thresholds-title" className="text-base font-semibold text-ink-900">
+            Log checks
+          </h3>
+          <p className="text-sm text-ink-600">Leave a field empty to use Revloop's default, shown greyed in the field.</p>
+        </div>
+        <fieldset disabled={!canEdit} className="grid gap-4 sm:grid-cols-2">
+          {THRESHOLDS.map(({ key, label, hint }) => (
+            <Field key={key} id={`shop-analysis-${key}`} label={label} hint={hint} error={errors.analysis?.[key]?.message}>
+              {(a11y) => (
+                <Input {...a11y} type="number" inputMode="decimal" placeholder={String(DEFAULT_ANALYSIS_SETTINGS[key])} {...form.register(`analysis.${key}`, asNumber)} />
+              )}
+            </Field>
+          ))}
+        </fieldset>
+      </section>
 
       <section aria-labelledby="defaults-title" className="flex flex-col gap-3">
         <div>
