@@ -207,7 +207,7 @@ export async function seedJobs(
   for (const [i, step] of plan.entries()) {
     // Every fourth Kestrel job comes through the dealer; the first direct customer gets several.
     const viaDealer = kestrel && dealerCustomers.length > 0 && i % 4 === 1;
-    const customerId = viaDealer ? dealerCustomers[i % dealerCustomers.length]! : directCustomers[i % directCustomers.length]!;
+    const customerId = viaDealer ? dealerCustomers[Math.floor(i / 4) % dealerCustomers.length]! : directCustomers[i % directCustomers.length]!;
     const dealerId = viaDealer ? shop.dealerId : null;
     const ageHours = 24 * (60 - i) + Math.floor(rand() * 12);
     let vehicle = vehicleOf.get(`${customerId}:${i % 2}`);
