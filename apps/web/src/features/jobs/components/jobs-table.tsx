@@ -14,9 +14,9 @@ import { Banner } from '../../../components/ui/banner';
 import { buttonClasses } from '../../../components/ui/button';
 import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
+import { TableView } from '../../../components/ui/table-view';
 import { textLinkClasses } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
-import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { getJobsExportHref } from '../api/export-jobs';
@@ -59,8 +59,6 @@ const columns = helper.columns([
   helper.accessor('updatedAt', { id: 'updated', header: 'Updated', cell: (info) => formatDateTime(info.getValue()) }),
 ]);
 
-const SORT_ICON = { asc: '▲', desc: '▼' } as const;
-
 export interface JobsTableProps {
   state: JobsScreenState;
   onChange: (patch: Partial<JobsScreenState>) => void;
@@ -96,7 +94,6 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
 
   if (jobs.isError) return <Banner tone="bad">{errorMessage(jobs.error)}</Banner>;
   const meta = jobs.data?.meta;
-  const rows = table.getRowModel().rows;
 
   return (
     <div className="flex flex-col gap-3">
@@ -109,58 +106,13 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
           Export CSV
         </a>
       </div>
-      <div className="overflow-x-auto rounded-lg border border-ink-200 bg-white">
-        <table className="w-full min-w-[56rem] border-collapse text-left text-sm">
-          <caption className="sr-only">Jobs, sorted by {state.sort.replace('_', ' ')} {state.dir === 'asc' ? 'ascending' : 'descending'}</caption>
-          <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  return (
-                    <th
-                      key={header.id}
-                      scope="col"
-                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : header.column.getCanSort() ? 'none' : undefined}
-                      className="border-b border-ink-200 px-3 py-2.5 font-medium"
-                    >
-                      {header.column.getCanSort() ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded uppercase hover:text-ink-900">
-                          <table.FlexRender header={header} />
-                          <span aria-hidden="true" className={cn('text-[0.6rem]', !sorted && 'opacity-30')}>
-                            {sorted ? SORT_ICON[sorted] : '▲'}
-                          </span>
-                        </button>
-                      ) : (
-                        <table.FlexRender header={header} />
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {rows.length === 0 ? (
-              <tr>
-                <td colSpan={columns.length} className="px-4 py-8 text-center text-ink-600">
-                  {jobs.isPending ? 'Loading…' : 'No job matches the filters.'}
-                </td>
-              </tr>
-            ) : (
-              rows.map((row) => (
-                <tr key={row.id} className="border-b border-ink-100 last:border-b-0 hover:bg-ink-50">
-                  {row.getAllCells().map((cell) => (
-                    <td key={cell.id} className="px-3 py-2.5 align-middle whitespace-nowrap text-ink-800">
-                      <table.FlexRender cell={cell} />
-                    </td>
-                  ))}
-                </tr>
-              ))
-            )}
-          </tbody>
-        </table>
-      </div>
+      <TableView
+        table={table}
+        dense
+        minWidthClass="min-w-[56rem]"
+        caption={`Jobs, sorted by ${state.sort.replace('_', ' ')} ${state.dir === 'asc' ? 'ascending' : 'descending'}`}
+        emptyMessage={jobs.isPending ? 'Loading…' : 'No job matches the filters.'}
+      />
       <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
         <label className="flex items-center gap-2 whitespace-nowrap">
           Rows per page
