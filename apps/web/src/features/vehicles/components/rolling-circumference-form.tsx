@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { Input } from '../../../components/ui/input';
-import { errorMessage } from '../../../lib/form-errors';
+import { errorMessage, fieldErrorsFrom } from '../../../lib/form-errors';
 import type { Vehicle } from '../api/get-vehicles';
 import { useUpdateVehicle } from '../api/update-vehicle';
 
@@ -15,6 +15,7 @@ export function RollingCircumferenceForm({ vehicle, onDone }: { vehicle: Vehicle
   const measured = vehicle.spec.rollingCircumferenceMm ?? null;
   const [text, setText] = useState(measured === null ? '' : String(measured));
   const update = useUpdateVehicle();
+  const error = update.error ? (fieldErrorsFrom(update.error).rollingCircumferenceMm ?? errorMessage(update.error)) : undefined;
   const save = (rollingCircumferenceMm: number | null) =>
     update.mutate({ vehicleId: vehicle.id, vehicle: { ...vehicle.spec, rollingCircumferenceMm } }, { onSuccess: onDone });
   return (
@@ -26,20 +27,20 @@ export function RollingCircumferenceForm({ vehicle, onDone }: { vehicle: Vehicle
         save(text.trim() === '' ? null : Number(text));
       }}
     >
-      <Field id="vehicle-rollingCircumferenceMm" label="Measured rolling circumference (mm)" hint={MEASURE_HINT} error={update.error ? errorMessage(update.error) : undefined}>
+      <Field id="vehicle-rollingCircumferenceMm" label="Measured rolling circumference (mm)" hint={MEASURE_HINT} error={error}>
         {(a11y) => <Input {...a11y} type="number" inputMode="decimal" step="1" className="sm:max-w-48" value={text} onChange={(event) => setText(event.target.value)} />}
       </Field>
-      <div className="flex flex-wrap justify-end gap-2">
-        <Button variant="secondary" onClick={onDone} disabled={update.isPending}>
-          Cancel
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" pending={update.isPending}>
+          Save
         </Button>
         {measured !== null && (
           <Button variant="secondary" onClick={() => save(null)} disabled={update.isPending}>
-            Use the tyre size instead
+            Use the tyre size
           </Button>
         )}
-        <Button type="submit" pending={update.isPending}>
-          Save circumference
+        <Button variant="ghost" onClick={onDone} disabled={update.isPending}>
+          Cancel
         </Button>
       </div>
     </form>

@@ -14,6 +14,9 @@ import type { Vehicle } from '../api/get-vehicles';
 import { RollingCircumferenceForm } from './rolling-circumference-form';
 import { circumferenceDeviation, formatLength, formatMass, formatSpeed, speedUnit } from './vehicle-units';
 
+/** "gasoline" mid-sentence, but a blend keeps its capital: "E85". */
+const fuelName = (label: string) => (/^E\d/.test(label) ? label : label.toLowerCase());
+
 const MOD_LABELS = new Map<string, string>(COMMON_MODIFICATIONS.map((m) => [m.id, m.label]));
 
 /** The vehicle as entered at intake. */
@@ -103,7 +106,7 @@ export function VehicleNumbersCard({ vehicle, units, canEdit }: { vehicle: Vehic
           </dd>
           <dt className="text-ink-600">Stoichiometric AFR</dt>
           <dd className="text-ink-900">
-            {derived.stoichAfr.toFixed(2)} : 1 for {fuelLabel(vehicleFuelSpec(spec)).toLowerCase()} — the air mass that burns one unit of fuel completely (λ = 1)
+            {derived.stoichAfr.toFixed(2)} : 1 for {fuelName(fuelLabel(vehicleFuelSpec(spec)))} — the air mass that burns one unit of fuel completely (λ = 1)
           </dd>
         </dl>
         {editing && <RollingCircumferenceForm vehicle={vehicle} onDone={() => setEditing(false)} />}
