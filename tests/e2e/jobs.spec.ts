@@ -22,10 +22,10 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
   await expect(page.getByRole('heading', { name: 'Open a job' })).toBeVisible();
 
   await page.getByRole('radio', { name: 'Another vehicle' }).check();
-  // 1G4AH59H?5G118341: the check digit is 4 (49 CFR 565 Table V worked example [STD], REFERENCES "VIN check digit"); 0 is wrong.
+  // 1G4AH59H?5G118341: the check digit is 4 (49 CFR 565.15(c) Table V worked example, Table IV weights [STD], REFERENCES "VIN check digit"); 0 is wrong.
   await page.getByLabel('VIN').fill('1G4AH59H05G118341');
   await expect(page.getByText('Check digit is "0" but the other characters give "4"')).toBeVisible();
-  // Position 10 "5" with a numeric position 7 → 2005 (49 CFR 565.15(b) [STD]).
+  // Position 10 "5" with a numeric position 7 → 2005 (49 CFR 565.15(d) [STD]); WMI "1" is North American, so the rule applies.
   await expect(page.getByLabel('Model year')).toHaveValue('2005');
   await page.getByLabel('Keep this VIN as entered').check();
 
@@ -37,7 +37,7 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
   await page.getByLabel('Gear ratios, first gear first').fill('3.36 2.09 1.47 1.10 0.87');
   await page.getByLabel('Final drive ratio').fill('3.15');
   await page.getByLabel('Tyre size', { exact: true }).fill('245/40R20');
-  // D = 20·25.4 + 2·245·0.40 = 704.0 mm, C = π·D = 2211.7 mm (ISO 4000-1 / ETRTO [MEM], REFERENCES "metric tyre size").
+  // D = 20·25.4 + 2·245·0.40 = 704.0 mm, C = π·D = 2211.7 mm from the ISO 4000-1 / ETRTO designation [CALC] (REFERENCES "metric tyre size").
   await expect(page.getByText('245/40R20: diameter 704.0 mm, circumference 2,211.7 mm.')).toBeVisible();
   await page.getByLabel('Curb mass (kg)').fill('1500');
   await page.getByLabel('Pump octane').fill('91');

@@ -1,3 +1,4 @@
+import type { VehicleInput } from '@revloop/domain/vehicles';
 import type { Db } from '../client';
 import type { InsertableVehicleRow, VehicleRow } from './vehicle.table';
 
@@ -20,6 +21,19 @@ function scoped(db: Db, shopId: string, scope: VehicleScope) {
   return query;
 }
 
+/** The columns a validated vehicle fills: the spec as JSON and the fields kept beside it for search and reports. */
+export type VehicleColumns = Pick<VehicleRow, 'vin' | 'model_year' | 'description' | 'spec' | 'rolling_circumference_mm'>;
+
+export function vehicleColumns(vehicle: VehicleInput): VehicleColumns {
+  return {
+    vin: vehicle.vin,
+    model_year: vehicle.modelYear,
+    description: vehicle.description,
+    spec: JSON.stringify(vehicle),
+    rolling_circumference_mm: vehicle.rollingCircumferenceMm ?? null,
+  };
+}
+
 export async function insertVehicle(db: Db, row: InsertableVehicleRow): Promise<VehicleRow> {
   return db.insertInto('vehicles').values(row).returningAll().executeTakeFirstOrThrow();
 }
@@ -38,7 +52,7 @@ export async function updateVehicle(
   db: Db,
   shopId: string,
   id: string,
-  patch: Pick<VehicleRow, 'vin' | 'model_year' | 'description' | 'spec' | 'updated_at'>,
+  patch: VehicleColumns & Pick<VehicleRow, 'updated_at'>,
 ): Promise<VehicleRow | undefined> {
   return db.updateTable('vehicles').set(patch).where('shop_id', '=', shopId).where('id', '=', id).returningAll().executeTakeFirst();
 }

@@ -10,6 +10,8 @@ export interface VehicleTable {
   description: string;
   /** The whole validated vehicle input (domain `VehicleInput`) as JSON; vin, year and description are columns for search. */
   spec: string;
+  /** Measured rolling circumference in mm (mirrors spec.rollingCircumferenceMm); null = computed from the tyre size. */
+  rolling_circumference_mm: number | null;
   created_at: string;
   updated_at: string;
 }

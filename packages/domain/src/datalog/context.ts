@@ -1,5 +1,5 @@
 import { gearFromRpmAndSpeed } from '../vehicles/drivetrain';
-import { parseTyreSize } from '../vehicles/tyre';
+import { rollingCircumference } from '../vehicles/tyre';
 import type { AnalysisSettings } from './settings';
 import type { DatalogSeries } from './series';
 
@@ -9,6 +9,8 @@ export interface DatalogVehicle {
   finalDrive: number;
   /** Metric tyre size such as "245/40R20". */
   tyreSize: string;
+  /** Measured distance per wheel turn; when given it replaces the size's unloaded circumference. */
+  rollingCircumferenceMm?: number | null;
 }
 
 export interface AnalysisContext {
@@ -56,7 +58,7 @@ export function createContext(
     };
   } else if (vehicle !== undefined && rpm !== undefined && speed !== undefined) {
     gearKnown = true;
-    const circumference = parseTyreSize(vehicle.tyreSize).circumferenceMm;
+    const circumference = rollingCircumference(vehicle).circumferenceMm;
     gearAt = (i) =>
       gearFromRpmAndSpeed(
         rpm[i] as number,

@@ -6,6 +6,7 @@ export const datalogVehicleSchema = z.object({
   gearRatios: z.array(z.number().positive()).min(1),
   finalDrive: z.number().positive(),
   tyreSize: z.string().min(1),
+  rollingCircumferenceMm: z.number().positive().nullish(),
 });
 
 export const logRequestSchema = z.object({

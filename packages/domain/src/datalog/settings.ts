@@ -77,7 +77,8 @@ export const DEFAULT_ANALYSIS_SETTINGS: Readonly<AnalysisSettings> = {
   temperatureFlatlineMinS: 300,
   dropoutMinS: 0.5,
   outOfRangeMinSamples: 3,
-  // Sensor and physical ranges: OBD-II scaling limits (SAE J1979) and what an engine can do [CP].
+  // Sensor ranges: maf and spark_advance are SAE J1979 scaling limits (PID 10: 0–655.35 g/s; PID 0E: −64 to 63.5°)
+  // [3P: formulas as publicly tabulated]; every other range is a plausibility limit, what an engine can do [CP].
   physicalLimits: {
     rpm: [0, 12000],
     vehicle_speed: [0, 400],

@@ -61,7 +61,7 @@ describe('unit conversions against mathjs', () => {
 
 describe('stoichiometric ratios used for AFR logs', () => {
   it('match REFERENCES "stoichiometric AFR"', () => {
-    expect(stoichAfr({ kind: 'gasoline' })).toBeCloseTo(14.7, 1); // Heywood App. D [MEM]
+    expect(stoichAfr({ kind: 'gasoline' })).toBeCloseTo(14.7, 1); // US DOE Alternative Fuels Data Center [3P]
     expect(stoichAfr({ kind: 'ethanol_blend', ethanolPct: 85 })).toBeCloseTo(9.81, 2); // mass-weighted blend [CALC]
     expect(stoichAfr({ kind: 'ethanol_blend', ethanolPct: 10 })).toBeCloseTo(14.1, 2); // mass-weighted blend [CALC]
   });

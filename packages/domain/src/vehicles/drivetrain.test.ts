@@ -9,7 +9,7 @@ import {
   roadSpeedKmh,
   speedTable,
 } from './drivetrain';
-import { parseTyreSize } from './tyre';
+import { parseTyreSize, rollingCircumference } from './tyre';
 
 const C_245_40R20 = parseTyreSize('245/40R20').circumferenceMm;
 // A plausible six-speed for tests of the maths only; checks below do not depend on these being any real car's.
@@ -19,6 +19,17 @@ describe('roadSpeedKmh / engineRpmAt', () => {
   it('3000 rpm in 1.00 gear, 3.15 final, 245/40R20 → 126.38 km/h', () => {
     // REFERENCES.md: km/h = rpm·C[m]·60 / (1000·gear·final) [CALC]
     expect(roadSpeedKmh(3000, 1.0, 3.15, C_245_40R20)).toBeCloseTo(126.38, 2);
+  });
+
+  it('a measured rolling circumference of 2150 mm gives 122.85 km/h in the same case', () => {
+    // 3000·2.150·60 / (1000·1.00·3.15) = 387000/3150 = 122.857 km/h [CALC]; 2.8 % below the unloaded size's 126.38
+    const { circumferenceMm } = rollingCircumference({
+      tyreSize: '245/40R20',
+      rollingCircumferenceMm: 2150,
+    });
+    expect(roadSpeedKmh(3000, 1.0, 3.15, circumferenceMm)).toBeCloseTo(122.857, 3);
+    const unloaded = rollingCircumference({ tyreSize: '245/40R20', rollingCircumferenceMm: null });
+    expect(roadSpeedKmh(3000, 1.0, 3.15, unloaded.circumferenceMm)).toBeCloseTo(126.38, 2);
   });
 
   it('round-trips speed ↔ rpm (property)', () => {

@@ -5,7 +5,8 @@ import { afrToLambda, ethanolMassFraction, lambdaToAfr, parseFuelOption, stoichA
 
 describe('stoichAfr', () => {
   it('uses the textbook single-fuel ratios', () => {
-    // Heywood, Internal Combustion Engine Fundamentals, App. D; gasoline 14.7 as the trade quotes it [MEM]
+    // US DOE Alternative Fuels Data Center, fuel properties comparison: gasoline 14.7 by mass [3P]
+    // (Heywood, Internal Combustion Engine Fundamentals, App. D gives 14.6 for CH1.87 [MEM])
     expect(stoichAfr({ kind: 'gasoline' })).toBe(14.7);
     // Heywood App. D: diesel ≈ 14.5, methanol 6.4–6.5 [MEM]
     expect(stoichAfr({ kind: 'diesel' })).toBe(14.5);
@@ -17,7 +18,7 @@ describe('stoichAfr', () => {
     // REFERENCES.md blend rule, ethanol 0.789 kg/L, gasoline 0.745 kg/L: E85 → 9.81, E10 → 14.10 [CALC]
     expect(stoichAfr({ kind: 'ethanol_blend', ethanolPct: 85 })).toBeCloseTo(9.81, 2);
     expect(stoichAfr({ kind: 'ethanol_blend', ethanolPct: 10 })).toBeCloseTo(14.1, 2);
-    // pure ends of the blend are the pure fuels: gasoline 14.7, ethanol 9.0 (Heywood App. D) [MEM]
+    // pure ends of the blend are the pure fuels: gasoline 14.7, ethanol 9.0 (US DOE AFDC fuel properties) [3P]
     expect(stoichAfr({ kind: 'ethanol_blend', ethanolPct: 0 })).toBeCloseTo(14.7, 10);
     expect(stoichAfr({ kind: 'ethanol_blend', ethanolPct: 100 })).toBeCloseTo(9.0, 10);
   });

@@ -8,7 +8,10 @@ export type FuelSpec =
   | { kind: 'ethanol_blend'; ethanolPct: number }
   | { kind: 'custom'; stoichAfr: number };
 
-/** Stoichiometric air-fuel ratios by mass (Heywood, App. D; gasoline and ethanol as the trade quotes them). */
+/**
+ * Stoichiometric air-fuel ratios by mass. Gasoline 14.7 and ethanol 9.0: US DOE Alternative Fuels Data Center fuel
+ * properties table (a textbook gives 14.6 for CH1.87); diesel and methanol: Heywood, App. D.
+ */
 export const STOICH_AFR = {
   gasoline: 14.7,
   ethanol: 9.0,

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { stoichAfr } from './fuel';
 import { type VehicleFormValues, vehicleFuelSpec, vehicleInputSchema } from './vehicle.schemas';
 
-// Demo values for schema behaviour only; the VIN is the 49 CFR 565 Table V example.
+// Demo values for schema behaviour only; the VIN is the 49 CFR 565.15(c) Table V worked example.
 const valid: VehicleFormValues = {
   vin: '1g4ah59h45g118341',
   modelYear: 2005,
@@ -46,6 +46,50 @@ describe('vehicleInputSchema', () => {
     expect(
       vehicleInputSchema.safeParse({ ...wrongDigit, vinCheckDigitOverride: true }).success,
     ).toBe(true);
+  });
+
+  it('keeps a VIN from outside North America without confirmation; the user gives the model year', () => {
+    // synthetic ISO 3779 VIN with a European WMI and fillers, not a real vehicle [CALC]
+    const vehicle = vehicleInputSchema.parse({
+      ...valid,
+      vin: 'WVWZZZ1KZ6W000001',
+      modelYear: 2006,
+    });
+    expect(vehicle).toMatchObject({
+      vin: 'WVWZZZ1KZ6W000001',
+      modelYear: 2006,
+      vinCheckDigitOverride: false,
+    });
+    expect(issuesOf({ ...valid, vin: 'WVWZZZ1KZ6W000001', modelYear: undefined })[0]?.path).toBe(
+      'modelYear',
+    );
+  });
+
+  it('takes a measured rolling circumference, or none', () => {
+    expect(vehicleInputSchema.parse(valid).rollingCircumferenceMm).toBeUndefined();
+    expect(
+      vehicleInputSchema.parse({ ...valid, rollingCircumferenceMm: null }).rollingCircumferenceMm,
+    ).toBeNull();
+    // 2150 mm is 2.8 % under the 2211.7 mm of a 245/40R20 (π·704.0) [CALC]: a loaded tyre
+    expect(
+      vehicleInputSchema.parse({ ...valid, rollingCircumferenceMm: 2150 }).rollingCircumferenceMm,
+    ).toBe(2150);
+  });
+
+  it('refuses a measured circumference that cannot belong to the tyre size', () => {
+    // 1900 mm is 14 % under the 2211.7 mm of a 245/40R20 [CALC]
+    expect(issuesOf({ ...valid, rollingCircumferenceMm: 1900 })).toEqual([
+      {
+        path: 'rollingCircumferenceMm',
+        message: expect.stringMatching(/^1900 mm is 14 % below the 2212 mm of a 245\/40R20/),
+      },
+    ]);
+    expect(issuesOf({ ...valid, rollingCircumferenceMm: 500 })[0]?.message).toMatch(
+      /at least 1000 mm/,
+    );
+    expect(
+      issuesOf({ ...valid, tyreSize: 'banana', rollingCircumferenceMm: 2150 }).map((i) => i.path),
+    ).toEqual(['tyreSize']);
   });
 
   it('wants gear ratios, first gear first, except on a CVT', () => {

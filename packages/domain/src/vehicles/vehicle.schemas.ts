@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { isDomainError } from '../errors';
 import type { FuelSpec } from './fuel';
 import { parseTyreSize } from './tyre';
-import { checkVin } from './vin';
+import { checkVin, vinNeedsConfirmation } from './vin';
 
 export const ASPIRATIONS = [
   'naturally_aspirated',
@@ -84,6 +84,11 @@ export const tyreSizeSchema = z
     }
   });
 
+/** Bounds of a measured rolling circumference: a 10-inch wheel's smallest tyre up to a 37-inch off-road tyre. */
+export const ROLLING_CIRCUMFERENCE_RANGE_MM = [1000, 3000] as const;
+/** A loaded tyre rolls a few percent short of its size; a bigger gap means a slip of the tape or the wrong size. */
+export const ROLLING_CIRCUMFERENCE_MAX_DEVIATION = 0.1;
+
 const gearRatioSchema = z
   .number()
   .min(0.3, 'A gear ratio is at least 0.30.')
@@ -92,7 +97,7 @@ const gearRatioSchema = z
 export const vehicleInputSchema = z
   .object({
     vin: vinSchema,
-    /** Set when the user confirms a VIN whose check digit does not match (e.g. an imported car). */
+    /** Set when the user confirms a North American VIN whose check digit does not match. */
     vinCheckDigitOverride: z.boolean().default(false),
     modelYear: z
       .number()
@@ -123,6 +128,18 @@ export const vehicleInputSchema = z
       .min(1.5, 'Final drive ratio is at least 1.50.')
       .max(7, 'Final drive ratio is at most 7.00.'),
     tyreSize: tyreSizeSchema,
+    /** Distance covered per wheel turn, measured on the car; absent or null = computed from the tyre size. */
+    rollingCircumferenceMm: z
+      .number()
+      .min(
+        ROLLING_CIRCUMFERENCE_RANGE_MM[0],
+        `A rolling circumference is at least ${ROLLING_CIRCUMFERENCE_RANGE_MM[0]} mm.`,
+      )
+      .max(
+        ROLLING_CIRCUMFERENCE_RANGE_MM[1],
+        `A rolling circumference is at most ${ROLLING_CIRCUMFERENCE_RANGE_MM[1]} mm.`,
+      )
+      .nullish(),
     curbMassKg: z
       .number()
       .min(300, 'Curb mass is at least 300 kg.')
@@ -170,12 +187,24 @@ export const vehicleInputSchema = z
       });
     }
     const vin = checkVin(vehicle.vin);
-    if (vin.wellFormed && !vin.checkDigitOk && !vehicle.vinCheckDigitOverride) {
+    if (vinNeedsConfirmation(vin) && !vehicle.vinCheckDigitOverride) {
       ctx.addIssue({
         code: 'custom',
         path: ['vin'],
         message: `${vin.warnings.join(' ')} Confirm to keep it as entered.`,
       });
+    }
+    const measured = vehicle.rollingCircumferenceMm;
+    if (measured !== null && measured !== undefined) {
+      const { code, circumferenceMm } = parseTyreSize(vehicle.tyreSize);
+      const deviation = measured / circumferenceMm - 1;
+      if (Math.abs(deviation) > ROLLING_CIRCUMFERENCE_MAX_DEVIATION) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['rollingCircumferenceMm'],
+          message: `${measured} mm is ${Math.abs(deviation * 100).toFixed(0)} % ${deviation < 0 ? 'below' : 'above'} the ${circumferenceMm.toFixed(0)} mm of a ${code}; a loaded tyre rolls only a few percent short. Measure again, or check the tyre size.`,
+        });
+      }
     }
     if (vehicle.fuel.type !== 'gasoline' && vehicle.fuel.ethanolPct > 0) {
       ctx.addIssue({

@@ -1,10 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { checkVin, vinCheckDigit, vinModelYear } from './vin';
+import {
+  NOT_ENCODED_WARNING,
+  checkVin,
+  vinCheckDigit,
+  vinModelYear,
+  vinNeedsConfirmation,
+  vinRegion,
+} from './vin';
 
 describe('vinCheckDigit', () => {
   it.each([
-    // 49 CFR 565 Table V worked example: Σ 411 → 4 [STD]
+    // 49 CFR 565.15(c) Table V worked example (weights of Table IV): Σ 411 → 4 [STD]
     ['1G4AH59H?5G118341', '4'],
     // widely reproduced example [3P]
     ['1M8GDM9A?KP042788', 'X'],
@@ -57,7 +64,7 @@ describe('vinCheckDigit', () => {
 });
 
 describe('vinModelYear', () => {
-  it('1M8GDM9AXKP042788 → 1989 (position 7 numeric, K) [STD 49 CFR 565.15(b),(d)]', () => {
+  it('1M8GDM9AXKP042788 → 1989 (position 7 numeric, K) [STD 49 CFR 565.15(d)]', () => {
     expect(vinModelYear('1M8GDM9AXKP042788')).toBe(1989);
     expect(checkVin('1M8GDM9AXKP042788').modelYear).toBe(1989);
   });
@@ -67,7 +74,7 @@ describe('vinModelYear', () => {
   });
 
   it('1G4AH59H45G118341 → 2005', () => {
-    // position 10 "5", position 7 numeric: 1980 + index of "5" (25) [STD 49 CFR 565.15(b)]
+    // position 10 "5", position 7 numeric: 1980 + index of "5" (25) [STD 49 CFR 565.15(d)]
     expect(vinModelYear('1G4AH59H45G118341')).toBe(2005);
   });
 });
@@ -90,5 +97,79 @@ describe('checkVin refuses malformed input', () => {
 
   it('normalises case and spaces', () => {
     expect(checkVin(' 1g4ah59h45g 118341 ').vin).toBe('1G4AH59H45G118341');
+  });
+});
+
+describe('VINs from outside North America (ISO 3779 / ISO 3780)', () => {
+  it.each([
+    // ISO 3780 regions by the WMI's first character, as widely reproduced; not checked against the standard's text [MEM]
+    ['1', 'north_america'],
+    ['2', 'north_america'],
+    ['5', 'north_america'],
+    ['A', 'africa'],
+    ['H', 'africa'],
+    ['J', 'asia'],
+    ['R', 'asia'],
+    ['S', 'europe'],
+    ['W', 'europe'],
+    ['Z', 'europe'],
+    ['6', 'oceania'],
+    ['7', 'oceania'],
+    ['8', 'south_america'],
+    ['9', 'south_america'],
+    ['0', 'unassigned'],
+  ])('a WMI starting with %s is from %s', (first, region) => {
+    expect(vinRegion(`${first}XXXXXXXXXXXXXXXX`)).toBe(region);
+  });
+
+  // Synthetic VIN built to the ISO 3779 layout, not a real vehicle [CALC]: WMI from region W (Europe), filler ZZZ in
+  // positions 4–6 and Z in position 9 where a North American VIN has its check digit.
+  const EUROPEAN = 'WVWZZZ1KZ6W000001';
+
+  it('accepts a European VIN with fillers, warns, and leaves the model year to the user', () => {
+    const result = checkVin(EUROPEAN);
+    expect(result).toMatchObject({
+      region: 'europe',
+      northAmerican: false,
+      wellFormed: true,
+      modelYear: null,
+      errors: [],
+      warnings: [NOT_ENCODED_WARNING],
+    });
+    expect(vinNeedsConfirmation(result)).toBe(false);
+  });
+
+  it('refuses the same characters behind a North American WMI (position 9 is no check digit) [STD 49 CFR 565.15(c)]', () => {
+    const result = checkVin(`1${EUROPEAN.slice(1)}`);
+    expect(result.wellFormed).toBe(false);
+    expect(result.errors.join(' ')).toMatch(/Position 9 is the check digit/);
+  });
+
+  it('does not decode position 10 outside North America: "U" is no year code but is accepted [CALC]', () => {
+    const result = checkVin('WVWZZZ1KZUW000001');
+    expect(result).toMatchObject({ wellFormed: true, modelYear: null });
+  });
+
+  it('still applies the ISO 3779 alphabet everywhere: no I, O or Q [MEM]', () => {
+    expect(checkVin('WVWZZZ1KZ6W00000O').wellFormed).toBe(false);
+    expect(checkVin('WVWZZZ1KZ6W0000').wellFormed).toBe(false);
+  });
+
+  it('JH2RC360?MM101581 → 5, the sample of the older 49 CFR 565 text; its Asian WMI makes it a note, not a rule [3P]', () => {
+    // sample calculation of 49 CFR 565 before the 2008 rewrite, as reproduced by vsource.org and myvindecoder.com [3P]
+    expect(vinCheckDigit('JH2RC3600MM101581')).toBe('5');
+    const result = checkVin('JH2RC3605MM101581');
+    expect(result).toMatchObject({
+      region: 'asia',
+      checkDigitOk: true,
+      modelYear: null,
+      warnings: [NOT_ENCODED_WARNING],
+    });
+    expect(vinNeedsConfirmation(checkVin('JH2RC3601MM101581'))).toBe(false);
+  });
+
+  it('a North American VIN with a wrong check digit still needs confirming [3P]', () => {
+    expect(vinNeedsConfirmation(checkVin('1M8GDM9A1KP042788'))).toBe(true);
+    expect(vinNeedsConfirmation(checkVin('1M8GDM9AXKP042788'))).toBe(false);
   });
 });

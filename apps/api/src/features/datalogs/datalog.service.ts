@@ -58,7 +58,7 @@ export async function readLogHeaders(filePath: string): Promise<string[]> {
 /** The drivetrain facts for gear detection; a CVT has no fixed ratios, so the gear is then not worked out. */
 export function datalogVehicleOf(spec: VehicleInput): DatalogVehicle | undefined {
   if (spec.transmission.gearRatios.length === 0) return undefined;
-  return { gearRatios: spec.transmission.gearRatios, finalDrive: spec.finalDrive, tyreSize: spec.tyreSize };
+  return { gearRatios: spec.transmission.gearRatios, finalDrive: spec.finalDrive, tyreSize: spec.tyreSize, rollingCircumferenceMm: spec.rollingCircumferenceMm };
 }
 
 export async function vehicleSpecOf(db: Db, job: JobListRow): Promise<VehicleInput> {

@@ -283,7 +283,7 @@ describe('vehicles', () => {
     const created = await customer.post('/api/vehicles').send({ vehicle: { ...TEST_VEHICLE, transmission: { type: 'manual', gearRatios: [1.0] }, finalDrive: 3.15 } });
     expect(created.status).toBe(201);
     const v = created.body.data;
-    // REFERENCES.md: 245/40R20 → D 704.0 mm, C 2211.7 mm [MEM]; 1.00 gear, 3.15 final: 3000 rpm → 126.38 km/h [CALC].
+    // 245/40R20 → D = 20·25.4 + 2·245·0.40 = 704.0 mm, C = π·D = 2211.7 mm [CALC]; 1.00 gear, 3.15 final: 3000 rpm → 126.38 km/h [CALC].
     expect(v.derived.tyreDiameterMm).toBeCloseTo(704.0, 1);
     expect(v.derived.tyreCircumferenceMm).toBeCloseTo(2211.7, 1);
     expect(v.derived.speeds[0].kmhPer1000Rpm * 3).toBeCloseTo(126.38, 2);

@@ -1,8 +1,8 @@
 import { Router } from 'express';
-import { findMembershipOfUser, findVehicle, insertVehicle, listVehicles, newId, updateVehicle, type VehicleListRow, type VehicleScope } from '@revloop/db';
+import { findMembershipOfUser, findVehicle, insertVehicle, listVehicles, newId, updateVehicle, vehicleColumns, type VehicleListRow, type VehicleScope } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { Actor } from '@revloop/domain/auth';
-import { parseTyreSize, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type VehicleInput } from '@revloop/domain/vehicles';
+import { checkVin, parseTyreSize, rollingCircumference, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type CircumferenceSource, type VehicleInput } from '@revloop/domain/vehicles';
 import { z } from 'zod';
 import type { AppDeps } from '../../app';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
@@ -14,26 +14,44 @@ const scopeOf = (actor: Actor): VehicleScope =>
 
 const vehicleSubject = (row: VehicleListRow) => ({ shopId: row.shop_id, ownerUserId: row.owner_user_id, dealerId: row.dealer_id });
 
+interface VehicleDerived {
+  tyreDiameterMm: number;
+  /** Unloaded, from the tyre size. */
+  tyreCircumferenceMm: number;
+  /** The circumference the speeds (and the datalog analysis) use, and where it came from. */
+  rollingCircumferenceMm: number;
+  circumferenceSource: CircumferenceSource;
+  stoichAfr: number;
+  speeds: ReturnType<typeof speedTable>;
+}
+
 /** The vehicle with what its numbers mean: road speed per gear and the fuel's stoichiometric ratio. */
 function vehicleRowToVehicle(row: VehicleListRow) {
   const spec = JSON.parse(row.spec) as VehicleInput;
-  let derived: { tyreDiameterMm: number; tyreCircumferenceMm: number; stoichAfr: number; speeds: ReturnType<typeof speedTable> } | null;
+  let derived: VehicleDerived | null;
   try {
     const tyre = parseTyreSize(spec.tyreSize);
+    const rolling = rollingCircumference(spec);
     derived = {
       tyreDiameterMm: tyre.diameterMm,
       tyreCircumferenceMm: tyre.circumferenceMm,
+      rollingCircumferenceMm: rolling.circumferenceMm,
+      circumferenceSource: rolling.source,
       stoichAfr: stoichAfr(vehicleFuelSpec(spec)),
-      speeds: speedTable({ gearRatios: spec.transmission.gearRatios, finalDrive: spec.finalDrive, tyreCircumferenceMm: tyre.circumferenceMm, revLimitRpm: spec.revLimitRpm }),
+      speeds: speedTable({ gearRatios: spec.transmission.gearRatios, finalDrive: spec.finalDrive, tyreCircumferenceMm: rolling.circumferenceMm, revLimitRpm: spec.revLimitRpm }),
     };
   } catch {
     derived = null;
   }
+  const vin = checkVin(row.vin);
   return {
     id: row.id,
     owner: { id: row.owner_user_id, name: row.owner_name, email: row.owner_email },
     dealerId: row.dealer_id,
     vin: row.vin,
+    vinRegion: vin.region,
+    /** Notes on the VIN a user should see, e.g. that its region encodes no model year. */
+    vinWarnings: vin.warnings,
     modelYear: row.model_year,
     description: row.description,
     spec,
@@ -76,10 +94,7 @@ export function createVehiclesRouter({ db, clock }: AppDeps): Router {
       shop_id: auth.shop.id,
       owner_user_id: owner,
       dealer_id: membership.dealer_id,
-      vin: vehicle.vin,
-      model_year: vehicle.modelYear,
-      description: vehicle.description,
-      spec: JSON.stringify(vehicle),
+      ...vehicleColumns(vehicle),
       created_at: at,
       updated_at: at,
     });
@@ -92,7 +107,7 @@ export function createVehiclesRouter({ db, clock }: AppDeps): Router {
     const row = await findVehicle(db, auth.shop.id, req.params.id);
     authorizeRow(auth, 'update', 'Vehicle', row && vehicleSubject(row));
     const vehicle = parseInput(vehicleInputSchema, req.body);
-    await updateVehicle(db, auth.shop.id, row!.id, { vin: vehicle.vin, model_year: vehicle.modelYear, description: vehicle.description, spec: JSON.stringify(vehicle), updated_at: clock.now().toISOString() });
+    await updateVehicle(db, auth.shop.id, row!.id, { ...vehicleColumns(vehicle), updated_at: clock.now().toISOString() });
     res.json({ data: vehicleRowToVehicle((await findVehicle(db, auth.shop.id, row!.id))!) });
   });
 

@@ -8,6 +8,7 @@ import {
   OCTANE_SCALES,
   TRANSMISSION_LABELS,
   TRANSMISSION_TYPES,
+  VIN_REGION_LABELS,
   checkVin,
   parseTyreSize,
   stoichAfr,
@@ -22,7 +23,8 @@ import { Input, controlClasses } from '../../../components/ui/input';
 import { Select } from '../../../components/ui/select';
 import { cn } from '../../../lib/cn';
 import type { UnitSystem } from '../../auth/api/get-me';
-import { formatLength, formatMass } from '../../vehicles/components/vehicle-units';
+import { MEASURE_HINT } from '../../vehicles/components/rolling-circumference-form';
+import { circumferenceDeviation, formatLength, formatMass } from '../../vehicles/components/vehicle-units';
 import { fieldId } from './intake-errors';
 
 type IntakeForm = UseFormReturn<JobIntakeFormValues, unknown, JobIntakeInput>;
@@ -138,7 +140,10 @@ function OctaneFields({ value, onChange, error }: { value: { scale: 'RON' | 'AKI
   );
 }
 
-/** Live VIN feedback: a malformed VIN is an error, a wrong check digit a warning the user may confirm. */
+/**
+ * Live VIN feedback: a malformed VIN is an error; a North American VIN's wrong check digit a warning the user may
+ * confirm; a VIN from elsewhere a note that its model year comes from the user.
+ */
 function VinFeedback({ form }: { form: IntakeForm }) {
   const vin = useWatch({ control: form.control, name: 'vehicle.vehicle.vin' }) ?? '';
   const check = vin.trim() ? checkVin(vin) : null;
@@ -158,6 +163,15 @@ function VinFeedback({ form }: { form: IntakeForm }) {
           <li key={message}>{message}</li>
         ))}
       </ul>
+    );
+  }
+  if (!check.northAmerican) {
+    return (
+      <p className="rounded-lg border border-warn/30 bg-warn-soft p-3 text-sm text-warn" aria-live="polite">
+        <span aria-hidden="true">⚠ </span>
+        {check.region ? `A VIN from ${VIN_REGION_LABELS[check.region]}. ` : ''}
+        {check.warnings.join(' ')}
+      </p>
     );
   }
   if (!check.checkDigitOk) {
@@ -210,6 +224,20 @@ function TyreFeedback({ form, units }: { form: IntakeForm; units: UnitSystem }) 
   );
 }
 
+/** The measured rolling circumference against the tyre size, so a slip of the tape shows before submitting. */
+function CircumferenceFeedback({ form, units }: { form: IntakeForm; units: UnitSystem }) {
+  const measured = useWatch({ control: form.control, name: 'vehicle.vehicle.rollingCircumferenceMm' });
+  const code = useWatch({ control: form.control, name: 'vehicle.vehicle.tyreSize' }) ?? '';
+  if (typeof measured !== 'number' || !Number.isFinite(measured) || measured <= 0) return null;
+  const tyre = readTyre(code);
+  return (
+    <p className="text-xs text-ink-700" aria-live="polite">
+      {units === 'imperial' && `≈ ${formatLength(measured, 'imperial')}. `}
+      {typeof tyre === 'string' ? 'Speeds will use this instead of the tyre size.' : `${circumferenceDeviation(measured, tyre.circumferenceMm)} the ${tyre.code}'s ${formatLength(tyre.circumferenceMm, 'metric')}; speeds will use it.`}
+    </p>
+  );
+}
+
 function StoichFeedback({ form }: { form: IntakeForm }) {
   const fuel = useWatch({ control: form.control, name: 'vehicle.vehicle.fuel' });
   const afr = readStoich(fuel?.type, fuel?.ethanolPct);
@@ -247,12 +275,12 @@ export function IntakeVehicleFields({ form, units }: { form: IntakeForm; units: 
     <div className="flex flex-col gap-5">
       <div className="grid gap-4 sm:grid-cols-[2fr_1fr]">
         <div className="flex flex-col gap-1.5">
-          <Field id={id('vin')} label="VIN" hint="17 characters; the check digit (position 9) and model year (position 10) are read as you type." error={err('vin')}>
+          <Field id={id('vin')} label="VIN" hint="17 characters. For North American VINs (first character 1–5) the check digit (position 9) and model year (position 10) are read as you type." error={err('vin')}>
             {(a11y) => <Input {...a11y} autoComplete="off" spellCheck={false} className="font-mono uppercase" {...register('vehicle.vehicle.vin')} />}
           </Field>
           <VinFeedback form={form} />
         </div>
-        <Field id={id('modelYear')} label="Model year" hint="Filled in from the VIN; change it if needed." error={err('modelYear')}>
+        <Field id={id('modelYear')} label="Model year" hint="Filled in from a North American VIN; otherwise enter it." error={err('modelYear')}>
           {(a11y) => <Input {...a11y} type="number" inputMode="numeric" {...register('vehicle.vehicle.modelYear', asNumber)} />}
         </Field>
       </div>
@@ -289,10 +317,16 @@ export function IntakeVehicleFields({ form, units }: { form: IntakeForm; units: 
           {(a11y) => <Input {...a11y} type="number" step="0.01" inputMode="decimal" {...register('vehicle.vehicle.finalDrive', asNumber)} />}
         </Field>
         <div className="flex flex-col gap-1.5">
-          <Field id={id('tyreSize')} label="Tyre size" hint="Metric code as on the sidewall, e.g. 245/40R20." error={err('tyreSize')}>
+          <Field id={id('tyreSize')} label="Tyre size" hint="Metric code as on the sidewall, e.g. 245/40R20, 225/45R17 94W or 215/65R16C." error={err('tyreSize')}>
             {(a11y) => <Input {...a11y} autoComplete="off" {...register('vehicle.vehicle.tyreSize')} />}
           </Field>
           <TyreFeedback form={form} units={units} />
+        </div>
+        <div className="flex flex-col gap-1.5">
+          <Field id={id('rollingCircumferenceMm')} label="Measured rolling circumference (mm)" hint={MEASURE_HINT} error={err('rollingCircumferenceMm')}>
+            {(a11y) => <Input {...a11y} type="number" inputMode="decimal" {...register('vehicle.vehicle.rollingCircumferenceMm', asNumber)} />}
+          </Field>
+          <CircumferenceFeedback form={form} units={units} />
         </div>
         <div className="flex flex-col gap-1.5">
           <Field id={id('curbMassKg')} label="Curb mass (kg)" error={err('curbMassKg')}>

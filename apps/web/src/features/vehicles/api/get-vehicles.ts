@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SpeedTableRow, VehicleInput } from '@revloop/domain/vehicles';
+import type { CircumferenceSource, SpeedTableRow, VehicleInput, VinRegion } from '@revloop/domain/vehicles';
 import { api, type ListResponse } from '../../../lib/api-client';
 
 /** A vehicle with what its numbers mean, computed by the server from the same domain code. */
@@ -8,10 +8,22 @@ export interface Vehicle {
   owner: { id: string; name: string; email: string };
   dealerId: string | null;
   vin: string;
+  vinRegion: VinRegion | null;
+  /** Notes on the VIN, e.g. that VINs from its region encode no model year. */
+  vinWarnings: string[];
   modelYear: number;
   description: string;
   spec: VehicleInput;
-  derived: { tyreDiameterMm: number; tyreCircumferenceMm: number; stoichAfr: number; speeds: SpeedTableRow[] } | null;
+  derived: {
+    tyreDiameterMm: number;
+    /** Unloaded, from the tyre size. */
+    tyreCircumferenceMm: number;
+    /** What the speeds and the datalog analysis use: measured when given, else the tyre size's. */
+    rollingCircumferenceMm: number;
+    circumferenceSource: CircumferenceSource;
+    stoichAfr: number;
+    speeds: SpeedTableRow[];
+  } | null;
   createdAt: string;
 }
 

@@ -1,14 +1,21 @@
+import { useState } from 'react';
 import {
   ASPIRATION_LABELS,
   COMMON_MODIFICATIONS,
   TRANSMISSION_LABELS,
+  VIN_REGION_LABELS,
   fuelLabel,
   vehicleFuelSpec,
 } from '@revloop/domain/vehicles';
+import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import type { UnitSystem } from '../../auth/api/get-me';
 import type { Vehicle } from '../api/get-vehicles';
-import { formatLength, formatMass, formatSpeed, speedUnit } from './vehicle-units';
+import { RollingCircumferenceForm } from './rolling-circumference-form';
+import { circumferenceDeviation, formatLength, formatMass, formatSpeed, speedUnit } from './vehicle-units';
+
+/** "gasoline" mid-sentence, but a blend keeps its capital: "E85". */
+const fuelName = (label: string) => (/^E\d/.test(label) ? label : label.toLowerCase());
 
 const MOD_LABELS = new Map<string, string>(COMMON_MODIFICATIONS.map((m) => [m.id, m.label]));
 
@@ -23,6 +30,9 @@ export function VehicleSpecCard({ vehicle, units }: { vehicle: Vehicle; units: U
         <dd className="font-mono text-ink-900">
           {vehicle.vin}
           {spec.vinCheckDigitOverride && <span className="ml-2 font-sans text-xs text-warn">check digit confirmed by hand</span>}
+          {vehicle.vinRegion && vehicle.vinRegion !== 'north_america' && (
+            <span className="block font-sans text-xs text-ink-600">From {VIN_REGION_LABELS[vehicle.vinRegion]}: no check digit or model-year code is read from it.</span>
+          )}
         </dd>
         <dt className="text-ink-600">Model year</dt>
         <dd className="text-ink-900">{vehicle.modelYear}</dd>
@@ -38,7 +48,10 @@ export function VehicleSpecCard({ vehicle, units }: { vehicle: Vehicle; units: U
           {spec.transmission.gearRatios.length > 0 && `, ${spec.transmission.gearRatios.length} gears (${spec.transmission.gearRatios.map((r) => r.toFixed(2)).join(' · ')})`}; final drive {spec.finalDrive.toFixed(2)}
         </dd>
         <dt className="text-ink-600">Tyres</dt>
-        <dd className="text-ink-900">{spec.tyreSize}</dd>
+        <dd className="text-ink-900">
+          {spec.tyreSize}
+          {spec.rollingCircumferenceMm != null && `; measured rolling circumference ${formatLength(spec.rollingCircumferenceMm, units)}`}
+        </dd>
         <dt className="text-ink-600">Curb mass</dt>
         <dd className="text-ink-900">{formatMass(spec.curbMassKg, units)}</dd>
         <dt className="text-ink-600">Fuel</dt>
@@ -56,22 +69,47 @@ export function VehicleSpecCard({ vehicle, units }: { vehicle: Vehicle; units: U
 }
 
 /** What the numbers mean: road speed in each gear, the rolling tyre, and the fuel's stoichiometric ratio. */
-export function VehicleNumbersCard({ vehicle, units }: { vehicle: Vehicle; units: UnitSystem }) {
+export function VehicleNumbersCard({ vehicle, units, canEdit }: { vehicle: Vehicle; units: UnitSystem; canEdit: boolean }) {
   const { derived, spec } = vehicle;
+  const [editing, setEditing] = useState(false);
   if (!derived) return <Card title="What the numbers mean">The tyre size or gearing could not be read, so no speeds are shown.</Card>;
+  const measured = derived.circumferenceSource === 'measured';
   return (
-    <Card title="What the numbers mean" description={`From the gear ratios, final drive ${spec.finalDrive.toFixed(2)} and the ${spec.tyreSize} tyre.`}>
+    <Card
+      title="What the numbers mean"
+      description={`From the gear ratios, final drive ${spec.finalDrive.toFixed(2)} and ${measured ? 'the measured rolling circumference' : `the ${spec.tyreSize} tyre`}.`}
+      actions={
+        canEdit && !editing ? (
+          <Button size="sm" variant="secondary" onClick={() => setEditing(true)}>
+            {measured ? 'Change measured circumference' : 'Enter measured circumference'}
+          </Button>
+        ) : undefined
+      }
+    >
       <div className="flex flex-col gap-4 text-sm">
         <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[auto_1fr]">
           <dt className="text-ink-600">Tyre diameter</dt>
           <dd className="text-ink-900">{formatLength(derived.tyreDiameterMm, units)}</dd>
           <dt className="text-ink-600">Tyre circumference</dt>
-          <dd className="text-ink-900">{formatLength(derived.tyreCircumferenceMm, units)} — the distance covered per wheel turn</dd>
+          <dd className="text-ink-900">{formatLength(derived.tyreCircumferenceMm, units)} — from the size, unloaded</dd>
+          <dt className="text-ink-600">Used for speeds</dt>
+          <dd className="text-ink-900">
+            {measured ? (
+              <>
+                <strong>{formatLength(derived.rollingCircumferenceMm, units)}, measured</strong> — {circumferenceDeviation(derived.rollingCircumferenceMm, derived.tyreCircumferenceMm)} the size's
+              </>
+            ) : (
+              <>
+                <strong>{formatLength(derived.rollingCircumferenceMm, units)}, from the tyre size</strong> — a loaded tyre rolls about 3 % shorter, so a measured circumference gives truer speeds
+              </>
+            )}
+          </dd>
           <dt className="text-ink-600">Stoichiometric AFR</dt>
           <dd className="text-ink-900">
-            {derived.stoichAfr.toFixed(2)} : 1 for {fuelLabel(vehicleFuelSpec(spec)).toLowerCase()} — the air mass that burns one unit of fuel completely (λ = 1)
+            {derived.stoichAfr.toFixed(2)} : 1 for {fuelName(fuelLabel(vehicleFuelSpec(spec)))} — the air mass that burns one unit of fuel completely (λ = 1)
           </dd>
         </dl>
+        {editing && <RollingCircumferenceForm vehicle={vehicle} onDone={() => setEditing(false)} />}
         {derived.speeds.length === 0 ? (
           <p className="text-ink-600">A CVT has no fixed gears, so there is no speed per gear.</p>
         ) : (
@@ -99,7 +137,7 @@ export function VehicleNumbersCard({ vehicle, units }: { vehicle: Vehicle; units
             </table>
           </div>
         )}
-        <p className="text-xs text-ink-600">Speed = rpm × tyre circumference ÷ (gear ratio × final drive). Tyre wear and slip change it by a few percent; at the rev limit in the top gears it is the gearing's limit, not a speed the car reaches.</p>
+        <p className="text-xs text-ink-600">Speed = rpm × rolling circumference ÷ (gear ratio × final drive). The datalog analysis uses the same circumference to tell the gear. Tyre wear and slip change it by a few percent; at the rev limit in the top gears it is the gearing's limit, not a speed the car reaches.</p>
       </div>
     </Card>
   );

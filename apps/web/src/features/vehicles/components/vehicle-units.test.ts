@@ -1,7 +1,7 @@
 import { unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { parseTyreSize, roadSpeedKmh } from '@revloop/domain/vehicles';
-import { formatLength, formatMass, formatSpeed } from './vehicle-units';
+import { circumferenceDeviation, formatLength, formatMass, formatSpeed } from './vehicle-units';
 
 // Oracle: mathjs unit conversions (an independent implementation of the SI/imperial definitions).
 const mph = (kmh: number) => unit(kmh, 'km/h').toNumber('mi/h');
@@ -18,9 +18,17 @@ describe('vehicle units for display', () => {
   });
 
   it('shows the tyre diameter of 245/40R20 in mm and inches', () => {
-    // D = 20·25.4 + 2·(245·0.40) = 704.0 mm (ISO 4000-1 / ETRTO designation [MEM], REFERENCES "metric tyre size").
+    // D = 20·25.4 + 2·(245·0.40) = 704.0 mm from the ISO 4000-1 / ETRTO designation's meaning [CALC] (REFERENCES "metric tyre size").
     expect(formatLength(704, 'metric')).toBe('704.0 mm');
     expect(formatLength(704, 'imperial')).toBe(`${inches(704).toFixed(2)} in`);
+  });
+
+  it('says how a measured rolling circumference compares with the tyre size', () => {
+    // 2150 / (π·704.0) − 1 = −2.79 % [CALC]
+    const size = parseTyreSize('245/40R20').circumferenceMm;
+    expect(circumferenceDeviation(2150, size)).toBe('2.8 % shorter than');
+    expect(circumferenceDeviation(2300, size)).toBe('4.0 % longer than');
+    expect(circumferenceDeviation(size, size)).toBe('the same as');
   });
 
   it('shows curb mass in kg or lb', () => {

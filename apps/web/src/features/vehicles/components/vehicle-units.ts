@@ -22,4 +22,11 @@ export function formatMass(kg: number, units: UnitSystem): string {
   return units === 'imperial' ? `${fixed(kg / KG_PER_LB, 0)} lb` : `${fixed(kg, 0)} kg`;
 }
 
+/** How far a measured rolling circumference sits from the tyre size's: "2.8 % shorter than". */
+export function circumferenceDeviation(measuredMm: number, sizeMm: number): string {
+  const pct = (measuredMm / sizeMm - 1) * 100;
+  if (Math.abs(pct) < 0.05) return 'the same as';
+  return `${fixed(Math.abs(pct), 1)} % ${pct < 0 ? 'shorter' : 'longer'} than`;
+}
+
 export const speedUnit = (units: UnitSystem) => (units === 'imperial' ? 'mph' : 'km/h');
