@@ -3,7 +3,6 @@
 // the board is loaded. Run: npx tsx scripts/bench/board.ts [jobs]
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -13,6 +12,7 @@ import { defaultLogRequest } from '@revloop/domain/datalog';
 import { OPEN_STATES, type JobState } from '@revloop/domain/jobs';
 import { seedDemo, type SeededShop } from '../../seeds/demo/seed-demo';
 import { DEMO_PASSWORD } from '../../seeds/demo/people';
+import { freePort } from '../../apps/api/src/testing/free-port';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const DURATION_S = 10;
@@ -119,14 +119,6 @@ export async function addHistory(db: Db, shop: SeededShop, jobCount: number, now
 
 function chunks<T>(items: T[], size: number): T[][] {
   return Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
-}
-
-async function freePort(): Promise<number> {
-  const server = net.createServer();
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const { port } = server.address() as net.AddressInfo;
-  await new Promise((resolve) => server.close(resolve));
-  return port;
 }
 
 async function startServer(dataDir: string, port: number): Promise<ChildProcess> {

@@ -2,7 +2,6 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import http from 'node:http';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -13,6 +12,7 @@ import { generateLog } from '@revloop/domain/datalog/testing';
 import { seedDemo, type DemoIds } from '../../../../../seeds/demo/seed-demo';
 import { DEMO_PASSWORD } from '../../../../../seeds/demo/people';
 import { BlobStore } from '../../storage/blob-store';
+import { freePort } from '../../testing/free-port';
 
 // The real server in a child process, killed with SIGKILL in the middle of uploads and log checks, then started again
 // on the same data folder. Waits are generous and every step waits for an observed fact, never for a fixed time.
@@ -23,14 +23,6 @@ const SERVER = path.join(ROOT, 'apps/api/src/server.ts');
 let dataDir: string;
 let ids: DemoIds;
 let child: ChildProcess | undefined;
-
-async function freePort(): Promise<number> {
-  const server = net.createServer();
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const { port } = server.address() as net.AddressInfo;
-  await new Promise((resolve) => server.close(resolve));
-  return port;
-}
 
 async function waitFor<T>(what: string, probe: () => Promise<T | undefined> | T | undefined, timeoutMs = 60_000): Promise<T> {
   const deadline = Date.now() + timeoutMs;
