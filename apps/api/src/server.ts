@@ -9,6 +9,7 @@ import { startStripeFake } from './fakes/stripe';
 import { applyBillingDeadlines } from './features/billing/subscription.service';
 import { SignInThrottle } from './features/auth/sign-in-throttle';
 import { createSmtpMailer } from './features/mail/mailer';
+import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
 import { BlobStore } from './storage/blob-store';
 
@@ -43,6 +44,8 @@ const deps: AppDeps = {
   mailbox: smtp?.mailbox,
 };
 const app = createApp(deps);
+// Before the first request: nothing is in flight, so leftovers of a crash can be told from live work.
+await recoverAtStartup(deps);
 const server = app.listen(env.PORT, env.HOST, () => {
   logger.info({ url: env.APP_ORIGIN, smtpPort: smtp?.port, stripeFake: stripeFake?.url }, 'Revloop is listening');
 });

@@ -31,3 +31,4 @@ export * from './billing/subscription.repository';
 export * from './billing/stripe-event.repository';
 export * from './billing/payment.repository';
 export * from './billing/ledger.repository';
+export * from './recovery/recovery.repository';

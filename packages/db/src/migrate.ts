@@ -5,6 +5,7 @@ import * as jobs from './migrations/2026-12-02-002-jobs';
 import * as files from './migrations/2026-12-02-003-files';
 import * as datalogs from './migrations/2026-12-02-004-datalogs';
 import * as billing from './migrations/2026-12-02-005-billing';
+import * as boardIndexes from './migrations/2026-12-02-006-board-indexes';
 import * as vehicleRollingCircumference from './migrations/2026-12-02-007-vehicle-rolling-circumference';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
@@ -14,6 +15,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-003-files': files,
   '2026-12-02-004-datalogs': datalogs,
   '2026-12-02-005-billing': billing,
+  '2026-12-02-006-board-indexes': boardIndexes,
   '2026-12-02-007-vehicle-rolling-circumference': vehicleRollingCircumference,
 };
 

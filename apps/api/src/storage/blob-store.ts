@@ -87,6 +87,36 @@ export class BlobStore {
   async discard(tempFile: string | undefined): Promise<void> {
     if (tempFile) await fsp.rm(tempFile, { force: true });
   }
+
+  /** Removes everything in the temp folder: only safe while no upload is in flight (at start-up). */
+  async clearTemp(): Promise<{ files: number; bytes: number }> {
+    let files = 0;
+    let bytes = 0;
+    for (const entry of await fsp.readdir(this.tempDir, { withFileTypes: true })) {
+      const file = path.join(this.tempDir, entry.name);
+      bytes += (await fsp.stat(file)).size;
+      await fsp.rm(file, { recursive: true, force: true });
+      files += 1;
+    }
+    return { files, bytes };
+  }
+
+  /** Every stored blob with its size and modification time, walking the ab/cd/<sha256> layout. */
+  async *list(): AsyncIterable<{ sha256: string; size: number; mtimeMs: number }> {
+    for (const a of await fsp.readdir(this.root)) {
+      for (const b of await fsp.readdir(path.join(this.root, a)).catch(() => [])) {
+        for (const name of await fsp.readdir(path.join(this.root, a, b)).catch(() => [])) {
+          if (!/^[0-9a-f]{64}$/.test(name)) continue;
+          const stat = await fsp.stat(path.join(this.root, a, b, name));
+          yield { sha256: name, size: stat.size, mtimeMs: stat.mtimeMs };
+        }
+      }
+    }
+  }
+
+  async remove(sha256: string): Promise<void> {
+    await fsp.rm(this.pathOf(sha256), { force: true });
+  }
 }
 
 async function syncDir(dir: string): Promise<void> {

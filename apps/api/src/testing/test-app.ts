@@ -8,7 +8,7 @@ import request from 'supertest';
 import { createDb, migrateToLatest, snapshotDb, type Db } from '@revloop/db';
 import { seedDemo, type DemoIds } from '../../../../seeds/demo/seed-demo';
 import { DEMO_PASSWORD } from '../../../../seeds/demo/people';
-import { createApp } from '../app';
+import { createApp, type AppDeps } from '../app';
 import { loadEnv, type Env } from '../env';
 import { startSmtpFake, type Mailbox } from '../fakes/smtp/smtp-fake';
 import { startStripeFake, type StripeFakeControl } from '../fakes/stripe';
@@ -33,6 +33,8 @@ export class FakeClock implements Clock {
 
 export interface TestApp {
   app: ReturnType<typeof createApp>;
+  /** What the app was built with, for calling services directly. */
+  deps: AppDeps;
   db: Db;
   clock: FakeClock;
   env: Env;
@@ -99,7 +101,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     ...envOverrides,
   });
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: env.MAIL_FROM });
-  const app = createApp({
+  const deps: AppDeps = {
     db,
     env,
     clock,
@@ -108,10 +110,12 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     throttle: new SignInThrottle(undefined, () => clock.now().getTime()),
     blobs,
     mailbox: smtp.mailbox,
-  });
+  };
+  const app = createApp(deps);
   listener?.on('request', app);
   return {
     app,
+    deps,
     db,
     clock,
     env,

@@ -9,11 +9,14 @@ export interface AuditEventListRow extends AuditEventRow {
   actor_name: string | null;
 }
 
-export async function listAuditEvents(
-  db: Db,
-  shopId: string,
-  filter: { subjectType?: string; subjectId?: string; limit?: number } = {},
-): Promise<AuditEventListRow[]> {
+export interface AuditEventFilter {
+  subjectType?: string;
+  subjectId?: string;
+  limit?: number;
+}
+
+/** Newest first; one subject's events are read through the (shop, subject, time) index, never the shop's history. */
+export function listAuditEventsQuery(db: Db, shopId: string, filter: AuditEventFilter = {}) {
   let query = db
     .selectFrom('audit_events')
     .leftJoin('users', 'users.id', 'audit_events.actor_user_id')
@@ -22,5 +25,9 @@ export async function listAuditEvents(
     .where('audit_events.shop_id', '=', shopId);
   if (filter.subjectType) query = query.where('audit_events.subject_type', '=', filter.subjectType);
   if (filter.subjectId) query = query.where('audit_events.subject_id', '=', filter.subjectId);
-  return query.orderBy('audit_events.created_at', 'desc').limit(filter.limit ?? 100).execute();
+  return query.orderBy('audit_events.created_at', 'desc').limit(filter.limit ?? 100);
+}
+
+export async function listAuditEvents(db: Db, shopId: string, filter: AuditEventFilter = {}): Promise<AuditEventListRow[]> {
+  return listAuditEventsQuery(db, shopId, filter).execute();
 }

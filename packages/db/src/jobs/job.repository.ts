@@ -1,7 +1,8 @@
-import { sql } from 'kysely';
+import { sql, type Expression, type ExpressionBuilder, type SqlBool } from 'kysely';
 import type { JobScope } from '@revloop/domain/auth';
 import type { JobState } from '@revloop/domain/jobs';
 import type { Db } from '../client';
+import type { Database } from '../database';
 import type { InsertableJobRow, JobMessageRow, JobRow, UpdateableJobRow } from './job.table';
 
 export interface JobListRow extends JobRow {
@@ -17,6 +18,8 @@ export interface JobListRow extends JobRow {
 
 export interface JobListFilter {
   states?: JobState[];
+  /** Only jobs in an open state (the board); read through the `is_open` index. */
+  open?: boolean;
   tunerId?: string | 'unassigned';
   dealerId?: string;
   packageId?: string;
@@ -27,68 +30,33 @@ export interface JobListFilter {
 export const JOB_SORTS = ['number', 'created', 'updated', 'state_changed', 'state', 'customer', 'vehicle', 'round'] as const;
 export type JobSort = (typeof JOB_SORTS)[number];
 
-function baseQuery(db: Db, shopId: string, scope: JobScope) {
-  return db
+/** The conditions on the job row itself: the shop, the role scope and every filter but the text search. */
+function jobConditions(shopId: string, scope: JobScope, filter: JobListFilter) {
+  return (eb: ExpressionBuilder<Database, 'jobs'>) => {
+    const terms: Expression<SqlBool>[] = [eb('jobs.shop_id', '=', shopId)];
+    // The SQL twin of the Job ability conditions: what a role may see is decided inside the query.
+    if (scope.kind === 'tuner') terms.push(eb.or([eb('jobs.assigned_tuner_id', '=', scope.userId), eb('jobs.assigned_tuner_id', 'is', null)]));
+    else if (scope.kind === 'dealer') terms.push(eb('jobs.dealer_id', '=', scope.dealerId));
+    else if (scope.kind === 'customer') terms.push(eb('jobs.customer_user_id', '=', scope.userId));
+    else if (scope.kind === 'none') terms.push(sql<SqlBool>`0`);
+    if (filter.states?.length) terms.push(eb('jobs.state', 'in', filter.states));
+    if (filter.open) terms.push(eb('jobs.is_open', '=', 1));
+    if (filter.tunerId === 'unassigned') terms.push(eb('jobs.assigned_tuner_id', 'is', null));
+    else if (filter.tunerId) terms.push(eb('jobs.assigned_tuner_id', '=', filter.tunerId));
+    if (filter.dealerId) terms.push(eb('jobs.dealer_id', '=', filter.dealerId));
+    if (filter.packageId) terms.push(eb('jobs.package_id', '=', filter.packageId));
+    if (filter.customerUserId) terms.push(eb('jobs.customer_user_id', '=', filter.customerUserId));
+    return eb.and(terms);
+  };
+}
+
+/** The shop's jobs this scope may see that pass the filter, joined to the vehicle and customer the search reads. */
+function filtered(db: Db, shopId: string, scope: JobScope, filter: JobListFilter = {}) {
+  let query = db
     .selectFrom('jobs')
     .innerJoin('vehicles', 'vehicles.id', 'jobs.vehicle_id')
     .innerJoin('users as customer', 'customer.id', 'jobs.customer_user_id')
-    .leftJoin('dealers', 'dealers.id', 'jobs.dealer_id')
-    .innerJoin('packages', 'packages.id', 'jobs.package_id')
-    .leftJoin('users as tuner', 'tuner.id', 'jobs.assigned_tuner_id')
-    .selectAll('jobs')
-    .select([
-      'vehicles.description as vehicle_description',
-      'vehicles.vin as vehicle_vin',
-      'vehicles.model_year as vehicle_model_year',
-      'customer.name as customer_name',
-      'customer.email as customer_email',
-      'dealers.name as dealer_name',
-      'packages.name as package_name',
-      'tuner.name as tuner_name',
-    ])
-    .where('jobs.shop_id', '=', shopId)
-    .where((eb) => {
-      // The SQL twin of the Job ability conditions: what a role may see is decided inside the query.
-      switch (scope.kind) {
-        case 'shop':
-          return sql<boolean>`1`;
-        case 'tuner':
-          return eb.or([eb('jobs.assigned_tuner_id', '=', scope.userId), eb('jobs.assigned_tuner_id', 'is', null)]);
-        case 'dealer':
-          return eb('jobs.dealer_id', '=', scope.dealerId);
-        case 'customer':
-          return eb('jobs.customer_user_id', '=', scope.userId);
-        case 'none':
-          return sql<boolean>`0`;
-      }
-    });
-}
-
-const SORT_COLUMN: Record<JobSort, string> = {
-  number: 'jobs.number',
-  created: 'jobs.created_at',
-  updated: 'jobs.updated_at',
-  state_changed: 'jobs.state_changed_at',
-  state: 'jobs.state',
-  customer: 'customer.name',
-  vehicle: 'vehicles.description',
-  round: 'jobs.round',
-};
-
-export async function listJobs(
-  db: Db,
-  shopId: string,
-  scope: JobScope,
-  filter: JobListFilter,
-  page: { sort: JobSort; direction: 'asc' | 'desc'; offset: number; limit: number },
-): Promise<{ rows: JobListRow[]; total: number }> {
-  let query = baseQuery(db, shopId, scope);
-  if (filter.states?.length) query = query.where('jobs.state', 'in', filter.states);
-  if (filter.tunerId === 'unassigned') query = query.where('jobs.assigned_tuner_id', 'is', null);
-  else if (filter.tunerId) query = query.where('jobs.assigned_tuner_id', '=', filter.tunerId);
-  if (filter.dealerId) query = query.where('jobs.dealer_id', '=', filter.dealerId);
-  if (filter.packageId) query = query.where('jobs.package_id', '=', filter.packageId);
-  if (filter.customerUserId) query = query.where('jobs.customer_user_id', '=', filter.customerUserId);
+    .where(jobConditions(shopId, scope, filter));
   if (filter.text) {
     const like = `%${filter.text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     const number = Number(filter.text.replace(/^#/, ''));
@@ -102,22 +70,119 @@ export async function listJobs(
       ]),
     );
   }
-  const countRow = await query
-    .clearSelect()
-    .select((eb) => eb.fn.countAll<number>().as('n'))
-    .executeTakeFirstOrThrow();
-  const rows = await query
+  return query;
+}
+
+/** The list row: the job with the names the board and the table show. */
+function withNames(query: ReturnType<typeof filtered>) {
+  return query
+    .leftJoin('dealers', 'dealers.id', 'jobs.dealer_id')
+    .innerJoin('packages', 'packages.id', 'jobs.package_id')
+    .leftJoin('users as tuner', 'tuner.id', 'jobs.assigned_tuner_id')
+    .selectAll('jobs')
+    .select([
+      'vehicles.description as vehicle_description',
+      'vehicles.vin as vehicle_vin',
+      'vehicles.model_year as vehicle_model_year',
+      'customer.name as customer_name',
+      'customer.email as customer_email',
+      'dealers.name as dealer_name',
+      'packages.name as package_name',
+      'tuner.name as tuner_name',
+    ]);
+}
+
+const SORT_COLUMN: Record<JobSort, string> = {
+  number: 'jobs.number',
+  created: 'jobs.created_at',
+  updated: 'jobs.updated_at',
+  state_changed: 'jobs.state_changed_at',
+  state: 'jobs.state',
+  customer: 'customer.name',
+  vehicle: 'vehicles.description',
+  round: 'jobs.round',
+};
+
+export interface JobPage {
+  sort: JobSort;
+  direction: 'asc' | 'desc';
+  offset: number;
+  limit: number;
+}
+
+/**
+ * One page of the list, read in the order of an index on (shop_id, sort column, number) so it stops at the page;
+ * the job number breaks ties in the same direction, which keeps the order total and index-friendly.
+ */
+export function listJobsQuery(db: Db, shopId: string, scope: JobScope, filter: JobListFilter, page: JobPage) {
+  return withNames(filtered(db, shopId, scope, filter))
     .orderBy(sql.ref(SORT_COLUMN[page.sort]), page.direction)
-    .orderBy('jobs.number', 'desc')
+    .orderBy('jobs.number', page.direction)
     .offset(page.offset)
-    .limit(page.limit)
-    .execute();
-  return { rows: rows as JobListRow[], total: Number(countRow.n) };
+    .limit(page.limit);
+}
+
+/**
+ * How many jobs match. The shop-wide view filtered at most by state (the table's first screen) reads the per-state
+ * tally the triggers keep, so it costs the same at 10 jobs or 100,000; the board counts its open jobs through the
+ * `is_open` index, and narrower views count their own rows.
+ */
+export async function countJobs(db: Db, shopId: string, scope: JobScope, filter: JobListFilter): Promise<number> {
+  const byStateOnly =
+    scope.kind === 'shop' && !filter.open && !filter.tunerId && !filter.dealerId && !filter.packageId && !filter.customerUserId && !filter.text;
+  if (byStateOnly) {
+    let query = db.selectFrom('job_state_counts').select((eb) => eb.fn.sum<number>('n').as('n')).where('shop_id', '=', shopId);
+    if (filter.states?.length) query = query.where('state', 'in', filter.states);
+    return Number((await query.executeTakeFirst())?.n ?? 0);
+  }
+  // Without a text search the joined rows cannot change the count (both joins follow non-null foreign keys): skip them.
+  const row = filter.text
+    ? await filtered(db, shopId, scope, filter).select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow()
+    : await db.selectFrom('jobs').where(jobConditions(shopId, scope, filter)).select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+  return Number(row.n);
+}
+
+export async function listJobs(
+  db: Db,
+  shopId: string,
+  scope: JobScope,
+  filter: JobListFilter,
+  page: JobPage,
+): Promise<{ rows: JobListRow[]; total: number }> {
+  const rows = await listJobsQuery(db, shopId, scope, filter, page).execute();
+  return { rows: rows as JobListRow[], total: await countJobs(db, shopId, scope, filter) };
+}
+
+/**
+ * Every matching job in list order, a batch at a time, for exports of any size: the ids are taken in one indexed read
+ * (so the order is one snapshot), then the rows are loaded per batch, so memory and each query stay small.
+ */
+export async function* eachJobBatch(
+  db: Db,
+  shopId: string,
+  scope: JobScope,
+  filter: JobListFilter,
+  order: Pick<JobPage, 'sort' | 'direction'>,
+  batchSize = 500,
+): AsyncGenerator<JobListRow[]> {
+  const ids = (
+    await filtered(db, shopId, scope, filter)
+      .select('jobs.id')
+      .orderBy(sql.ref(SORT_COLUMN[order.sort]), order.direction)
+      .orderBy('jobs.number', order.direction)
+      .execute()
+  ).map((r) => r.id);
+  for (let start = 0; start < ids.length; start += batchSize) {
+    const batch = ids.slice(start, start + batchSize);
+    const rows = (await withNames(filtered(db, shopId, scope)).where('jobs.id', 'in', batch).execute()) as JobListRow[];
+    const byId = new Map(rows.map((r) => [r.id, r]));
+    yield batch.flatMap((id) => byId.get(id) ?? []);
+  }
 }
 
 /** One job as this scope may see it; another shop's or an out-of-scope job reads as undefined. */
 export async function findJob(db: Db, shopId: string, id: string, scope: JobScope = { kind: 'shop' }): Promise<JobListRow | undefined> {
-  return baseQuery(db, shopId, scope).where('jobs.id', '=', id).executeTakeFirst() as Promise<JobListRow | undefined>;
+  return withNames(filtered(db, shopId, scope)).where('jobs.id', '=', id).executeTakeFirst() as Promise<JobListRow | undefined>;
 }
 
 export async function nextJobNumber(db: Db, shopId: string): Promise<number> {

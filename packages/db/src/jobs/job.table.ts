@@ -1,4 +1,4 @@
-import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 import type { JobState } from '@revloop/domain/jobs';
 
 export interface JobTable {
@@ -25,6 +25,8 @@ export interface JobTable {
   created_by_user_id: string | null;
   created_at: string;
   updated_at: string;
+  /** 1 while the job is in an open state; computed by SQLite from `state` (migration 006), never written. */
+  is_open: ColumnType<number, never, never>;
 }
 export type JobRow = Selectable<JobTable>;
 export type InsertableJobRow = Insertable<JobTable>;
@@ -39,3 +41,10 @@ export interface JobMessageTable {
   created_at: string;
 }
 export type JobMessageRow = Selectable<JobMessageTable>;
+
+/** How many jobs a shop has in each state, kept by triggers on `jobs` (migration 006). */
+export interface JobStateCountTable {
+  shop_id: string;
+  state: JobState;
+  n: number;
+}

@@ -19,6 +19,9 @@ export function csvCell(value: CsvValue): string {
   return NEEDS_QUOTES.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
+/** One CSV record ended by CRLF, as RFC 4180 specifies; for documents written a batch at a time. */
+export const csvLine = (cells: CsvValue[]): string => `${cells.map(csvCell).join(',')}\r\n`;
+
 /** A whole CSV document: header line, then rows, every line ended by CRLF as RFC 4180 specifies. */
 export function toCsv(header: string[], rows: CsvValue[][]): string {
   rows.forEach((row, i) => {
@@ -29,5 +32,5 @@ export function toCsv(header: string[], rows: CsvValue[][]): string {
       );
     }
   });
-  return [header, ...rows].map((cells) => `${cells.map(csvCell).join(',')}\r\n`).join('');
+  return [header, ...rows].map(csvLine).join('');
 }

@@ -154,6 +154,18 @@ export class DatalogAnalyzer {
   }
 }
 
+const analyzers = new WeakMap<Db, DatalogAnalyzer>();
+
+/** One analyzer per app (keyed by its database), so the routes and start-up recovery share what is running. */
+export function datalogAnalyzerOf(deps: AppDeps): DatalogAnalyzer {
+  let analyzer = analyzers.get(deps.db);
+  if (!analyzer) {
+    analyzer = new DatalogAnalyzer(deps);
+    analyzers.set(deps.db, analyzer);
+  }
+  return analyzer;
+}
+
 /** API shape of a log; `progress` from this process while it runs. */
 export function datalogRowToDatalog(row: DatalogListRow, progress: number | undefined) {
   const report = row.report ? (JSON.parse(row.report) as DatalogReport) : null;

@@ -13,8 +13,8 @@ import { singleFileUpload } from '../../storage/upload';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob } from '../jobs/job.service';
 import {
-  DatalogAnalyzer,
   compareReports,
+  datalogAnalyzerOf,
   datalogRowToDatalog,
   fuelOf,
   loadDatalog,
@@ -64,7 +64,7 @@ const csvName = (name: string) => name.replace(/\.[^.]*$/, '').replace(/[^\w.-]+
 export function createDatalogsRouter(deps: AppDeps): Router {
   const router = Router();
   const { db, clock, blobs } = deps;
-  const analyzer = new DatalogAnalyzer(deps);
+  const analyzer = datalogAnalyzerOf(deps);
   const seriesCache = new SeriesCache();
 
   /** Refuses before a byte is stored: who may upload, and whether the job takes logs now. */

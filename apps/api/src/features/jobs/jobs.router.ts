@@ -1,6 +1,7 @@
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import {
   JOB_SORTS,
+  eachJobBatch,
   findJob,
   insertJobMessage,
   listAuditEvents,
@@ -12,9 +13,9 @@ import {
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { asSubject, jobScopeFor } from '@revloop/domain/auth';
-import { toCsv } from '@revloop/domain/csv';
+import { csvLine } from '@revloop/domain/csv';
 import { logRequestSchema } from '@revloop/domain/datalog';
-import { JOB_STATES, JOB_STATE_LABELS, OPEN_STATES, jobIntakeSchema, messageInputSchema, type JobState } from '@revloop/domain/jobs';
+import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema, type JobState } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import type { AppDeps } from '../../app';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
@@ -55,9 +56,8 @@ const listQuerySchema = z.object({
 });
 
 function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobListFilter {
-  const states: JobState[] | undefined = q.state ?? (q.open === 'true' ? [...OPEN_STATES] : undefined);
   return {
-    ...(states && { states }),
+    ...(q.state ? { states: q.state } : q.open === 'true' && { open: true }),
     ...(q.mine === 'true' ? { tunerId: auth.user.id } : q.tuner ? { tunerId: q.tuner } : {}),
     ...(q.dealer && { dealerId: q.dealer }),
     ...(q.package && { packageId: q.package }),
@@ -76,6 +76,19 @@ const TIMELINE_TEXT: Record<string, (d: Record<string, unknown>) => string> = {
   'job.taken': () => 'Taken by a tuner',
   'job.log_request_changed': () => 'Log request changed',
 };
+
+/** Resolves when the response takes more data again, or when the client has gone. */
+function drained(res: Response): Promise<void> {
+  return new Promise((resolve) => {
+    const done = () => {
+      res.off('drain', done);
+      res.off('close', done);
+      resolve();
+    };
+    res.once('drain', done);
+    res.once('close', done);
+  });
+}
 
 export function createJobsRouter(deps: AppDeps): Router {
   const router = Router();
@@ -102,19 +115,18 @@ export function createJobsRouter(deps: AppDeps): Router {
     const auth = requireShop(req);
     authorize(auth, 'read', 'Job');
     const q = parseInput(listQuerySchema, req.query);
-    const { rows } = await listJobs(db, auth.shop.id, jobScopeFor(auth.actor), filterFrom(q, auth), {
-      sort: q.sort,
-      direction: q.dir,
-      offset: 0,
-      limit: 10_000,
-    });
-    const csv = toCsv(
-      ['Job', 'State', 'Round', 'Customer', 'Customer e-mail', 'Dealer', 'Vehicle', 'VIN', 'Package', 'Tuner', 'In state since', 'Opened'],
-      rows.map((r) => [r.number, JOB_STATE_LABELS[r.state], r.round, r.customer_name, r.customer_email, r.dealer_name, r.vehicle_description, r.vehicle_vin, r.package_name, r.tuner_name, r.state_changed_at, r.created_at]),
-    );
     res.set('Content-Type', 'text/csv; charset=utf-8');
     res.set('Content-Disposition', `attachment; filename="jobs-${clock.now().toISOString().slice(0, 10)}.csv"`);
-    res.send(csv);
+    // Streams every matching job, a batch at a time, waiting for the client to take each one: no row limit.
+    res.write(csvLine(['Job', 'State', 'Round', 'Customer', 'Customer e-mail', 'Dealer', 'Vehicle', 'VIN', 'Package', 'Tuner', 'In state since', 'Opened']));
+    for await (const rows of eachJobBatch(db, auth.shop.id, jobScopeFor(auth.actor), filterFrom(q, auth), { sort: q.sort, direction: q.dir })) {
+      const chunk = rows
+        .map((r) => csvLine([r.number, JOB_STATE_LABELS[r.state], r.round, r.customer_name, r.customer_email, r.dealer_name, r.vehicle_description, r.vehicle_vin, r.package_name, r.tuner_name, r.state_changed_at, r.created_at]))
+        .join('');
+      if (!res.write(chunk)) await drained(res);
+      if (res.destroyed) return;
+    }
+    res.end();
   });
 
   router.post('/', async (req, res) => {

@@ -1,0 +1,237 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import fs from 'node:fs';
+import http from 'node:http';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import BetterSqlite3 from 'better-sqlite3';
+import { afterAll, beforeAll, expect, it } from 'vitest';
+import { createDb, migrateToLatest } from '@revloop/db';
+import { generateLog } from '@revloop/domain/datalog/testing';
+import { seedDemo, type DemoIds } from '../../../../../seeds/demo/seed-demo';
+import { DEMO_PASSWORD } from '../../../../../seeds/demo/people';
+import { BlobStore } from '../../storage/blob-store';
+import { freePort } from '../../testing/free-port';
+
+// The real server in a child process, killed with SIGKILL in the middle of uploads and log checks, then started again
+// on the same data folder. Waits are generous and every step waits for an observed fact, never for a fixed time.
+
+const ROOT = fileURLToPath(new URL('../../../../../', import.meta.url));
+const SERVER = path.join(ROOT, 'apps/api/src/server.ts');
+
+let dataDir: string;
+let ids: DemoIds;
+let child: ChildProcess | undefined;
+
+async function waitFor<T>(what: string, probe: () => Promise<T | undefined> | T | undefined, timeoutMs = 60_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await probe();
+    if (value !== undefined) return value;
+    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+}
+
+/** Starts the server on the data folder and resolves once it answers, with its log lines so far (and to come). */
+async function startServer(port: number) {
+  const lines: string[] = [];
+  const proc = spawn(process.execPath, ['--import', 'tsx', SERVER], {
+    cwd: ROOT,
+    env: {
+      PATH: process.env.PATH,
+      NODE_ENV: 'test',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      APP_ORIGIN: `http://127.0.0.1:${port}`,
+      DATA_DIR: dataDir,
+      LOCAL_SMTP: 'true',
+      SMTP_PORT: '0',
+      LOCAL_STRIPE: 'false',
+      LOG_LEVEL: 'info',
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  child = proc;
+  let buffered = '';
+  proc.stdout!.on('data', (chunk: Buffer) => {
+    buffered += chunk.toString();
+    const parts = buffered.split('\n');
+    buffered = parts.pop()!;
+    lines.push(...parts);
+  });
+  let stderr = '';
+  proc.stderr!.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+  const base = `http://127.0.0.1:${port}`;
+  await waitFor('the server to answer', async () => {
+    if (proc.exitCode !== null) throw new Error(`server exited ${proc.exitCode}: ${stderr}`);
+    return fetch(`${base}/api/health`).then((r) => (r.ok ? true : undefined), () => undefined);
+  });
+  return { proc, base, lines };
+}
+
+async function kill(proc: ChildProcess, signal: NodeJS.Signals) {
+  if (proc.exitCode !== null || proc.signalCode !== null) return;
+  const exited = new Promise((resolve) => proc.once('exit', resolve));
+  proc.kill(signal);
+  await exited;
+}
+
+async function signInCookie(base: string, email: string): Promise<string> {
+  const res = await fetch(`${base}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', origin: base },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  });
+  if (res.status !== 200) throw new Error(`sign-in answered ${res.status}`);
+  return res.headers.getSetCookie().find((c) => c.startsWith('revloop_session='))!.split(';')[0]!;
+}
+
+/** Uploads the server refused or that failed in transit, to explain a failed expectation. */
+const refusals: string[] = [];
+
+interface Acknowledged {
+  table: 'calibration_files' | 'datalogs';
+  id: string;
+  sha256: string;
+}
+
+/** One multipart upload; resolves with the row the server acknowledged, or undefined when it answered otherwise or died. */
+async function upload(base: string, cookie: string, route: string, file: Buffer, name: string, fields: Record<string, string>): Promise<Acknowledged | undefined> {
+  const form = new FormData();
+  for (const [k, v] of Object.entries(fields)) form.set(k, v);
+  form.set('file', new Blob([file]), name);
+  try {
+    const res = await fetch(`${base}${route}`, { method: 'POST', headers: { cookie, origin: base }, body: form });
+    if (res.status < 200 || res.status >= 300) {
+      refusals.push(`${route} ${res.status} ${await res.text()}`);
+      return undefined;
+    }
+    const body = (await res.json()) as { data: { id: string; sha256: string } };
+    return { table: route.endsWith('/datalogs') ? 'datalogs' : 'calibration_files', id: body.data.id, sha256: body.data.sha256 };
+  } catch (error) {
+    refusals.push(`${route} ${String(error)}`);
+    return undefined;
+  }
+}
+
+/** An upload that sends half its body and then stalls, so its temp file is on disk when the server dies. */
+function stalledUpload(base: string, cookie: string, jobId: string): http.ClientRequest {
+  const boundary = 'revloop-crash-test';
+  const url = new URL(`${base}/api/jobs/${jobId}/files`);
+  const req = http.request(url, {
+    method: 'POST',
+    headers: { cookie, origin: base, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(4 * 1024 * 1024) },
+  });
+  req.on('error', () => undefined);
+  req.write(`--${boundary}\r\nContent-Disposition: form-data; name="module"\r\n\r\nECM\r\n`);
+  req.write(`--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nre-read\r\n`);
+  req.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="slow.bin"\r\nContent-Type: application/octet-stream\r\n\r\n`);
+  req.write(randomBytes(256 * 1024));
+  return req;
+}
+
+const driveLog = (seed: number) =>
+  Buffer.from(generateLog({ rateHz: 20, warmupS: 320 + seed, cruiseS: 240, pulls: [{ gears: [3] }], gearChannel: true }).text);
+
+beforeAll(async () => {
+  dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-crash-'));
+  const db = createDb(path.join(dataDir, 'revloop.db'));
+  await migrateToLatest(db);
+  ids = await seedDemo(db, new Date(), { blobs: new BlobStore(dataDir) });
+  await db.destroy();
+});
+
+afterAll(async () => {
+  if (child) await kill(child, 'SIGKILL');
+  fs.rmSync(dataDir, { recursive: true, force: true });
+});
+
+it('a server killed mid-upload and mid-check comes back whole: no lost upload, no temp file, every log checked', { timeout: 180_000 }, async () => {
+  const port = await freePort();
+  const first = await startServer(port);
+  const cookie = await signInCookie(first.base, 'owner@kestrel.test');
+  const open = ids.jobs.filter((j) => j.shopId === ids.kestrel.shopId && !['dialed_in', 'cancelled'].includes(j.state));
+  expect(open.length).toBeGreaterThanOrEqual(4);
+  const jobAt = (i: number) => open[i % open.length]!;
+
+  const stalled = stalledUpload(first.base, cookie, jobAt(0).id);
+  const tempDir = path.join(dataDir, 'tmp');
+  await waitFor('the stalled upload to reach the temp folder', () => (fs.readdirSync(tempDir).length > 0 ? true : undefined));
+
+  // A first round of uploads is answered in full; a second is still in flight when the process dies.
+  const batch = (from: number) =>
+    Array.from({ length: 6 }, (_, k) => {
+      const i = from + k;
+      return k % 2 === 0
+        ? upload(first.base, cookie, `/api/jobs/${jobAt(i).id}/datalogs`, driveLog(i), `drive-${i}.csv`, {})
+        : upload(first.base, cookie, `/api/jobs/${jobAt(i).id}/files`, randomBytes(64 * 1024), `read-${i}.bin`, { module: 'ECM', kind: 're-read' });
+    });
+  const acknowledged = (await Promise.all(batch(0))).filter((a) => a !== undefined);
+  // What the server refused is not this test's concern; what it acknowledged must survive the crash.
+  expect(acknowledged.filter((a) => a.table === 'datalogs').length, refusals.join('\n')).toBeGreaterThan(0);
+  const inFlight = batch(6).map((p) => p.then((a) => (a ? acknowledged.push(a) : undefined)));
+  await Promise.race(inFlight);
+  await kill(first.proc, 'SIGKILL');
+  await Promise.all(inFlight);
+  stalled.destroy();
+
+  // What the crash left, before anything cleans it.
+  expect(fs.readdirSync(tempDir).length).toBeGreaterThan(0);
+  const crashed = new BetterSqlite3(path.join(dataDir, 'revloop.db'), { readonly: true });
+  const unfinished = crashed.prepare("select count(*) as n from datalogs where status = 'processing'").get() as { n: number };
+  crashed.close();
+  expect(unfinished.n).toBeGreaterThan(0);
+  // A file stored just before its row would have been written, long enough ago to count as an orphan.
+  const orphan = new BlobStore(dataDir).pathOf('0'.repeat(64));
+  fs.mkdirSync(path.dirname(orphan), { recursive: true });
+  fs.writeFileSync(orphan, 'orphan');
+  const twoHoursAgo = new Date(Date.now() - 2 * 3_600_000);
+  fs.utimesSync(orphan, twoHoursAgo, twoHoursAgo);
+
+  const second = await startServer(port);
+  const recovery = await waitFor('the recovery log line', () => {
+    const line = second.lines.find((l) => l.includes('"start-up recovery"'));
+    return line ? (JSON.parse(line) as Record<string, number>) : undefined;
+  });
+  expect(recovery.tempFiles).toBeGreaterThan(0);
+  expect(recovery.datalogsRequeued).toBeGreaterThanOrEqual(unfinished.n);
+  expect(recovery.orphanBlobs).toBe(1);
+  expect(fs.existsSync(orphan)).toBe(false);
+  expect(fs.readdirSync(tempDir)).toEqual([]);
+
+  const db = new BetterSqlite3(path.join(dataDir, 'revloop.db'), { readonly: true });
+  try {
+    expect(db.pragma('integrity_check', { simple: true })).toBe('ok');
+    for (const a of acknowledged) {
+      const row = db.prepare(`select sha256 from ${a.table} where id = ?`).get(a.id) as { sha256: string } | undefined;
+      expect(row, `${a.table} ${a.id} answered 2xx`).toEqual({ sha256: a.sha256 });
+      expect(fs.existsSync(new BlobStore(dataDir).pathOf(a.sha256))).toBe(true);
+    }
+    const referenced = db.prepare('select sha256 from calibration_files union select sha256 from datalogs').all() as { sha256: string }[];
+    expect(referenced.filter((r) => !fs.existsSync(new BlobStore(dataDir).pathOf(r.sha256)))).toEqual([]);
+
+    // Nobody opens a log: the list of the job's logs (which starts nothing) is polled until every one has ended.
+    const ownerCookie = await signInCookie(second.base, 'owner@kestrel.test');
+    const jobIds = [...new Set(open.map((j) => j.id))];
+    await waitFor(
+      'every log to end ready or failed',
+      async () => {
+        const statuses = await Promise.all(
+          jobIds.map(async (id) => {
+            const res = await fetch(`${second.base}/api/jobs/${id}/datalogs`, { headers: { cookie: ownerCookie } });
+            return ((await res.json()) as { data: { status: string }[] }).data.map((d) => d.status);
+          }),
+        );
+        return statuses.flat().every((s) => s === 'ready' || s === 'failed') ? true : undefined;
+      },
+      90_000,
+    );
+    const left = db.prepare("select count(*) as n from datalogs where status = 'processing'").get() as { n: number };
+    expect(left.n).toBe(0);
+  } finally {
+    db.close();
+    await kill(second.proc, 'SIGTERM');
+  }
+});

@@ -1,0 +1,104 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { Writable } from 'node:stream';
+import { pino } from 'pino';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { newId } from '@revloop/db';
+import { generateLog } from '@revloop/domain/datalog/testing';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
+import { ORPHAN_MIN_AGE_MS, recoverAtStartup } from './recover.service';
+
+let t: TestApp;
+beforeEach(async () => {
+  t = await createTestApp();
+});
+afterEach(async () => {
+  await t.close();
+});
+
+/** A logger that keeps its JSON lines, to check what recovery reports. */
+function capturingLogger() {
+  const lines: Record<string, unknown>[] = [];
+  const stream = new Writable({
+    write(chunk: Buffer, _enc, done) {
+      lines.push(JSON.parse(chunk.toString()) as Record<string, unknown>);
+      done();
+    },
+  });
+  return { logger: pino({ level: 'info' }, stream), lines };
+}
+
+const setAge = (file: string, ms: number) => {
+  const at = new Date(t.clock.now().getTime() - ms);
+  fs.utimesSync(file, at, at);
+};
+
+describe('start-up recovery', () => {
+  it('empties the upload temp folder and says how much it removed', async () => {
+    fs.writeFileSync(path.join(t.blobs.tempDir, 'cut-off.part'), Buffer.alloc(1000));
+    fs.writeFileSync(t.blobs.tempPath(), Buffer.alloc(24));
+    const { logger, lines } = capturingLogger();
+    const { counts } = await recoverAtStartup({ ...t.deps, logger });
+    expect(counts).toMatchObject({ tempFiles: 2, tempBytes: 1024 });
+    expect(fs.readdirSync(t.blobs.tempDir)).toEqual([]);
+    expect(lines).toEqual([expect.objectContaining({ msg: 'start-up recovery', tempFiles: 2, tempBytes: 1024, datalogsRequeued: 0 })]);
+  });
+
+  it('deletes blobs no row references once they are older than an hour, and keeps every referenced or recent one', async () => {
+    const orphan = await t.blobs.putBytes(Buffer.from(`orphan ${newId()}`));
+    const recent = await t.blobs.putBytes(Buffer.from(`recent ${newId()}`));
+    setAge(t.blobs.pathOf(orphan.sha256), ORPHAN_MIN_AGE_MS + 60_000);
+    setAge(t.blobs.pathOf(recent.sha256), ORPHAN_MIN_AGE_MS - 60_000);
+    const referenced = await t.db.selectFrom('calibration_files').select('sha256').executeTakeFirstOrThrow();
+    setAge(t.blobs.pathOf(referenced.sha256), 30 * 86_400_000);
+
+    const { counts } = await recoverAtStartup(t.deps);
+    expect(counts.orphanBlobs).toBeGreaterThanOrEqual(1);
+    expect(fs.existsSync(t.blobs.pathOf(orphan.sha256))).toBe(false);
+    expect(fs.existsSync(t.blobs.pathOf(recent.sha256))).toBe(true);
+    expect(fs.existsSync(t.blobs.pathOf(referenced.sha256))).toBe(true);
+    // Every file a row names is still on disk.
+    const rows = [
+      ...(await t.db.selectFrom('calibration_files').select('sha256').execute()),
+      ...(await t.db.selectFrom('datalogs').select('sha256').execute()),
+    ];
+    expect(rows.filter((r) => !fs.existsSync(t.blobs.pathOf(r.sha256)))).toEqual([]);
+  });
+
+  it('re-queues a log left "processing" so it ends ready and moves its job without anyone opening it', async () => {
+    const jobs = t.ids.jobs.filter((j) => j.shopId === t.ids.kestrel.shopId && j.state === 'with_customer' && j.customerUserId === t.ids.kestrel.customerIds[0] && j.dealerId === null);
+    expect(jobs.length).toBeGreaterThanOrEqual(2);
+    const [first, second] = jobs as [(typeof jobs)[0], (typeof jobs)[0]];
+    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const drive = generateLog({ rateHz: 10, warmupS: 320, cruiseS: 60, pulls: [{ gears: [3] }], gearChannel: true }).text;
+    const uploaded = await customer.post(`/api/jobs/${first.id}/datalogs`).attach('file', Buffer.from(drive), 'drive.csv');
+    expect(uploaded.status).toBe(202);
+    await expect.poll(async () => (await t.db.selectFrom('datalogs').select('status').where('id', '=', uploaded.body.data.id).executeTakeFirstOrThrow()).status, { timeout: 20_000 }).toBe('ready');
+
+    // The row a crash leaves: stored file and row written, analysis never finished.
+    const source = await t.db.selectFrom('datalogs').selectAll().where('id', '=', uploaded.body.data.id).executeTakeFirstOrThrow();
+    const round = (await t.db.selectFrom('jobs').select('round').where('id', '=', second.id).executeTakeFirstOrThrow()).round;
+    const stuck = { ...source, id: newId(), job_id: second.id, round, status: 'processing' as const, report: null, error: null };
+    await t.db.insertInto('datalogs').values(stuck).execute();
+
+    const { counts, analyses } = await recoverAtStartup(t.deps);
+    expect(counts.datalogsRequeued).toBeGreaterThanOrEqual(1);
+    await analyses;
+    const after = await t.db.selectFrom('datalogs').select(['status', 'error']).where('id', '=', stuck.id).executeTakeFirstOrThrow();
+    expect(after).toEqual({ status: 'ready', error: null });
+    expect((await t.db.selectFrom('jobs').select('state').where('id', '=', second.id).executeTakeFirstOrThrow()).state).toBe('log_review');
+    // Nothing is left "processing" anywhere.
+    expect(await t.db.selectFrom('datalogs').select('id').where('status', '=', 'processing').execute()).toEqual([]);
+  });
+
+  it('fails a cut-off log whose uploader has left the shop, with a reason the shop can act on', async () => {
+    const source = await t.db.selectFrom('datalogs').selectAll().where('shop_id', '=', t.ids.kestrel.shopId).executeTakeFirstOrThrow();
+    const stuck = { ...source, id: newId(), status: 'processing' as const, report: null, uploaded_by: null };
+    await t.db.insertInto('datalogs').values(stuck).execute();
+    const { counts } = await recoverAtStartup(t.deps);
+    expect(counts.datalogsFailed).toBe(1);
+    const after = await t.db.selectFrom('datalogs').select(['status', 'error']).where('id', '=', stuck.id).executeTakeFirstOrThrow();
+    expect(after.status).toBe('failed');
+    expect(after.error).toMatch(/restart.*Upload the log again/);
+  });
+});

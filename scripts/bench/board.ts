@@ -1,0 +1,261 @@
+// Board benchmark: one shop with 10,000 jobs and about 50,000 audit events, served by the real server in a child
+// process on loopback, loaded with autocannon. Measures the board list, the job page's requests, and /api/me while
+// the board is loaded. Run: npx tsx scripts/bench/board.ts [jobs]
+import { spawn, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import autocannon from 'autocannon';
+import { createDb, migrateToLatest, newId, nextJobNumber, type Db } from '@revloop/db';
+import { defaultLogRequest } from '@revloop/domain/datalog';
+import { OPEN_STATES, type JobState } from '@revloop/domain/jobs';
+import { seedDemo, type SeededShop } from '../../seeds/demo/seed-demo';
+import { DEMO_PASSWORD } from '../../seeds/demo/people';
+import { freePort } from '../../apps/api/src/testing/free-port';
+
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const DURATION_S = 10;
+const CONNECTIONS = 10;
+const TARGET_RPS = 500;
+const TARGET_P99_MS = 50;
+const TARGET_ME_P99_MS = 25;
+
+/** The query the web board sends by default (apps/web/src/features/jobs/components/job-list-params.ts boardParams). */
+const BOARD_QUERY = '/api/jobs?open=true&sort=state_changed&dir=asc&pageSize=200';
+/** The table view's first page (tableParams with the screen defaults). */
+const TABLE_QUERY = '/api/jobs?sort=updated&dir=desc&pageSize=25';
+
+/** Invented history: mostly finished work, a few hundred open jobs, five audit events per job. */
+export async function addHistory(db: Db, shop: SeededShop, jobCount: number, now: Date): Promise<{ events: number }> {
+  let events = 0;
+  await db.transaction().execute(async (trx) => {
+    const packages = await trx.selectFrom('packages').select('id').where('shop_id', '=', shop.shopId).execute();
+    const at = (hoursAgo: number) => new Date(now.getTime() - hoursAgo * 3_600_000).toISOString();
+    const customers = Array.from({ length: Math.ceil(jobCount / 5) }, (_, i) => ({ id: newId(), i }));
+    for (const chunk of chunks(customers, 500)) {
+      await trx
+        .insertInto('users')
+        .values(chunk.map((c) => ({ id: c.id, email: `bench-${c.i}@customers.test`, name: `Bench Customer ${c.i}`, created_at: at(30_000) })))
+        .execute();
+      await trx
+        .insertInto('memberships')
+        .values(chunk.map((c) => ({ id: newId(), shop_id: shop.shopId, user_id: c.id, role: 'customer' as const, created_at: at(30_000) })))
+        .execute();
+    }
+    const vehicles = customers.map((c) => ({ id: newId(), owner: c.id, i: c.i }));
+    for (const chunk of chunks(vehicles, 500)) {
+      await trx
+        .insertInto('vehicles')
+        .values(
+          chunk.map((v) => ({
+            id: v.id,
+            shop_id: shop.shopId,
+            owner_user_id: v.owner,
+            vin: `1RLBENCH${String(v.i).padStart(9, '0')}`,
+            model_year: 2010 + (v.i % 15),
+            description: `Bench vehicle ${v.i}, 2.0 turbo I4`,
+            spec: '{}',
+            created_at: at(30_000),
+            updated_at: at(30_000),
+          })),
+        )
+        .execute();
+    }
+    const logRequest = JSON.stringify(defaultLogRequest('2.0 turbo I4', 1));
+    const firstNumber = await nextJobNumber(trx, shop.shopId);
+    const jobs = Array.from({ length: jobCount }, (_, i) => {
+      // About one job in twenty-five is still open; the rest are finished or cancelled history.
+      const state: JobState = i % 25 === 0 ? OPEN_STATES[i % OPEN_STATES.length]! : i % 13 === 0 ? 'cancelled' : 'dialed_in';
+      const ageHours = 3 * 365 * 24 * (1 - i / jobCount) + 1;
+      return { id: newId(), i, state, ageHours, vehicle: vehicles[i % vehicles.length]! };
+    });
+    for (const chunk of chunks(jobs, 400)) {
+      await trx
+        .insertInto('jobs')
+        .values(
+          chunk.map((j) => ({
+            id: j.id,
+            shop_id: shop.shopId,
+            number: firstNumber + j.i,
+            vehicle_id: j.vehicle.id,
+            customer_user_id: j.vehicle.owner,
+            dealer_id: null,
+            package_id: packages[j.i % packages.length]!.id,
+            assigned_tuner_id: j.state === 'intake' ? null : shop.tunerIds[j.i % shop.tunerIds.length]!,
+            state: j.state,
+            held_from: j.state === 'on_hold' ? 'on_bench' : null,
+            round: j.state === 'intake' ? 0 : 2,
+            has_stock_read: j.state === 'intake' ? 0 : 1,
+            goals: 'More midrange, smooth part throttle.',
+            log_request: logRequest,
+            cautions_accepted_at: at(j.ageHours),
+            state_changed_at: at(j.ageHours / 2),
+            created_by_user_id: j.vehicle.owner,
+            created_at: at(j.ageHours),
+            updated_at: at(j.ageHours / 2),
+          })),
+        )
+        .execute();
+    }
+    const actions = ['job.opened', 'job.assigned', 'job.moved', 'job.moved', 'job.moved'];
+    const auditRows = jobs.flatMap((j) =>
+      actions.map((action, k) => ({
+        id: newId(),
+        shop_id: shop.shopId,
+        actor_user_id: k === 0 ? j.vehicle.owner : shop.ownerId,
+        action,
+        subject_type: 'Job',
+        subject_id: j.id,
+        details: action === 'job.moved' ? JSON.stringify({ from: 'on_bench', to: 'with_customer', round: k - 1 }) : '{}',
+        created_at: at(j.ageHours - k * (j.ageHours / 10)),
+      })),
+    );
+    for (const chunk of chunks(auditRows, 1000)) await trx.insertInto('audit_events').values(chunk).execute();
+    events = auditRows.length;
+  });
+  return { events };
+}
+
+function chunks<T>(items: T[], size: number): T[][] {
+  return Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
+}
+
+async function startServer(dataDir: string, port: number): Promise<ChildProcess> {
+  const proc = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'apps/api/src/server.ts')], {
+    cwd: ROOT,
+    env: {
+      PATH: process.env.PATH,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      APP_ORIGIN: `http://127.0.0.1:${port}`,
+      DATA_DIR: dataDir,
+      LOCAL_SMTP: 'false',
+      LOCAL_STRIPE: 'false',
+      LOG_LEVEL: 'warn',
+      FILE_LINK_SECRET: 'bench-only-file-link-secret-0123456789abcdef',
+    },
+    stdio: ['ignore', 'inherit', 'inherit'],
+  });
+  const deadline = Date.now() + 120_000;
+  for (;;) {
+    if (proc.exitCode !== null) throw new Error(`the server exited with ${proc.exitCode}`);
+    const ok = await fetch(`http://127.0.0.1:${port}/api/health`).then((r) => r.ok, () => false);
+    if (ok) return proc;
+    if (Date.now() > deadline) throw new Error('the server did not start');
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+/** CPU time the server process has used (user + system, ms), from /proc: load-independent cost per request. */
+function cpuMsOf(pid: number | undefined): number {
+  const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  // Fields 14 and 15 of /proc/<pid>/stat (utime, stime) in clock ticks; this skips the first two.
+  return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100;
+}
+
+let serverPid: number | undefined;
+const run = async (options: autocannon.Options) => {
+  const before = cpuMsOf(serverPid);
+  const result = await autocannon({ duration: DURATION_S, connections: CONNECTIONS, ...options });
+  return { ...result, cpuMs: cpuMsOf(serverPid) - before };
+};
+
+interface Figure {
+  label: string;
+  rps: number;
+  p99: number;
+  ok: boolean;
+  target: string;
+}
+
+function report(label: string, result: autocannon.Result & { cpuMs: number }, targets: { rps?: number; p99: number }): Figure {
+  const failed = result.non2xx + result.errors + result.timeouts;
+  const rps = result.requests.average;
+  const p99 = result.latency.p99;
+  const ok = failed === 0 && (targets.rps === undefined || rps >= targets.rps) && p99 <= targets.p99;
+  const target = `${targets.rps === undefined ? '' : `≥ ${targets.rps} req/s, `}p99 ≤ ${targets.p99} ms`;
+  const figure = { label, rps, p99, ok, target: failed ? `${target}; ${failed} requests failed or timed out` : target };
+  const perRequest = result.cpuMs / Math.max(1, result.requests.total);
+  console.log(
+    `  measured ${label}: ${Math.round(rps)} req/s, p99 ${p99} ms, ${result.requests.total} requests, ${failed} failed; server CPU ${perRequest.toFixed(2)} ms per request`,
+  );
+  return figure;
+}
+
+async function main(): Promise<void> {
+  const jobCount = Number(process.argv[2] ?? 10_000);
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'board-bench-'));
+  let server: ChildProcess | undefined;
+  try {
+    const built = performance.now();
+    const db = createDb(path.join(dataDir, 'revloop.db'));
+    await migrateToLatest(db);
+    const now = new Date();
+    // Rows only: the job page lists files and logs, it does not read them.
+    const ids = await seedDemo(db, now);
+    const { events } = await addHistory(db, ids.kestrel, jobCount, now);
+    const jobs = await db.selectFrom('jobs').select(['id', 'state']).where('shop_id', '=', ids.kestrel.shopId).execute();
+    await db.destroy();
+    const openJobs = jobs.filter((j) => (OPEN_STATES as readonly string[]).includes(j.state));
+    console.log(
+      `data: ${jobs.length.toLocaleString('en')} jobs (${openJobs.length} open) and ${events.toLocaleString('en')}+ audit events in one shop, built in ${((performance.now() - built) / 1000).toFixed(1)} s`,
+    );
+
+    const port = await freePort();
+    server = await startServer(dataDir, port);
+    serverPid = server.pid;
+    console.log(`load average before measuring: ${os.loadavg().map((l) => l.toFixed(1)).join(', ')} on ${os.availableParallelism()} cores`);
+    const base = `http://127.0.0.1:${port}`;
+    const signIn = await fetch(`${base}/api/auth/sign-in`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', origin: base },
+      body: JSON.stringify({ email: 'owner@kestrel.test', password: DEMO_PASSWORD }),
+    });
+    if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}`);
+    const cookie = signIn.headers.getSetCookie().find((c) => c.startsWith('revloop_session='))!.split(';')[0]!;
+    const headers = { cookie };
+
+    // Warm-up: JIT and SQLite page cache, so the first measurement is not the cold start.
+    await run({ url: base + BOARD_QUERY, headers, duration: 3 });
+
+    const figures: Figure[] = [];
+    figures.push(report('board list   GET ' + BOARD_QUERY, await run({ url: base + BOARD_QUERY, headers }), { rps: TARGET_RPS, p99: TARGET_P99_MS }));
+    const table = await run({ url: base + TABLE_QUERY, headers });
+    figures.push(report('table page 1 GET ' + TABLE_QUERY, table, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
+
+    // The requests the job page makes (apps/web/src/app/routes/app/jobs/job.tsx and its panels), for a random job.
+    const pagePaths = ['/api/jobs/:id', '/api/jobs/:id/files', '/api/jobs/:id/datalogs', '/api/jobs/:id/messages', '/api/billing/jobs/:id/payments'];
+    const jobIds = jobs.map((j) => j.id);
+    const jobPage = await run({
+      url: base,
+      headers,
+      requests: pagePaths.map((p, k) => ({
+        method: 'GET' as const,
+        setupRequest: (req: autocannon.Request, context: Record<string, string>) => {
+          if (k === 0) context.jobId = jobIds[Math.floor(Math.random() * jobIds.length)]!;
+          return { ...req, path: p.replace(':id', context.jobId!) };
+        },
+      })),
+    });
+    figures.push(report(`job page     ${pagePaths.length} requests per page view`, jobPage, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
+
+    // /api/me from one signed-in browser while the board list is loaded at the target rate.
+    const [, me] = await Promise.all([
+      run({ url: base + BOARD_QUERY, headers, overallRate: TARGET_RPS }),
+      run({ url: `${base}/api/me`, headers, connections: 1, overallRate: 20 }),
+    ]);
+    figures.push(report(`/api/me      while the board list runs at ${TARGET_RPS} req/s`, me, { p99: TARGET_ME_P99_MS }));
+
+    for (const f of figures) {
+      console.log(`${f.ok ? 'PASS' : 'FAIL'}  ${f.label}: ${Math.round(f.rps)} req/s, p99 ${f.p99} ms (target ${f.target})`);
+    }
+    process.exitCode = figures.every((f) => f.ok) ? 0 : 1;
+  } finally {
+    server?.kill('SIGTERM');
+    fs.rmSync(dataDir, { recursive: true, force: true });
+  }
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) await main();
