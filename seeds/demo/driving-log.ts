@@ -251,7 +251,6 @@ function toCsv(samples: Sample[], c: Context): string {
   let stft1 = 0;
   let stft2 = 0;
   let iat = AMBIENT_C + 4;
-  let knock = 0;
   for (const [i, s] of samples.entries()) {
     const time = i / rate;
     // Coolant climbs from about 30 °C and settles where the thermostat holds it.
@@ -279,8 +278,7 @@ function toCsv(samples: Sample[], c: Context): string {
     const lambdaCmd = warm || s.pull ? s.lambdaCmd : 0.95;
     const lean = o.leanWot && s.pull && rpm >= o.leanWot.aboveRpm ? o.leanWot.errorPct / 100 : 0;
     const lambdaMeas = s.fuelCut ? 1.45 + 0.1 * random() : lambdaCmd * (1 + lean) + (closedLoop ? 0.01 * Math.sin(i * 1.7) : 0) + 0.004 * gauss();
-    if (i >= knockAt && i < knockAt + knockShape.length) knock = (o.knock?.peakDeg ?? 0) * knockShape[i - knockAt]!;
-    else knock = 0;
+    const knock = i >= knockAt && i < knockAt + knockShape.length ? (o.knock?.peakDeg ?? 0) * knockShape[i - knockAt]! : 0;
     const base = s.pull ? (v.engine.aspiration === 'naturally_aspirated' ? 22 + rpm / 900 : 6 + rpm / 700) : 14 + rpm / 250 - (map - 30) * 0.2;
     const spark = Math.min(42, Math.max(-5, base)) - knock + 0.3 * gauss();
     const pedal = Math.max(0, Math.min(100, s.pedal));
