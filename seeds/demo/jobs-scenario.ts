@@ -236,7 +236,7 @@ const KESTREL_PLAN: PlannedJob[] = [
   j('d0', 1, 2, 'intake', 0, null, 0.6, 14),
   j('c5', 10, 0, 'intake', 0, null, 0.2, 4),
   j('c1', 4, 2, 'ready', 0, null, 4, 70),
-  j('c6', 0, 0, 'ready', 0, null, 2.5, 40),
+  j('c6', 0, 0, 'ready', 0, null, 2.5, 18),
   j('c7', 2, 1, 'ready', 0, null, 2, 20),
   j('d1', 8, 0, 'ready', 0, null, 1.5, 9),
   j('c8', 9, 0, 'ready', 0, 1, 1, 5, { taken: true }),
@@ -253,7 +253,7 @@ const KESTREL_PLAN: PlannedJob[] = [
   j('c0', 0, 0, 'log_review', 2, 0, 18, 5, { lastLog: 'knock', reRead: 'matches' }),
   j('c14', 10, 0, 'log_review', 1, 1, 9, 3, { lastLog: 'half_pedal' }),
   j('c2', 3, 0, 'log_review', 1, 0, 11, 20, { lastLog: 'lean' }),
-  j('c7', 8, 1, 'log_review', 2, 1, 20, 30),
+  j('c7', 8, 1, 'log_review', 2, 1, 20, 16),
   j('c10', 6, 0, 'on_hold', 1, 0, 14, 100, { from: 'with_customer' }),
   j('c13', 4, 0, 'on_hold', 0, null, 6, 120, { from: 'ready' }),
   j('c0', 2, 0, 'dialed_in', 3, 0, 95, 62 * 24),
@@ -327,6 +327,13 @@ function stepsTo(plan: PlannedJob): Step[] {
 const WEIGHT: Record<Step['kind'], number> = { read: 1, take: 0.4, start: 1.2, revision: 1.6, download: 0.5, log: 2.4, revise: 0.8, dialed_in: 0.8, hold: 1, cancel: 1 };
 
 const silentMailer = { send: async () => {} };
+
+/** People work by day: a moment of the day is moved into 08:00–20:00 UTC of the same day, keeping the order. */
+function daytime(at: Date, now: Date): Date {
+  const day = Date.UTC(at.getUTCFullYear(), at.getUTCMonth(), at.getUTCDate());
+  const moved = new Date(day + 8 * 3_600_000 + (at.getTime() - day) / 2);
+  return moved.getTime() < now.getTime() - 60_000 ? moved : at;
+}
 
 export interface JobsContext {
   db: Db;
@@ -454,7 +461,7 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
     };
     for (const [k, step] of steps.entries()) {
       elapsed += weights[k]!;
-      at = new Date(p.openedAt.getTime() + ((end - p.openedAt.getTime()) * elapsed) / total);
+      at = daytime(new Date(p.openedAt.getTime() + ((end - p.openedAt.getTime()) * elapsed) / total), now);
       const r = step.round;
       switch (step.kind) {
         case 'read':
@@ -513,6 +520,12 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
           await say(shop.ownerId, SAYS.cancel, {}, 300_000);
           break;
       }
+    }
+    if (p.state === 'with_customer') {
+      // The customer has the revision: downloaded it, and one of them re-read the car with their own tool since.
+      at = new Date(at.getTime() + (now.getTime() - at.getTime()) * 0.3);
+      for (const module of modules) await files.downloaded(fileJob, module, uploaderId, at);
+      if (p.reRead) await files.reRead(fileJob, modules[0]!, p.reRead === 'matches', uploaderId, new Date(at.getTime() + 7_200_000));
     }
     const row = (await findJob(db, shop.shopId, job.id))!;
     if (row.state !== p.state || row.round !== p.round) throw new Error(`demo job ${number} walked to ${row.state} round ${row.round}, planned ${p.state} round ${p.round}`);

@@ -1,3 +1,8 @@
+import { createHash } from 'node:crypto';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { insertAuditEvent, insertDatalog, newId, type Db } from '@revloop/db';
 import { analyzeDatalog, detectCsvLayout, headerSignature, type DatalogReport, type LogRequest } from '@revloop/domain/datalog';
 import { vehicleFuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
@@ -22,10 +27,46 @@ function driveOptions(vehicle: VehicleInput, kind: DriveKind, round: number, see
   }
 }
 
-// Generating and analysing are the slow part, and API tests build many apps per process: a drive of one vehicle model
-// is generated and analysed once and shared (its file is stored once, by hash).
-const generated = new Map<string, Uint8Array>();
-const reports = new Map<string, DatalogReport>();
+// Generating and analysing are the slow part, and every demo start, browser-test server and API test process seeds
+// anew: each drive is made once per vehicle model and kept, with its report, in memory and in a cache folder keyed by
+// the inputs and the source of the generator and the analysis, so a change to either makes it anew.
+const memory = new Map<string, { bytes: Uint8Array; report: DatalogReport }>();
+const CACHE_DIR = path.join(os.tmpdir(), 'revloop-demo-logs');
+let sourceHash: string | undefined;
+
+function codeVersion(): string {
+  if (sourceHash === undefined) {
+    const here = path.dirname(fileURLToPath(import.meta.url));
+    const analysis = path.join(here, '../../packages/domain/src/datalog');
+    const files = [path.join(here, 'driving-log.ts'), ...fs.readdirSync(analysis).filter((f) => f.endsWith('.ts')).sort().map((f) => path.join(analysis, f))];
+    const hash = createHash('sha256');
+    for (const file of files) hash.update(fs.readFileSync(file));
+    sourceHash = hash.digest('hex');
+  }
+  return sourceHash;
+}
+
+function cachedDrive(key: string, make: () => { bytes: Uint8Array; report: DatalogReport }) {
+  let drive = memory.get(key);
+  if (drive) return drive;
+  const name = createHash('sha256').update(`${codeVersion()}|${key}`).digest('hex');
+  const csv = path.join(CACHE_DIR, `${name}.csv`);
+  const json = path.join(CACHE_DIR, `${name}.json`);
+  try {
+    drive = { bytes: new Uint8Array(fs.readFileSync(csv)), report: JSON.parse(fs.readFileSync(json, 'utf8')) as DatalogReport };
+  } catch {
+    drive = make();
+    // Written to a temporary name and renamed, so a seed running alongside never reads half a file.
+    fs.mkdirSync(CACHE_DIR, { recursive: true });
+    for (const [target, data] of [[csv, drive.bytes], [json, JSON.stringify(drive.report)]] as const) {
+      const temp = `${target}.${process.pid}.tmp`;
+      fs.writeFileSync(temp, data);
+      fs.renameSync(temp, target);
+    }
+  }
+  memory.set(key, drive);
+  return drive;
+}
 
 /**
  * Stores a customer's log as the upload and the analysis worker would: the file, the row with its report, and both
@@ -37,20 +78,17 @@ export async function storeDemoLog(
   input: { shopId: string; jobId: string; vehicle: VehicleInput; round: number; kind: DriveKind; logRequest: LogRequest; by: string; at: Date; name: string },
 ): Promise<void> {
   const { vehicle, round, kind } = input;
-  const key = `${vehicle.description}|${kind}|${round > 1}`;
-  let bytes = generated.get(key);
-  if (!bytes) {
-    bytes = new TextEncoder().encode(generateDrivingLog(vehicle, driveOptions(vehicle, kind, round, [...key].reduce((h, c) => (h * 31 + c.charCodeAt(0)) >>> 0, 7), input.logRequest.channels.includes('stft_b2'))));
-    generated.set(key, bytes);
-  }
   const fuel = vehicleFuelSpec(vehicle);
-  const reportKey = `${key}|${JSON.stringify(input.logRequest)}`;
-  let report = reports.get(reportKey);
-  if (!report) {
+  const twoBanks = input.logRequest.channels.includes('stft_b2');
+  // One drive per vehicle model: the VIN and model year do not change how it drives.
+  const { description, engine, transmission, finalDrive, tyreSize, curbMassKg, revLimitRpm } = vehicle;
+  const key = JSON.stringify({ description, engine, transmission, finalDrive, tyreSize, curbMassKg, revLimitRpm, kind, later: round > 1, fuel, logRequest: input.logRequest });
+  const { bytes, report } = cachedDrive(key, () => {
+    const seed = [...vehicle.description, kind].reduce((h, c) => (Math.imul(h, 31) + c.charCodeAt(0)) >>> 0, 7);
+    const text = new TextEncoder().encode(generateDrivingLog(vehicle, driveOptions(vehicle, kind, round, seed, twoBanks)));
     const gearing = datalogVehicleOf(vehicle);
-    report = analyzeDatalog(bytes, { fuel, logRequest: input.logRequest, ...(gearing && { vehicle: gearing }) });
-    reports.set(reportKey, report);
-  }
+    return { bytes: text, report: analyzeDatalog(text, { fuel, logRequest: input.logRequest, ...(gearing && { vehicle: gearing }) }) };
+  });
   const blob = await blobs.putBytes(bytes);
   const headers = detectCsvLayout(bytes).headers;
   const id = newId();
