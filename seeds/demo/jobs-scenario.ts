@@ -174,13 +174,23 @@ function prng(seed: number) {
   };
 }
 
-const GOALS = [
-  'More mid-range torque for daily driving, keep it smooth in traffic.',
-  'Track use: firm throttle response, raise the rev limit slightly, keep knock margin.',
-  'Towing: stronger low-end, firmer shifts under load.',
-  'Economy on the highway, no loss of drivability.',
-  'Match the calibration to the new intake and exhaust; fix the lean idle.',
-];
+/** What customers ask for, by what the package covers. */
+const GOALS: Record<'engine' | 'transmission' | 'both', readonly string[]> = {
+  engine: [
+    'More mid-range torque for daily driving, keep it smooth in traffic.',
+    'Track use: firm throttle response, raise the rev limit slightly, keep knock margin.',
+    'Economy on the highway, no loss of drivability.',
+    'Match the calibration to the new intake and exhaust; fix the lean idle.',
+  ],
+  transmission: [
+    'Quicker, firmer up-shifts under load; hold the gear to the rev limit at full throttle.',
+    'Smoother shifts in town and no hunting between gears on the highway.',
+  ],
+  both: [
+    'Towing: stronger low-end, firmer shifts under load.',
+    'More power for the new parts, with shift points and torque limits to match.',
+  ],
+};
 
 
 /** What people write on a job at each step; the walk picks one line per occasion. */
@@ -432,7 +442,7 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
       state: 'intake',
       held_from: null,
       round: 0,
-      goals: pick(GOALS),
+      goals: pick(GOALS[modules.length === 2 ? 'both' : modules[0] === 'TCM' ? 'transmission' : 'engine']),
       special_requests: JSON.stringify(i % 5 === 0 ? { revLimit: { rpm: vehicle.spec.revLimitRpm + 200, notes: 'Only if knock margin allows.' } } : {}),
       log_request: JSON.stringify(defaultLogRequest(vehicle.spec.engine.family, 1)),
       cautions_accepted_at: opened,
