@@ -12,9 +12,9 @@ import {
   toSrec,
   type MemoryImage,
 } from '@revloop/domain/calibration';
+import { recordAudit } from '../../apps/api/src/features/audit/audit.service';
+import { fileLabel } from '../../apps/api/src/features/files/file.service';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
-import type { SeededJob } from './jobs-scenario';
-import type { SeededShop } from './seed-demo';
 
 // Invented images only: the same vehicle model starts from the same stock calibration, and every revision is a few
 // scaled table regions on top of its parent, as a tuner's change would be.
@@ -90,103 +90,78 @@ function cachedImage(key: string, make: () => MemoryImage): MemoryImage {
 
 const hash = (text: string): number => [...text].reduce((h, c) => (Math.imul(h, 31) + c.charCodeAt(0)) >>> 0, 7);
 
-interface JobContext {
-  job: SeededJob;
-  createdAt: number;
-  stateChangedAt: number;
-  tunerId: string | null;
-  readerId: string;
+/** The job a demo file belongs to; `key` names it by shop and number, never by its random id, so bytes repeat. */
+export interface DemoFileJob {
+  id: string;
+  shopId: string;
+  key: string;
+  vehicleDescription: string;
 }
 
 /**
- * Reads and revisions for every seeded job past intake: a stock read per package module, then Rev 1..round on top of
- * it, in all three formats, uploaded by the right people at plausible times. One job's re-read matches its latest
- * revision and one differs from it, so the proof panel has both answers to show.
+ * Reads, revisions and re-reads of the demo jobs, built as a tuner's work would be: the same vehicle model starts
+ * from the same stock image, and every revision is a few scaled table regions on top of its parent.
  */
-export async function seedFiles(db: Db, blobs: BlobStore, shops: SeededShop[], jobs: SeededJob[]): Promise<void> {
-  const rows = await db.selectFrom('jobs').select(['id', 'created_at', 'state_changed_at', 'assigned_tuner_id', 'has_stock_read']).execute();
-  const byId = new Map(rows.map((r) => [r.id, r]));
-  const shopOf = new Map(shops.map((s) => [s.shopId, s]));
-  // Keys name a job by shop position and number, never by its random id, so every seeding builds the same bytes.
-  const shopIndex = new Map(shops.map((s, i) => [s.shopId, i]));
-  const reReads = { differs: false, matches: false };
+export class DemoFiles {
+  private readonly latest = new Map<string, { id: string; image: MemoryImage; revision: number | null }>();
 
-  for (const [index, job] of jobs.entries()) {
-    const row = byId.get(job.id);
-    const shop = shopOf.get(job.shopId);
-    if (!row || !shop || row.has_stock_read !== 1) continue;
-    const context: JobContext = {
+  constructor(
+    private readonly db: Db,
+    private readonly blobs: BlobStore,
+  ) {}
+
+  async read(job: DemoFileJob, module: CalibrationModule, by: string, at: Date): Promise<void> {
+    const vehicleKey = `${job.vehicleDescription}:${module}`;
+    const stock = cachedImage(vehicleKey, () => generateCalibrationImage({ seed: hash(vehicleKey), size: IMAGE[module].size, baseAddress: BASE_ADDRESS }));
+    const format = FORMATS[hash(vehicleKey) % 3]!;
+    const id = await store(this.db, this.blobs, { job, module, key: vehicleKey, image: stock, format, kind: 'read', name: `stock-read-${module.toLowerCase()}.${EXTENSION[format]}`, by, at });
+    this.latest.set(`${job.id}:${module}`, { id, image: stock, revision: null });
+  }
+
+  async revision(job: DemoFileJob, module: CalibrationModule, revision: number, by: string, at: Date): Promise<void> {
+    const parent = this.latest.get(`${job.id}:${module}`);
+    if (!parent) throw new Error(`demo job ${job.key} has no ${module} read to revise`);
+    const key = `${job.key}:${module}:${revision}`;
+    const image = cachedImage(key, () => reviseImage(parent.image, { seed: hash(key), edits: 4 + revision }));
+    // Most revisions go out as raw binaries; every fourth in a text format, which takes longer to encode.
+    const format = hash(key) % 4 === 0 ? FORMATS[1 + (hash(key) % 2)]! : 'raw';
+    const id = await store(this.db, this.blobs, {
       job,
-      createdAt: Date.parse(row.created_at),
-      stateChangedAt: Date.parse(row.state_changed_at),
-      tunerId: row.assigned_tuner_id,
-      readerId: job.dealerId ? (shop.dealerUserId ?? job.customerUserId) : job.customerUserId,
-    };
-    const jobKey = `${shopIndex.get(job.shopId)}:${job.number}`;
-    const steps = job.round + 2;
-    const at = (step: number) => new Date(context.createdAt + ((context.stateChangedAt - context.createdAt) * step) / steps).toISOString();
+      module,
+      key,
+      image,
+      format,
+      kind: 'revision',
+      revision,
+      parentId: parent.id,
+      notes: REVISION_NOTES[(revision - 1) % REVISION_NOTES.length]!,
+      name: `rev${revision}-${module.toLowerCase()}.${EXTENSION[format]}`,
+      by,
+      at,
+    });
+    this.latest.set(`${job.id}:${module}`, { id, image, revision });
+  }
 
-    for (const [m, name] of job.modules.entries()) {
-      const module = name as CalibrationModule;
-      const vehicleKey = `${job.vehicle.description}:${module}`;
-      const stock = cachedImage(vehicleKey, () => generateCalibrationImage({ seed: hash(vehicleKey), size: IMAGE[module].size, baseAddress: BASE_ADDRESS }));
-      const readFormat = FORMATS[hash(vehicleKey) % 3]!;
-      const read = await store(db, blobs, {
-        job,
-        module,
-        key: vehicleKey,
-        image: stock,
-        format: readFormat,
-        kind: 'read',
-        name: `stock-read-${module.toLowerCase()}.${EXTENSION[readFormat]}`,
-        by: context.readerId,
-        at: at(0.5),
-      });
-      let parent = { id: read, image: stock };
-      for (let revision = 1; revision <= job.round; revision += 1) {
-        const key = `${jobKey}:${module}:${revision}`;
-        const revised = cachedImage(key, () => reviseImage(parent.image, { seed: hash(key), edits: 4 + revision }));
-        const format = FORMATS[(index + m + revision) % 3]!;
-        const id = await store(db, blobs, {
-          job,
-          module,
-          key,
-          image: revised,
-          format,
-          kind: 'revision',
-          revision,
-          parentId: parent.id,
-          notes: REVISION_NOTES[(revision - 1) % REVISION_NOTES.length]!,
-          name: `rev${revision}-${module.toLowerCase()}.${EXTENSION[format]}`,
-          by: context.tunerId ?? shop.ownerId,
-          at: at(revision + 0.5),
-        });
-        parent = { id, image: revised };
-      }
-      if (m > 0 || job.round === 0 || !['with_customer', 'log_review'].includes(job.state)) continue;
-      // One re-read that the customer's tool changed (the warning), one that proves the revision is on the car.
-      const which = !reReads.differs ? 'differs' : !reReads.matches && job.state === 'log_review' ? 'matches' : null;
-      if (!which) continue;
-      reReads[which] = true;
-      const tamperedKey = `${jobKey}:tampered`;
-      const image = which === 'matches' ? parent.image : cachedImage(tamperedKey, () => reviseImage(parent.image, { seed: 99, edits: 3 }));
-      await store(db, blobs, {
-        job,
-        module,
-        key: which === 'matches' ? `${jobKey}:${module}:${job.round}` : tamperedKey,
-        image,
-        format: 'raw',
-        kind: 're_read',
-        name: `re-read-${module.toLowerCase()}.bin`,
-        by: context.readerId,
-        at: new Date(context.stateChangedAt + 60_000).toISOString(),
-      });
-    }
+  /** The customer (or their dealer) downloads the revision just sent, as the job page's button records it. */
+  async downloaded(job: DemoFileJob, module: CalibrationModule, by: string, at: Date): Promise<void> {
+    const sent = this.latest.get(`${job.id}:${module}`);
+    if (!sent || sent.revision === null) throw new Error(`demo job ${job.key} has no ${module} revision to download`);
+    const label = fileLabel({ kind: 'revision', module, revision_number: sent.revision });
+    await recordAudit(this.db, { shopId: job.shopId, actorUserId: by, action: 'file.downloaded', subjectType: 'Job', subjectId: job.id, details: { fileId: sent.id, viaLink: false, text: `${label} downloaded` }, at });
+  }
+
+  /** A re-read of what is on the car: the latest revision itself, or one the customer's own tool changed. */
+  async reRead(job: DemoFileJob, module: CalibrationModule, matches: boolean, by: string, at: Date): Promise<void> {
+    const sent = this.latest.get(`${job.id}:${module}`);
+    if (!sent) throw new Error(`demo job ${job.key} has no ${module} revision to re-read`);
+    const key = matches ? `${job.key}:${module}:sent` : `${job.key}:${module}:tampered`;
+    const image = matches ? sent.image : cachedImage(key, () => reviseImage(sent.image, { seed: 99, edits: 3 }));
+    await store(this.db, this.blobs, { job, module, key, image, format: 'raw', kind: 're_read', name: `re-read-${module.toLowerCase()}.bin`, by, at });
   }
 }
 
 interface StoreInput {
-  job: SeededJob;
+  job: DemoFileJob;
   module: CalibrationModule;
   key: string;
   image: MemoryImage;
@@ -197,7 +172,7 @@ interface StoreInput {
   notes?: string;
   name: string;
   by: string;
-  at: string;
+  at: Date;
 }
 
 const LABEL: Record<CalibrationFileFormat, string> = { raw: 'Raw binary', intel_hex: 'Intel HEX', srec: 'Motorola S-record' };
@@ -224,7 +199,7 @@ async function store(db: Db, blobs: BlobStore, input: StoreInput): Promise<strin
     image_bytes: file.imageBytes,
     ranges: file.ranges,
     uploaded_by_user_id: input.by,
-    created_at: input.at,
+    created_at: input.at.toISOString(),
   });
   const what = input.kind === 'revision' ? `Revision ${input.revision} (${input.module})` : `${input.kind === 'read' ? 'Read' : 'Re-read'} (${input.module})`;
   await insertAuditEvent(db, {
@@ -235,7 +210,7 @@ async function store(db: Db, blobs: BlobStore, input: StoreInput): Promise<strin
     subject_type: 'Job',
     subject_id: input.job.id,
     details: JSON.stringify({ fileId: id, text: `${what} uploaded, ${LABEL[input.format]}` }),
-    created_at: input.at,
+    created_at: input.at.toISOString(),
   });
   return id;
 }

@@ -1,110 +1,120 @@
+import { createHash } from 'node:crypto';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { insertAuditEvent, insertDatalog, newId, type Db } from '@revloop/db';
-import { analyzeDatalog, defaultLogRequest, detectCsvLayout, headerSignature, type DatalogReport } from '@revloop/domain/datalog';
-import { generateLog, type GenerateLogOptions } from '@revloop/domain/datalog/testing';
-import { vehicleFuelSpec } from '@revloop/domain/vehicles';
+import { analyzeDatalog, detectCsvLayout, headerSignature, type DatalogReport, type LogRequest } from '@revloop/domain/datalog';
+import { vehicleFuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
+import { datalogVehicleOf } from '../../apps/api/src/features/datalogs/datalog.service';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
-import type { SeededJob } from './jobs-scenario';
+import { generateDrivingLog, pullGears, type DrivingLogOptions } from './driving-log';
 
-// Short logs (about seven minutes at 10 Hz) keep the whole seed quick; every number here is invented demo data.
-const BASE: GenerateLogOptions = { rateHz: 10, warmupS: 320, cruiseS: 60, gearChannel: true };
+/** What went on in the drive: most logs are clean, some run lean in places, one knocks, one has a half-pressed pedal. */
+export type DriveKind = 'good' | 'lean' | 'knock' | 'half_pedal';
 
-/** What went on in the drive: most logs are good, one has the pedal only half pressed, one knocks. */
-function driveFor(kind: 'good' | 'lean' | 'half_pedal' | 'knock', round: number, twoBanks: boolean): GenerateLogOptions {
-  const gears = round <= 1 ? [3] : [2, 3];
-  const base = { ...BASE, twoBanks };
+function driveOptions(vehicle: VehicleInput, kind: DriveKind, round: number, seed: number, twoBanks: boolean): DrivingLogOptions {
+  const base: DrivingLogOptions = { seed, wotGears: pullGears(vehicle, round), twoBanks };
   switch (kind) {
-    case 'half_pedal':
-      return { ...base, pulls: [{ gears, pedalPct: 60 }] };
-    case 'knock':
-      return { ...base, pulls: [{ gears }], knock: [{ pull: 0, atFraction: 0.6, peakDeg: 4.5 }] };
     case 'lean':
-      return {
-        ...base,
-        pulls: [{ gears }],
-        leanWot: { aboveRpm: 4500, errorPct: 5 },
-        trimErrors: [{ rpm: [2000, 2500], map: [40, 50], trimPct: 8 }],
-      };
+      return { ...base, leanWot: { aboveRpm: 0.7 * vehicle.revLimitRpm, errorPct: 4.5 }, leanCell: { rpm: [1500, 2500], map: [40, 60], trimPct: 7 } };
+    case 'knock':
+      return { ...base, knock: { atFraction: 0.65, peakDeg: 4.5 } };
+    case 'half_pedal':
+      return { ...base, pedalPct: 62 };
     case 'good':
-      return { ...base, pulls: [{ gears }] };
+      return base;
   }
 }
 
-interface PlannedLog {
-  job: SeededJob;
-  round: number;
-  kind: Parameters<typeof driveFor>[0];
-  hoursAgo: number;
+// Generating and analysing are the slow part, and every demo start, browser-test server and API test process seeds
+// anew: each drive is made once per vehicle model and kept, with its report, in memory and in a cache folder keyed by
+// the inputs and the source of the generator and the analysis, so a change to either makes it anew.
+const memory = new Map<string, { bytes: Uint8Array; report: DatalogReport }>();
+const CACHE_DIR = path.join(os.tmpdir(), 'revloop-demo-logs');
+let sourceHash: string | undefined;
+
+function codeVersion(): string {
+  if (sourceHash === undefined) {
+    const here = path.dirname(fileURLToPath(import.meta.url));
+    const analysis = path.join(here, '../../packages/domain/src/datalog');
+    const files = [path.join(here, 'driving-log.ts'), ...fs.readdirSync(analysis).filter((f) => f.endsWith('.ts')).sort().map((f) => path.join(analysis, f))];
+    const hash = createHash('sha256');
+    for (const file of files) hash.update(fs.readFileSync(file));
+    sourceHash = hash.digest('hex');
+  }
+  return sourceHash;
 }
 
-/** Logs for jobs in log review and dialed in (with the round before as history) and earlier rounds of jobs with the customer. */
-function plan(jobs: SeededJob[]): PlannedLog[] {
-  const logs: PlannedLog[] = [];
-  let reviews = 0;
-  for (const job of jobs) {
-    if (job.state === 'log_review') {
-      const kind = reviews === 0 ? 'half_pedal' : reviews === 1 ? 'knock' : 'lean';
-      reviews++;
-      if (job.round > 1) logs.push({ job, round: job.round - 1, kind: 'lean', hoursAgo: 72 });
-      logs.push({ job, round: job.round, kind, hoursAgo: 2 + reviews });
-    } else if (job.state === 'dialed_in') {
-      logs.push({ job, round: job.round - 1, kind: 'lean', hoursAgo: 240 });
-      logs.push({ job, round: job.round, kind: 'good', hoursAgo: 200 });
-    } else if (job.state === 'with_customer' && job.round > 1) {
-      logs.push({ job, round: job.round - 1, kind: 'lean', hoursAgo: 60 });
+function cachedDrive(key: string, make: () => { bytes: Uint8Array; report: DatalogReport }) {
+  let drive = memory.get(key);
+  if (drive) return drive;
+  const name = createHash('sha256').update(`${codeVersion()}|${key}`).digest('hex');
+  const csv = path.join(CACHE_DIR, `${name}.csv`);
+  const json = path.join(CACHE_DIR, `${name}.json`);
+  try {
+    drive = { bytes: new Uint8Array(fs.readFileSync(csv)), report: JSON.parse(fs.readFileSync(json, 'utf8')) as DatalogReport };
+  } catch {
+    drive = make();
+    // Written to a temporary name and renamed, so a seed running alongside never reads half a file.
+    fs.mkdirSync(CACHE_DIR, { recursive: true });
+    for (const [target, data] of [[csv, drive.bytes], [json, JSON.stringify(drive.report)]] as const) {
+      const temp = `${target}.${process.pid}.tmp`;
+      fs.writeFileSync(temp, data);
+      fs.renameSync(temp, target);
     }
   }
-  return logs;
+  memory.set(key, drive);
+  return drive;
 }
 
-// Generating and analysing are the slow part, and API tests seed a fresh database per test: each kind of drive is
-// generated and analysed once per process and shared (its file is stored once, by hash).
-const generated = new Map<string, Uint8Array>();
-const reports = new Map<string, DatalogReport>();
-
-/** Generates, analyses and stores the demo logs; analysis runs here directly, as the worker would. */
-export async function seedLogs(db: Db, blobs: BlobStore, jobs: SeededJob[], now: Date): Promise<number> {
-  const planned = plan(jobs);
-  for (const log of planned) {
-    const logRequest = defaultLogRequest(log.job.vehicle.engine.family, log.round);
-    const twoBanks = logRequest.channels.includes('stft_b2');
-    const key = `${log.kind}|${logRequest.wotGears}|${twoBanks}`;
-    const bytes = generated.get(key) ?? new TextEncoder().encode(generateLog(driveFor(log.kind, log.round, twoBanks)).text);
-    generated.set(key, bytes);
-    const fuel = vehicleFuelSpec(log.job.vehicle);
-    const reportKey = `${key}|${JSON.stringify(fuel)}|${JSON.stringify(logRequest)}`;
-    const report = reports.get(reportKey) ?? analyzeDatalog(bytes, { fuel, logRequest });
-    reports.set(reportKey, report);
-    const blob = await blobs.putBytes(bytes);
-    const headers = detectCsvLayout(bytes).headers;
-    const at = new Date(now.getTime() - log.hoursAgo * 3_600_000).toISOString();
-    const name = `rev${log.round}-drive.csv`;
-    const row = await insertDatalog(db, {
-      id: newId(),
-      shop_id: log.job.shopId,
-      job_id: log.job.id,
-      round: log.round,
-      original_name: name,
-      sha256: blob.sha256,
-      size_bytes: blob.size,
-      header_signature: headerSignature(headers),
-      mapping: JSON.stringify({ headers, overrides: {} }),
-      fuel: JSON.stringify(fuel),
-      status: 'ready',
-      error: null,
-      report: JSON.stringify(report),
-      uploaded_by: log.job.customerUserId,
-      created_at: at,
-    });
-    await insertAuditEvent(db, {
-      id: newId(),
-      shop_id: log.job.shopId,
-      actor_user_id: log.job.customerUserId,
-      action: 'datalog.uploaded',
-      subject_type: 'Job',
-      subject_id: log.job.id,
-      details: JSON.stringify({ datalogId: row.id, text: `Log ${name} uploaded (on revision ${log.round})` }),
-      created_at: at,
-    });
+/**
+ * Stores a customer's log as the upload and the analysis worker would: the file, the row with its report, and both
+ * timeline entries. The caller then records the fact and moves the job, as the worker does.
+ */
+export async function storeDemoLog(
+  db: Db,
+  blobs: BlobStore,
+  input: { shopId: string; jobId: string; vehicle: VehicleInput; round: number; kind: DriveKind; logRequest: LogRequest; by: string; at: Date; name: string },
+): Promise<void> {
+  const { vehicle, round, kind } = input;
+  const fuel = vehicleFuelSpec(vehicle);
+  const twoBanks = input.logRequest.channels.includes('stft_b2');
+  // One drive per vehicle model: the VIN and model year do not change how it drives.
+  const { description, engine, transmission, finalDrive, tyreSize, curbMassKg, revLimitRpm } = vehicle;
+  const key = JSON.stringify({ description, engine, transmission, finalDrive, tyreSize, curbMassKg, revLimitRpm, kind, later: round > 1, fuel, logRequest: input.logRequest });
+  const { bytes, report } = cachedDrive(key, () => {
+    const seed = [...vehicle.description, kind].reduce((h, c) => (Math.imul(h, 31) + c.charCodeAt(0)) >>> 0, 7);
+    const text = new TextEncoder().encode(generateDrivingLog(vehicle, driveOptions(vehicle, kind, round, seed, twoBanks)));
+    const gearing = datalogVehicleOf(vehicle);
+    return { bytes: text, report: analyzeDatalog(text, { fuel, logRequest: input.logRequest, ...(gearing && { vehicle: gearing }) }) };
+  });
+  const blob = await blobs.putBytes(bytes);
+  const headers = detectCsvLayout(bytes).headers;
+  const id = newId();
+  const at = input.at.toISOString();
+  await insertDatalog(db, {
+    id,
+    shop_id: input.shopId,
+    job_id: input.jobId,
+    round,
+    original_name: input.name,
+    sha256: blob.sha256,
+    size_bytes: blob.size,
+    header_signature: headerSignature(headers),
+    mapping: JSON.stringify({ headers, overrides: {} }),
+    fuel: JSON.stringify(fuel),
+    status: 'ready',
+    error: null,
+    report: JSON.stringify(report),
+    uploaded_by: input.by,
+    created_at: at,
+  });
+  const fails = report.checks.filter((c) => c.status === 'fail').length;
+  for (const [action, text, when] of [
+    ['datalog.uploaded', `Log ${input.name} uploaded (on revision ${round})`, at],
+    ['datalog.analysed', `Log ${input.name} checked: ${fails === 0 ? 'usable' : `${fails} check${fails === 1 ? '' : 's'} failed`}`, new Date(input.at.getTime() + 20_000).toISOString()],
+  ] as const) {
+    await insertAuditEvent(db, { id: newId(), shop_id: input.shopId, actor_user_id: input.by, action, subject_type: 'Job', subject_id: input.jobId, details: JSON.stringify({ datalogId: id, text }), created_at: when });
   }
-  return planned.length;
 }

@@ -22,6 +22,22 @@ export const KESTREL = {
     { email: 'customer@kestrel.test', name: 'Jordan Hale' },
     { email: 'riley.moss@kestrel.test', name: 'Riley Moss' },
     { email: 'casey.nguyen@kestrel.test', name: 'Casey Nguyen' },
+    // More invented customers without a listed sign-in, so the board holds a small shop's week of work.
+    { email: 'priya.raman@kestrel.test', name: 'Priya Raman' },
+    { email: 'dmitri.volkov@kestrel.test', name: 'Dmitri Volkov' },
+    { email: 'sofia.marchetti@kestrel.test', name: 'Sofia Marchetti' },
+    { email: 'ben.okonkwo@kestrel.test', name: 'Ben Okonkwo' },
+    { email: 'hana.kobayashi@kestrel.test', name: 'Hana Kobayashi' },
+    { email: 'luis.ferreira@kestrel.test', name: 'Luis Ferreira' },
+    { email: 'grace.whitaker@kestrel.test', name: 'Grace Whitaker' },
+    { email: 'owen.gallagher@kestrel.test', name: 'Owen Gallagher' },
+    { email: 'mei.tan@kestrel.test', name: 'Mei Tan' },
+    { email: 'kofi.mensah@kestrel.test', name: 'Kofi Mensah' },
+    { email: 'ingrid.solberg@kestrel.test', name: 'Ingrid Solberg' },
+    { email: 'rafael.ortiz@kestrel.test', name: 'Rafael Ortiz' },
+    { email: 'nadia.petrova@kestrel.test', name: 'Nadia Petrova' },
+    { email: 'tom.achterberg@kestrel.test', name: 'Tom Achterberg' },
+    { email: 'wes.carlisle@kestrel.test', name: 'Wes Carlisle' },
   ],
   dealerCustomers: [
     { email: 'dcustomer@kestrel.test', name: 'Morgan Pryce' },
@@ -37,6 +53,9 @@ export const HARBOR = {
   customers: [
     { email: 'customer@harbor.test', name: 'Noor Haddad' },
     { email: 'lena.fischer@harbor.test', name: 'Lena Fischer' },
+    { email: 'jonas.berg@harbor.test', name: 'Jonas Berg' },
+    { email: 'amelie.laurent@harbor.test', name: 'Amélie Laurent' },
+    { email: 'karim.aziz@harbor.test', name: 'Karim Aziz' },
   ],
 } as const;
 

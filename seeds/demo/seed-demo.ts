@@ -6,13 +6,12 @@ import {
   newId,
   type Db,
 } from '@revloop/db';
+import { sql } from 'kysely';
 import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword } from '../../apps/api/src/features/auth/password';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
 import { seedBilling } from './billing-scenario';
-import { seedFiles } from './files-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
-import { seedLogs } from './logs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
 export interface SeededShop {
@@ -33,12 +32,12 @@ export interface DemoIds {
 }
 
 export interface SeedOptions {
-  /** Where the demo's calibration files and logs are stored; without it only rows are seeded. */
-  blobs?: BlobStore;
+  /** Where the demo's calibration files and logs are stored. */
+  blobs: BlobStore;
 }
 
 /** Loads the invented scenario into an empty, migrated database. Times are spread back from `now`. */
-export async function seedDemo(db: Db, now: Date = new Date(), options: SeedOptions = {}): Promise<DemoIds> {
+export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise<DemoIds> {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const daysAgo = (d: number) => new Date(now.getTime() - d * 86_400_000).toISOString();
 
@@ -82,8 +81,8 @@ export async function seedDemo(db: Db, now: Date = new Date(), options: SeedOpti
   await member(kestrelId, dealerUserId, 'dealer', 200, dealer.id);
   const kCustomers: string[] = [];
   for (const [i, c] of KESTREL.customers.entries()) {
-    const id = await user(c, 150 - i * 30);
-    await member(kestrelId, id, 'customer', 150 - i * 30);
+    const id = await user(c, 150 - i * 2);
+    await member(kestrelId, id, 'customer', 150 - i * 2);
     kCustomers.push(id);
   }
   const kDealerCustomers: string[] = [];
@@ -104,8 +103,8 @@ export async function seedDemo(db: Db, now: Date = new Date(), options: SeedOpti
   }
   const hCustomers: string[] = [];
   for (const [i, c] of HARBOR.customers.entries()) {
-    const id = await user(c, 90 - i * 20);
-    await member(harborId, id, 'customer', 90 - i * 20);
+    const id = await user(c, 90 - i * 5);
+    await member(harborId, id, 'customer', 90 - i * 5);
     hCustomers.push(id);
   }
 
@@ -121,13 +120,25 @@ export async function seedDemo(db: Db, now: Date = new Date(), options: SeedOpti
     dealerCustomerIds: kDealerCustomers,
   };
   const harbor: SeededShop = { shopId: harborId, ownerId: hOwner, tunerIds: hTuners, customerIds: hCustomers, dealerId: null, dealerUserId: null, dealerCustomerIds: [] };
+  const context = { db, blobs: options.blobs, now, customerNames: names };
   const jobs = [
-    ...(await seedJobs(db, kestrel, { plan: 'kestrel', now, customerNames: names, seed: 7 })),
-    ...(await seedJobs(db, harbor, { plan: 'harbor', now, customerNames: names, seed: 11 })),
+    ...(await seedJobs(context, kestrel, { plan: 'kestrel', seed: 7, shopIndex: 0 })),
+    ...(await seedJobs(context, harbor, { plan: 'harbor', seed: 11, shopIndex: 1 })),
   ];
-  if (options.blobs) await seedFiles(db, options.blobs, [kestrel, harbor], jobs);
-  if (options.blobs) await seedLogs(db, options.blobs, jobs, now);
+  await leaveAFewUnread(db, now);
   await seedBilling(db, now, { kestrel, harbor }, jobs);
   return { adminId, kestrel, harbor, jobs };
+}
+
+/** Everyone has read their notifications up to the last few (two to five), as a person who checks the app daily would. */
+async function leaveAFewUnread(db: Db, now: Date): Promise<void> {
+  await sql`
+    UPDATE notifications SET read_at = min(strftime('%Y-%m-%dT%H:%M:%fZ', created_at, '+40 minutes'), ${now.toISOString()})
+    WHERE id IN (
+      SELECT id FROM (
+        SELECT id, user_id, row_number() OVER (PARTITION BY shop_id, user_id ORDER BY created_at DESC) AS newest
+        FROM notifications
+      ) WHERE newest > 2 + (unicode(substr(user_id, -1)) % 4)
+    )`.execute(db);
 }
 

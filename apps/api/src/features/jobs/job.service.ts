@@ -5,6 +5,7 @@ import {
   findUserByEmail,
   findVehicle,
   insertJob,
+  insertJobMessage,
   insertMembership,
   insertUser,
   insertVehicle,
@@ -170,8 +171,11 @@ async function noticeForMove(db: Db, job: JobListRow, to: JobState) {
  * the person uploading may not make the move by hand, but its precondition is still checked.
  * `extraEmailLines` are added to the e-mails the move sends (e.g. signed download links for a revision).
  */
+/** What moving a job needs: the API passes its deps, the demo seed its own clock and a mailer that sends nothing. */
+export type JobFlowDeps = Pick<AppDeps, 'db' | 'clock' | 'mailer'> & { env: Pick<AppDeps['env'], 'APP_ORIGIN'> };
+
 export async function moveJob(
-  deps: AppDeps,
+  deps: JobFlowDeps,
   auth: AuthContext & { shop: { id: string } },
   jobId: string,
   to: JobState,
@@ -361,7 +365,7 @@ export async function assignJob(deps: AppDeps, auth: AuthContext & { shop: { id:
 }
 
 /** A tuner takes an unassigned job; the `where` makes two tuners taking it at once safe. */
-export async function takeJob(deps: AppDeps, auth: AuthContext & { shop: { id: string } }, jobId: string): Promise<JobListRow> {
+export async function takeJob(deps: JobFlowDeps, auth: AuthContext & { shop: { id: string } }, jobId: string): Promise<JobListRow> {
   const { db, clock } = deps;
   const job = await loadJob(db, auth, jobId);
   if (job.assigned_tuner_id) throw new DomainError('conflict', 'This job already has a tuner.');
@@ -375,4 +379,27 @@ export async function takeJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
   if (Number(taken.numUpdatedRows) !== 1) throw new DomainError('conflict', 'Another tuner just took this job.');
   await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'job.taken', subjectType: 'Job', subjectId: job.id, at: clock.now() });
   return (await findJob(db, auth.shop.id, job.id))!;
+}
+
+/** Posts a message on a job and tells the other side (the shop, or the customer and their dealer). */
+export async function postJobMessage(deps: JobFlowDeps, auth: AuthContext & { shop: { id: string } }, job: JobListRow, body: string) {
+  const { db, clock } = deps;
+  const message = await insertJobMessage(db, { id: newId(), shop_id: auth.shop.id, job_id: job.id, author_user_id: auth.user.id, body, created_at: clock.now().toISOString() });
+  const fromShop = auth.actor.role === 'owner' || auth.actor.role === 'tuner';
+  await notify(
+    db,
+    deps.mailer,
+    {
+      shopId: auth.shop.id,
+      jobId: job.id,
+      kind: 'message_received',
+      recipients: fromShop ? await customerSideOf(db, job) : await shopSideOf(db, job),
+      title: `Message from ${auth.user.name} — job ${job.number}`,
+      body: body.length > 280 ? `${body.slice(0, 277)}…` : body,
+      link: jobLink(deps.env.APP_ORIGIN, job.id),
+      at: clock.now(),
+    },
+    auth.user.id,
+  );
+  return message;
 }

@@ -157,7 +157,8 @@ describe('moving a job', () => {
   });
 
   it('customers cannot make shop moves; another tuner’s job is invisible to a tuner', async () => {
-    const customerJob = kestrelJob((j) => j.state === 'ready' && j.customerUserId === t.ids.kestrel.customerIds[0]);
+    // The demo customer's jobs are with them and in log review; sending a job back to the bench is the shop's move.
+    const customerJob = kestrelJob((j) => j.state === 'log_review' && j.customerUserId === t.ids.kestrel.customerIds[0]);
     const customer = await signIn(t.app, 'customer@kestrel.test');
     expect((await customer.post(`/api/jobs/${customerJob.id}/transitions`).send({ to: 'on_bench' })).status).toBe(403);
 
@@ -194,7 +195,7 @@ describe('moving a job', () => {
 
 describe('messages', () => {
   it('a customer writes to the shop; the assigned tuner is notified by e-mail', async () => {
-    const job = kestrelJob((j) => j.state === 'on_bench' && j.customerUserId === t.ids.kestrel.customerIds[0]);
+    const job = kestrelJob((j) => j.state === 'log_review' && j.customerUserId === t.ids.kestrel.customerIds[0]);
     const customer = await signIn(t.app, 'customer@kestrel.test');
     const posted = await customer.post(`/api/jobs/${job.id}/messages`).send({ body: 'Can you raise the rev limit a little?' });
     expect(posted.status).toBe(201);
@@ -207,7 +208,7 @@ describe('messages', () => {
   });
 
   it('an e-mail preference turns the mail off but keeps the in-app notice', async () => {
-    const job = kestrelJob((j) => j.state === 'on_bench' && j.customerUserId === t.ids.kestrel.customerIds[0]);
+    const job = kestrelJob((j) => j.state === 'log_review' && j.customerUserId === t.ids.kestrel.customerIds[0]);
     const customer = await signIn(t.app, 'customer@kestrel.test');
     expect((await customer.put('/api/notifications/preferences').send({ prefs: { message_received: { email: false } } })).status).toBe(200);
     const owner = await signIn(t.app, 'owner@kestrel.test');

@@ -3,11 +3,9 @@ import {
   JOB_SORTS,
   eachJobBatch,
   findJob,
-  insertJobMessage,
   listAuditEvents,
   listJobMessages,
   listJobs,
-  newId,
   updateJob,
   type JobListFilter,
 } from '@revloop/db';
@@ -21,17 +19,14 @@ import type { AppDeps } from '../../app';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
-import { notify } from '../notifications/notify.service';
 import {
   assignJob,
-  customerSideOf,
-  jobLink,
   jobRowToJob,
   jobSubject,
   loadJob,
   moveJob,
   openJob,
-  shopSideOf,
+  postJobMessage,
   takeJob,
 } from './job.service';
 
@@ -204,24 +199,7 @@ export function createJobsRouter(deps: AppDeps): Router {
       throw new DomainError(auth.actor.shopReadOnly ? 'shop_read_only' : 'forbidden', 'You cannot post on this job.');
     }
     const { body } = parseInput(messageInputSchema, req.body);
-    const message = await insertJobMessage(db, { id: newId(), shop_id: auth.shop.id, job_id: job.id, author_user_id: auth.user.id, body, created_at: clock.now().toISOString() });
-    const fromShop = auth.actor.role === 'owner' || auth.actor.role === 'tuner';
-    const recipients = fromShop ? await customerSideOf(db, job) : await shopSideOf(db, job);
-    await notify(
-      db,
-      deps.mailer,
-      {
-        shopId: auth.shop.id,
-        jobId: job.id,
-        kind: 'message_received',
-        recipients,
-        title: `Message from ${auth.user.name} — job ${job.number}`,
-        body: body.length > 280 ? `${body.slice(0, 277)}…` : body,
-        link: jobLink(deps.env.APP_ORIGIN, job.id),
-        at: clock.now(),
-      },
-      auth.user.id,
-    );
+    const message = await postJobMessage(deps, auth, job, body);
     res.status(201).json({ data: { id: message.id, body: message.body, author: { id: auth.user.id, name: auth.user.name }, mine: true, createdAt: message.created_at } });
   });
 
