@@ -1,7 +1,8 @@
-// One-way imports: web → api contract only via HTTP; api → domain/db; db → domain; domain → nothing with I/O.
+// One-way imports: web → domain (and the API over HTTP); api → db/domain; db → domain; domain → nothing with I/O.
+import fs from 'node:fs';
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
-import importX from 'eslint-plugin-import-x';
+import importX, { createNodeResolver } from 'eslint-plugin-import-x';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
 
@@ -9,9 +10,49 @@ const restrict = (patterns) => ({
   'no-restricted-imports': ['error', { patterns }],
 });
 
-// A later block replaces an earlier block's rule, so every web block repeats the web-wide patterns.
+// Module names the web must never load; folder boundaries are the zones below.
 const WEB_WIDE = [
-  { group: ['@revloop/db', 'kysely', 'better-sqlite3', 'express', '@revloop/api', '../../api/*', 'node:*'], message: 'apps/web talks to the server only over /api.' },
+  { group: ['@revloop/db', 'kysely', 'better-sqlite3', 'express', '@revloop/api', 'node:*'], message: 'apps/web talks to the server only over /api.' },
+];
+
+const FEATURES = 'apps/web/src/features';
+// The only modules one web feature may import from another: each feature's query endpoints and these few components.
+const SHARED_FEATURE_MODULES = [
+  'auth/api/get-me.ts',
+  'customers/api/get-customers.ts',
+  'jobs/api/get-jobs.ts',
+  'members/api/get-members.ts',
+  'notifications/api/get-notifications.ts',
+  'packages/api/get-packages.ts',
+  'vehicles/api/get-vehicles.ts',
+  'datalogs/components/progress-bar.tsx',
+  'jobs/components/intake-errors.ts',
+  'vehicles/components/rolling-circumference-form.tsx',
+  'vehicles/components/vehicle-units.ts',
+];
+const featureNames = fs
+  .readdirSync(new URL(FEATURES, import.meta.url), { withFileTypes: true })
+  .filter((entry) => entry.isDirectory())
+  .map((entry) => entry.name);
+
+// Zones are folders resolved from this file, so the rules bite however deep a relative path climbs.
+const ZONES = [
+  { target: 'packages/domain', from: ['packages/db', 'apps', 'seeds', 'scripts'], message: 'packages/domain imports nothing outside itself.' },
+  { target: 'packages/db', from: ['apps', 'seeds', 'scripts'], message: 'packages/db imports only packages/domain.' },
+  { target: 'apps/api', from: ['apps/web', 'scripts'], message: 'apps/api imports only packages/db and packages/domain.' },
+  { target: 'apps/web', from: ['apps/api', 'packages/db', 'seeds', 'scripts'], message: 'apps/web imports only packages/domain; it reaches the API over /api.' },
+  {
+    target: ['apps/web/src/components', 'apps/web/src/lib', 'apps/web/src/config'],
+    from: ['apps/web/src/features', 'apps/web/src/app'],
+    message: 'shared web code does not import features or app.',
+  },
+  { target: FEATURES, from: 'apps/web/src/app', message: 'features do not import app routes.' },
+  ...featureNames.map((name) => ({
+    target: `${FEATURES}/${name}`,
+    from: FEATURES,
+    except: [`./${name}`, ...SHARED_FEATURE_MODULES],
+    message: `features import another feature only through the shared modules named in eslint.config.js (SHARED_FEATURE_MODULES).`,
+  })),
 ];
 
 export default tseslint.config(
@@ -21,10 +62,19 @@ export default tseslint.config(
   {
     plugins: { 'import-x': importX },
     languageOptions: { globals: { ...globals.node } },
+    settings: {
+      'import-x/extensions': ['.ts', '.tsx', '.js', '.mjs'],
+      'import-x/parsers': { '@typescript-eslint/parser': ['.ts', '.tsx'] },
+      // Workspace packages resolve through their node_modules symlinks to the real src files.
+      'import-x/resolver-next': [
+        createNodeResolver({ extensions: ['.ts', '.tsx', '.js', '.mjs', '.json'], conditionNames: ['types', 'import', 'default'] }),
+      ],
+    },
     rules: {
       '@typescript-eslint/consistent-type-imports': 'error',
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
-      'import-x/no-cycle': 'off',
+      'import-x/no-cycle': 'error',
+      'import-x/no-restricted-paths': ['error', { basePath: import.meta.dirname, zones: ZONES }],
       'no-console': 'off',
     },
   },
@@ -34,7 +84,6 @@ export default tseslint.config(
     rules: restrict([
       { group: ['express', 'kysely', 'better-sqlite3', 'react', 'react-dom', '@revloop/db', '@revloop/api', '@revloop/web'], message: 'packages/domain is pure: no I/O, no framework.' },
       { group: ['node:fs', 'node:fs/*', 'fs', 'node:net', 'node:http', 'node:child_process'], message: 'packages/domain does no I/O.' },
-      { group: ['../../../apps/*', '../../db/*'], message: 'packages/domain imports nothing outside itself.' },
     ]),
   },
   {
@@ -44,13 +93,11 @@ export default tseslint.config(
   },
   {
     files: ['packages/db/src/**/*.ts'],
-    rules: restrict([
-      { group: ['express', 'react', '@revloop/api', '@revloop/web', '../../../apps/*'], message: 'packages/db knows no HTTP and no UI.' },
-    ]),
+    rules: restrict([{ group: ['express', 'react', '@revloop/api', '@revloop/web'], message: 'packages/db knows no HTTP and no UI.' }]),
   },
   {
     files: ['apps/api/src/**/*.ts'],
-    rules: restrict([{ group: ['react', 'react-dom', '@revloop/web', '../../web/*'], message: 'apps/api does not import the web app.' }]),
+    rules: restrict([{ group: ['react', 'react-dom', '@revloop/web'], message: 'apps/api does not import the web app.' }]),
   },
   {
     files: ['apps/web/src/**/*.{ts,tsx}'],
@@ -61,14 +108,6 @@ export default tseslint.config(
       'react-hooks/set-state-in-effect': 'off',
       ...restrict(WEB_WIDE),
     },
-  },
-  {
-    files: ['apps/web/src/components/**', 'apps/web/src/lib/**', 'apps/web/src/config/**'],
-    rules: restrict([...WEB_WIDE, { group: ['@/features/*', '@/app/*', '../features/*', '../../features/*', '../app/*', '../../app/*'], message: 'shared web code does not import features or app.' }]),
-  },
-  {
-    files: ['apps/web/src/features/**'],
-    rules: restrict([...WEB_WIDE, { group: ['@/app/*', '../../app/*', '../../../app/*'], message: 'features do not import app routes.' }]),
   },
   {
     // Tests run in Node and may read fixtures from disk; they never ship.

@@ -3,16 +3,12 @@ import { rateLimit } from 'express-rate-limit';
 import helmet from 'helmet';
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
-import type { Db } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
-import type { Env } from './env';
-import type { Mailbox } from './fakes/smtp/smtp-fake';
+import type { AppDeps } from './context';
 import { createAdminRouter } from './features/admin/admin.router';
 import { createAuditRouter } from './features/audit/audit.router';
 import { createAuthRouter } from './features/auth/auth.router';
-import type { SignInThrottle } from './features/auth/sign-in-throttle';
 import { sessionPolicyOf, secureCookiesOf } from './features/auth/start-session';
 import { createBillingRouter } from './features/billing/billing.router';
 import { createStripeWebhookRouter } from './features/billing/stripe-webhook.router';
@@ -21,7 +17,6 @@ import { createDealersRouter } from './features/dealers/dealers.router';
 import { createDevRouter } from './features/dev/dev.router';
 import { createFilesRouter } from './features/files/files.router';
 import { createInvitationsRouter } from './features/invitations/invitations.router';
-import type { Mailer } from './features/mail/mailer';
 import { createMeRouter } from './features/me/me.router';
 import { createMembersRouter } from './features/members/members.router';
 import { createCustomersRouter } from './features/customers/customers.router';
@@ -31,23 +26,8 @@ import { createPackagesRouter } from './features/packages/packages.router';
 import { createShopRouter } from './features/shop/shop.router';
 import { createVehiclesRouter } from './features/vehicles/vehicles.router';
 import { sessionMiddleware } from './http/auth-context';
-import type { Clock } from './http/clock';
 import { errorHandler } from './http/error-handler';
 import { sameOrigin } from './http/same-origin';
-import type { BlobStore } from './storage/blob-store';
-
-export interface AppDeps {
-  db: Db;
-  env: Env;
-  clock: Clock;
-  mailer: Mailer;
-  logger: Logger;
-  throttle: SignInThrottle;
-  /** Content-addressed file storage under DATA_DIR/files. */
-  blobs: BlobStore;
-  /** Present when the local SMTP stand-in runs: exposes the development mailbox page. */
-  mailbox?: Mailbox | undefined;
-}
 
 /** Builds the app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {

@@ -3,7 +3,7 @@ import { findShopById, insertShop, listShopsForPlatform, newId, setShopStatus, t
 import { DomainError } from '@revloop/domain';
 import { emailSchema } from '@revloop/domain/auth';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

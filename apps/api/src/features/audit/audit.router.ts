@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { listAuditEvents } from '@revloop/db';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 

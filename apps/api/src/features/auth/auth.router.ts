@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { findUserByEmail, updateUser } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { resetConfirmSchema, resetRequestSchema, signInSchema, signUpSchema } from '@revloop/domain/auth';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

@@ -1,6 +1,6 @@
 import type { Request, Response } from 'express';
 import { DomainError } from '@revloop/domain';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { loadAuthContext } from '../../http/auth-context';
 import { toMe } from '../me/me.service';
 import { createSession, sessionCookie } from './session.service';

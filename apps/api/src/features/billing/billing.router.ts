@@ -13,7 +13,7 @@ import {
   planChangeSchema,
   refundInputSchema,
 } from '@revloop/domain/billing';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, requireAuth, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { dealerLedger, ledgerCsv } from './ledger.service';

@@ -12,7 +12,7 @@ import { DomainError } from '@revloop/domain';
 import { asSubject } from '@revloop/domain/auth';
 import { LEDGER_KIND_LABELS, assertBalanceCovers, crossesLowBalance, formatMoney } from '@revloop/domain/billing';
 import { toCsv } from '@revloop/domain/csv';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { lowBalanceMail } from './billing.mails';

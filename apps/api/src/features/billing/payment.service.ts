@@ -26,7 +26,7 @@ import {
 import { DomainError } from '@revloop/domain';
 import { asSubject } from '@revloop/domain/auth';
 import { assertRefundable, formatMoney, type RefundInput } from '@revloop/domain/billing';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { jobLink, loadJob } from '../jobs/job.service';

@@ -2,7 +2,7 @@ import express, { Router } from 'express';
 import type Stripe from 'stripe';
 import { claimStripeEvent, findShopSubscriptionByProvider, type Db } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { applyCheckoutExpired, applyCheckoutPaid } from './payment.service';
 import { idOf, stripeFor } from './stripe-client';
 import { retryOpenInvoices, syncSubscription } from './subscription.service';

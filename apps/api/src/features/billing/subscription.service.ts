@@ -34,7 +34,7 @@ import {
   toSubscriptionStatus,
   type PlanId,
 } from '@revloop/domain/billing';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { recordAudit } from '../audit/audit.service';
 import { paymentFailedMail, readOnlyMail, restoredMail } from './billing.mails';
 import { fromUnix, idOf, stripeFor } from './stripe-client';

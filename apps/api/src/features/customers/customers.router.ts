@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { listMembers } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 
 /** Customers of the shop for pickers and the dealer portal: a dealer sees only its own. */

@@ -24,7 +24,7 @@ import {
 } from '@revloop/domain/datalog';
 import { defaultLogRequest } from '@revloop/domain/datalog';
 import { vehicleFuelSpec, type FuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { analyzeFileInWorker } from '../../workers/datalog/analyze-file';

@@ -6,7 +6,7 @@ import { CANONICAL_CHANNELS, CHANNEL_INFO, headerSignature, mapHeaders, trimGrid
 import type { JobState } from '@revloop/domain/jobs';
 import { safeUploadName } from '@revloop/domain/calibration';
 import { parseShopSettings } from '@revloop/domain/shops';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { singleFileUpload } from '../../storage/upload';

@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { findDealer, insertDealer, listDealers, listMembers, newId, type DealerRow } from '@revloop/db';
 import { asSubject, emailSchema } from '@revloop/domain/auth';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

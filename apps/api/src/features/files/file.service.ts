@@ -31,7 +31,7 @@ import {
   type MemoryImage,
 } from '@revloop/domain/calibration';
 import { JOB_STATE_LABELS } from '@revloop/domain/jobs';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';

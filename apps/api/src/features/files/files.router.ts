@@ -4,7 +4,7 @@ import { DomainError } from '@revloop/domain';
 import { diffImages, hexView, pageDiffRanges } from '@revloop/domain/calibration';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { singleFileUpload } from '../../storage/upload';

@@ -3,7 +3,7 @@ import { findInvitation, listPendingInvitations, revokeInvitation } from '@revlo
 import { DomainError } from '@revloop/domain';
 import { acceptInvitationSchema, emailSchema, SHOP_ROLES } from '@revloop/domain/auth';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

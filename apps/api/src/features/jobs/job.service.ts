@@ -33,7 +33,7 @@ import {
 } from '@revloop/domain/jobs';
 import { logRequestFor, parseShopSettings } from '@revloop/domain/shops';
 import type { VehicleInput } from '@revloop/domain/vehicles';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { assertJobRoom } from '../billing/plan-limits.service';

@@ -15,7 +15,7 @@ import { csvLine } from '@revloop/domain/csv';
 import { logRequestSchema } from '@revloop/domain/datalog';
 import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema, type JobState } from '@revloop/domain/jobs';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

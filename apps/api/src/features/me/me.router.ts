@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { updateUser } from '@revloop/db';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { loadAuthContext, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { toMe } from './me.service';

@@ -11,7 +11,7 @@ import {
 import { DomainError } from '@revloop/domain';
 import { SHOP_ROLES } from '@revloop/domain/auth';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { countUnreadNotifications, listNotifications, markNotificationsRead, updateUser } from '@revloop/db';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { requireAuth, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { NOTIFICATION_KINDS, NOTIFICATION_LABELS, parseNotificationPrefs } from './notify.service';

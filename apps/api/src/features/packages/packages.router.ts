@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { findPackage, insertPackage, listPackages, newId, updatePackage, type PackageRow } from '@revloop/db';
 import { packageInputSchema } from '@revloop/domain/jobs';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { updateShop } from '@revloop/db';
 import { parseShopSettings, shopSettingsPatchSchema } from '@revloop/domain/shops';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';

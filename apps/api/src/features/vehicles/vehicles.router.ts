@@ -4,7 +4,7 @@ import { DomainError } from '@revloop/domain';
 import type { Actor } from '@revloop/domain/auth';
 import { checkVin, parseTyreSize, rollingCircumference, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type CircumferenceSource, type VehicleInput } from '@revloop/domain/vehicles';
 import { z } from 'zod';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
