@@ -5,6 +5,7 @@ import { parseArgs } from 'node:util';
 import { analyzeDatalog, datalogVehicleSchema, type AnalyzeOptions } from '@revloop/domain/datalog';
 import { isDomainError } from '@revloop/domain';
 import { parseFuelOption } from '@revloop/domain/vehicles';
+import { openCsvFile } from '../workers/datalog/csv-file';
 
 const USAGE =
   'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
@@ -15,17 +16,30 @@ function readInput(path: string, what: string): Buffer {
   try {
     return readFileSync(path);
   } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code;
-    const reason =
-      code === 'ENOENT'
-        ? 'no such file'
-        : code === 'EISDIR'
-          ? 'it is a folder'
-          : code === 'EACCES'
-            ? 'permission denied'
-            : String(code ?? error);
-    throw new UsageError(`cannot read ${what} "${path}": ${reason}`);
+    throw unreadable(error, path, what);
   }
+}
+
+/** The log is read in pieces, so a 90 MB file never sits in memory whole. */
+function openLog(path: string): ReturnType<typeof openCsvFile> {
+  try {
+    return openCsvFile(path);
+  } catch (error) {
+    throw unreadable(error, path, 'log');
+  }
+}
+
+function unreadable(error: unknown, path: string, what: string): UsageError {
+  const code = (error as NodeJS.ErrnoException).code;
+  const reason =
+    code === 'ENOENT'
+      ? 'no such file'
+      : code === 'EISDIR'
+        ? 'it is a folder'
+        : code === 'EACCES'
+          ? 'permission denied'
+          : String(code ?? error);
+  return new UsageError(`cannot read ${what} "${path}": ${reason}`);
 }
 
 function parseMap(pairs: string[]): Record<string, string> {
@@ -71,11 +85,13 @@ function main(argv: string[]): number {
     const options: AnalyzeOptions = { map: parseMap(values.map ?? []) };
     if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
     if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
-    const bytes = readInput(file, 'log');
-    const report = analyzeDatalog(
-      new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
-      options,
-    );
+    const log = openLog(file);
+    let report;
+    try {
+      report = analyzeDatalog(log, options);
+    } finally {
+      log.close();
+    }
     process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
     return 0;
   } catch (error) {
