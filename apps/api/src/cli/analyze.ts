@@ -5,7 +5,7 @@ import { parseArgs } from 'node:util';
 import { analyzeDatalog, datalogVehicleSchema, type AnalyzeOptions } from '@revloop/domain/datalog';
 import { isDomainError } from '@revloop/domain';
 import { parseFuelOption } from '@revloop/domain/vehicles';
-import { openCsvFile } from '../workers/datalog/csv-file';
+import { readCsvFile } from '../workers/datalog/csv-file';
 
 const USAGE =
   'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
@@ -17,15 +17,6 @@ function readInput(path: string, what: string): Buffer {
     return readFileSync(path);
   } catch (error) {
     throw unreadable(error, path, what);
-  }
-}
-
-/** The log is read in pieces, so a 90 MB file never sits in memory whole. */
-function openLog(path: string): ReturnType<typeof openCsvFile> {
-  try {
-    return openCsvFile(path);
-  } catch (error) {
-    throw unreadable(error, path, 'log');
   }
 }
 
@@ -85,13 +76,12 @@ function main(argv: string[]): number {
     const options: AnalyzeOptions = { map: parseMap(values.map ?? []) };
     if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
     if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
-    const log = openLog(file);
-    let report;
-    try {
-      report = analyzeDatalog(log, options);
-    } finally {
-      log.close();
-    }
+    // Read in pieces, so a 90 MB log never sits in memory whole.
+    const report = readCsvFile(
+      file,
+      (log) => analyzeDatalog(log, options),
+      (error) => unreadable(error, file, 'log'),
+    );
     process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
     return 0;
   } catch (error) {

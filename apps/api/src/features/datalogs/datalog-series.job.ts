@@ -1,7 +1,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { isDomainError } from '@revloop/domain';
 import { readDatalog } from '@revloop/domain/datalog';
-import { openCsvFile } from '../../workers/datalog/csv-file';
+import { readCsvFile } from '../../workers/datalog/csv-file';
 import type { SeriesJob, SeriesMessage } from './datalog-series';
 
 const port = parentPort;
@@ -9,13 +9,7 @@ if (port === null) throw new Error('datalog-series.job runs only as a worker thr
 const { filePath, options } = workerData as SeriesJob;
 
 try {
-  const log = openCsvFile(filePath);
-  let series;
-  try {
-    series = readDatalog(log, options);
-  } finally {
-    log.close();
-  }
+  const series = readCsvFile(filePath, (log) => readDatalog(log, options));
   const columns = { time: series.time, ...series.channels };
   const message: SeriesMessage = { type: 'done', rows: series.rows, columns };
   // Transferred, not copied: a 1M-row log is tens of MB of typed arrays.

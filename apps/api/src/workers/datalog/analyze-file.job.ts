@@ -2,7 +2,7 @@ import { parentPort } from 'node:worker_threads';
 import { isDomainError } from '@revloop/domain';
 import { analyzeDatalog } from '@revloop/domain/datalog';
 import type { AnalyzeJob, AnalyzeMessage } from './analyze-file';
-import { openCsvFile } from './csv-file';
+import { readCsvFile } from './csv-file';
 
 const port = parentPort;
 if (port === null) throw new Error('analyze-file.job runs only as a worker thread.');
@@ -12,16 +12,13 @@ const post = (message: AnalyzeMessage) => port.postMessage(message);
 // One job per thread: the thread ends after it, so a 90 MB log's memory goes with it.
 port.once('message', ({ filePath, options }: AnalyzeJob) => {
   try {
-    const log = openCsvFile(filePath);
-    try {
-      const report = analyzeDatalog(log, {
+    const report = readCsvFile(filePath, (log) =>
+      analyzeDatalog(log, {
         ...options,
         onProgress: (fraction) => post({ type: 'progress', fraction }),
-      });
-      post({ type: 'done', report });
-    } finally {
-      log.close();
-    }
+      }),
+    );
+    post({ type: 'done', report });
   } catch (error) {
     post({
       type: 'error',

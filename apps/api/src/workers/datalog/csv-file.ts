@@ -4,8 +4,29 @@ import { CSV_HEAD_BYTES, type CsvSource } from '@revloop/domain/datalog';
 /** Read size: large enough that system calls cost nothing, small enough that a 90 MB log never sits in memory. */
 const PIECE_BYTES = 1 << 20;
 
-/** A log file opened for reading in pieces (see CsvSource); close it when done. Throws the fs error (ENOENT, EISDIR…). */
-export function openCsvFile(path: string): CsvSource & { close: () => void } {
+/**
+ * Reads a log file in pieces (see CsvSource) with `read`, closing it after. A file that cannot be opened throws
+ * the fs error (ENOENT, EISDIR…), or what `openError` makes of it.
+ */
+export function readCsvFile<T>(
+  path: string,
+  read: (log: CsvSource) => T,
+  openError: (error: unknown) => unknown = (error) => error,
+): T {
+  let log;
+  try {
+    log = openCsvFile(path);
+  } catch (error) {
+    throw openError(error);
+  }
+  try {
+    return read(log);
+  } finally {
+    log.close();
+  }
+}
+
+function openCsvFile(path: string): CsvSource & { close: () => void } {
   const fd = openSync(path, 'r');
   try {
     const byteLength = fstatSync(fd).size;
