@@ -73,7 +73,7 @@ function assertText(bytes: Uint8Array): void {
 
 const UTF8 = new TextDecoder('utf-8', { fatal: true });
 // Made on first use: setting up a legacy decoder costs milliseconds, a tenth of a small log's whole analysis.
-let windows1252: TextDecoder | undefined;
+let windows1252: InstanceType<typeof TextDecoder> | undefined;
 
 function decodeLine(bytes: Uint8Array): string {
   try {
