@@ -11,6 +11,7 @@ export WEB_DIST_DIR="${WEB_DIST_DIR:-apps/web/dist}"
 export LOG_LEVEL="${LOG_LEVEL:-warn}"
 npx tsx seeds/reset-demo.ts
 npm run build -w @revloop/web --silent
+node scripts/build-node.mjs
 npx tsx apps/api/src/server.ts &
 server=$!
 trap 'kill "$server" 2>/dev/null' INT TERM EXIT

@@ -13,6 +13,7 @@ import { createSmtpMailer } from './features/mail/mailer';
 import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
 import { BlobStore } from './storage/blob-store';
+import { warmAnalysisWorker } from './workers/datalog/analyze-file';
 
 const env = loadEnv();
 const logger = pino({ level: env.LOG_LEVEL });
@@ -50,6 +51,8 @@ await recoverAtStartup(deps);
 const server = app.listen(env.PORT, env.HOST, () => {
   logger.info({ url: env.APP_ORIGIN, smtpPort: smtp?.port, stripeFake: stripeFake?.url }, 'Revloop is listening');
 });
+// The first uploaded log should not wait for a thread to start either.
+warmAnalysisWorker();
 // Trials and grace periods also end when no webhook arrives: check them hourly.
 const billingSweep = setInterval(() => {
   applyBillingDeadlines(deps).catch((err: unknown) => logger.error({ err }, 'billing deadline check failed'));

@@ -5,6 +5,7 @@ import { parseArgs } from 'node:util';
 import { analyzeDatalog, datalogVehicleSchema, type AnalyzeOptions } from '@revloop/domain/datalog';
 import { isDomainError } from '@revloop/domain';
 import { parseFuelOption } from '@revloop/domain/vehicles';
+import { readCsvFile } from '../workers/datalog/csv-file';
 
 const USAGE =
   'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
@@ -15,17 +16,21 @@ function readInput(path: string, what: string): Buffer {
   try {
     return readFileSync(path);
   } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code;
-    const reason =
-      code === 'ENOENT'
-        ? 'no such file'
-        : code === 'EISDIR'
-          ? 'it is a folder'
-          : code === 'EACCES'
-            ? 'permission denied'
-            : String(code ?? error);
-    throw new UsageError(`cannot read ${what} "${path}": ${reason}`);
+    throw unreadable(error, path, what);
   }
+}
+
+function unreadable(error: unknown, path: string, what: string): UsageError {
+  const code = (error as NodeJS.ErrnoException).code;
+  const reason =
+    code === 'ENOENT'
+      ? 'no such file'
+      : code === 'EISDIR'
+        ? 'it is a folder'
+        : code === 'EACCES'
+          ? 'permission denied'
+          : String(code ?? error);
+  return new UsageError(`cannot read ${what} "${path}": ${reason}`);
 }
 
 function parseMap(pairs: string[]): Record<string, string> {
@@ -71,10 +76,11 @@ function main(argv: string[]): number {
     const options: AnalyzeOptions = { map: parseMap(values.map ?? []) };
     if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
     if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
-    const bytes = readInput(file, 'log');
-    const report = analyzeDatalog(
-      new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
-      options,
+    // Read in pieces, so a 90 MB log never sits in memory whole.
+    const report = readCsvFile(
+      file,
+      (log) => analyzeDatalog(log, options),
+      (error) => unreadable(error, file, 'log'),
     );
     process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
     return 0;

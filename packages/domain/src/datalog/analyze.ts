@@ -12,6 +12,7 @@ import { analyzeKnock } from './knock';
 import { defaultLogRequest, type LogRequest } from './log-request';
 import type { DatalogReport } from './report';
 import { analyzeSensors } from './sensors';
+import type { CsvInput } from './csv-reader';
 import { readDatalog, type DatalogSeries, type ReadDatalogOptions } from './series';
 import { DEFAULT_ANALYSIS_SETTINGS, type AnalysisSettings } from './settings';
 
@@ -69,6 +70,6 @@ export function analyzeDatalogSeries(
 }
 
 /** Bytes of a CSV datalog → the report JSON of DESIGN "Datalog report contract". */
-export function analyzeDatalog(bytes: Uint8Array, options: AnalyzeOptions = {}): DatalogReport {
+export function analyzeDatalog(bytes: CsvInput, options: AnalyzeOptions = {}): DatalogReport {
   return analyzeDatalogSeries(readDatalog(bytes, options), options);
 }

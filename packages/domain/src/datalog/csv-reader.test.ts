@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DomainError } from '../errors';
-import { detectCsvLayout, parseCsvColumns } from './csv-reader';
+import { detectCsvLayout, parseCsvColumns, type CsvSource } from './csv-reader';
+import { readDatalog } from './series';
+import { generateLog } from './testing';
 
 const bytes = (text: string) => new TextEncoder().encode(text);
 const parseAll = (text: string) => {
@@ -11,8 +13,30 @@ const parseAll = (text: string) => {
     layout,
     layout.headers.map((_, column) => ({ column, float64: true })),
   );
-  return { layout, rows: parsed.rows, columns: parsed.columns.map((c) => Array.from(c)) };
+  return {
+    layout,
+    rows: parsed.rows,
+    kinds: parsed.kinds,
+    columns: parsed.columns.map((c) => Array.from(c)),
+  };
 };
+
+/** The file in pieces of `size` bytes, each handed out in one reused buffer, as the file reader does. */
+const inPieces = (b: Uint8Array, size: number, headBytes = 64): CsvSource => ({
+  head: b.subarray(0, headBytes),
+  byteLength: b.length,
+  *chunks() {
+    const piece = new Uint8Array(size);
+    for (let at = 0; at < b.length; at += size) {
+      const part = b.subarray(at, at + size);
+      piece.set(part);
+      yield piece.subarray(0, part.length);
+    }
+  },
+});
+
+/** Seconds between two ISO 8601 date-times by the JavaScript engine's own reading (ECMA-262 Date.parse). */
+const between = (from: string, to: string) => (Date.parse(to) - Date.parse(from)) / 1000;
 
 describe('detectCsvLayout and parseCsvColumns', () => {
   it('finds the header after a preamble and reads quoted headers, blanks and CRLF', () => {
@@ -82,5 +106,101 @@ describe('detectCsvLayout and parseCsvColumns', () => {
     const head = 'Time,RPM\n' + Array.from({ length: 30 }, (_, i) => `${i},1000`).join('\n') + '\n';
     const tail = Array.from({ length: 5000 }, (_, i) => `${i + 30},2`).join('\n');
     expect(parseAll(head + tail).rows).toBe(5030);
+  });
+
+  it('reads a file in pieces exactly as it reads it whole: lines, CRLF and a byte-order mark cut anywhere', () => {
+    const text =
+      '\uFEFFLogger export\r\n"Time (s)",RPM,"Coolant (°C)"\r\n' +
+      Array.from({ length: 300 }, (_, i) => `${i / 10},${800 + i},${(i % 7) - 3}.5`).join('\r\n') +
+      '\r\n0.5,,\r\n30.1,900,"1,5"';
+    const whole = bytes(text);
+    const layout = detectCsvLayout(whole);
+    const requests = [0, 1, 2].map((column) => ({ column, float64: column === 0 }));
+    const expected = parseCsvColumns(whole, layout, requests);
+    for (const size of [1, 2, 3, 7, 64, 4096]) {
+      const source = inPieces(whole, size, 512);
+      expect(detectCsvLayout(source)).toEqual(layout);
+      const parsed = parseCsvColumns(source, layout, requests);
+      expect(parsed.rows, `pieces of ${size}`).toBe(expected.rows);
+      expect(parsed.columns.map((c) => Array.from(c))).toEqual(
+        expected.columns.map((c) => Array.from(c)),
+      );
+    }
+    expect(expected.rows).toBe(302);
+  });
+
+  it('reads ISO 8601 date-times (T or space, fractions, Z, ±hh:mm or no zone) as seconds from the first', () => {
+    // [STD] ISO 8601-1:2019 extended format; offsets checked against ECMA-262 Date.parse of the same instants.
+    const stamps = [
+      '2024-05-01T12:00:00Z',
+      '2024-05-01T12:00:00.050Z',
+      '2024-05-01 14:00:00.1+02:00',
+      '2024-05-01T07:00:01.25-05:00',
+      '2024-05-01T12:00:02,5+0000',
+    ];
+    const { columns, kinds } = parseAll(
+      `Timestamp;RPM\n${stamps.map((s, i) => `${s};${900 + i}`).join('\n')}\n`,
+    );
+    const iso = [
+      '2024-05-01T12:00:00Z',
+      '2024-05-01T12:00:00.050Z',
+      '2024-05-01T14:00:00.1+02:00',
+      '2024-05-01T07:00:01.25-05:00',
+      '2024-05-01T12:00:02.5Z',
+    ];
+    expect(columns[0]).toEqual(iso.map((s) => between(iso[0] as string, s)));
+    expect(columns[0]).toEqual([0, 0.05, 0.1, 1.25, 2.5]); // [CALC] 14:00+02:00 = 12:00Z; 07:00-05:00 = 12:00Z
+    expect(kinds).toEqual(['date_time', 'number']);
+  });
+
+  it('counts days, months and leap days between date-times without a zone', () => {
+    // [STD] ISO 8601 calendar dates; 2024 is a leap year, so 28 Feb to 1 Mar is two days [CALC].
+    const { columns } = parseAll(
+      'Time,RPM\n2024-02-28 23:59:59.5,900\n2024-02-29 00:00:00.5,900\n2024-03-01 00:00:00.5,900\n2025-01-01 00:00:00,900\n',
+    );
+    expect(columns[0]).toEqual([
+      0,
+      1,
+      86_401,
+      between('2024-02-28T23:59:59.5Z', '2025-01-01T00:00:00Z'),
+    ]);
+    expect(columns[0]?.[2]).toBe(between('2024-02-28T23:59:59.5Z', '2024-03-01T00:00:00.5Z'));
+  });
+
+  it('carries clock times across midnight', () => {
+    // [CALC] 23:59:59.9 is 86,399.9 s into the day; 00:00:00.1 the next day is 0.2 s later.
+    const { columns, kinds } = parseAll(
+      'Time,RPM\n23:59:59.900,900\n00:00:00.100,910\n00:00:01.100,920\n',
+    );
+    expect(columns[0]?.[0]).toBeCloseTo(86_399.9, 9);
+    expect((columns[0]?.[1] as number) - (columns[0]?.[0] as number)).toBeCloseTo(0.2, 9);
+    expect((columns[0]?.[2] as number) - (columns[0]?.[0] as number)).toBeCloseTo(1.2, 9);
+    expect(kinds[0]).toBe('clock');
+  });
+
+  it('turns a malformed date-time into a blank, not a wrong time', () => {
+    const { columns } = parseAll(
+      'Time,RPM\n2024-05-01T12:00:00Z,900\n2024-13-01T12:00:00Z,900\n2024-05-01T12:00:01Zulu,900\n2024-05-01T12:00:02Z,900\n',
+    );
+    expect(columns[0]).toEqual([0, Number.NaN, Number.NaN, 2]);
+  });
+
+  it('gives a log stamped with ISO date-times a time axis in seconds (it held "no numbers" before)', () => {
+    const generated = generateLog({ rateHz: 10, warmupS: 30, cruiseS: 10 }).text.split('\n');
+    const start = Date.parse('2024-05-01T23:59:50Z');
+    const stamped = generated
+      .map((line, i) => {
+        if (i === 0 || line === '') return line.replace(/^[^,]*/, 'Timestamp');
+        const seconds = Number(line.slice(0, line.indexOf(',')));
+        const at = new Date(start + Math.round(seconds * 1000)).toISOString();
+        return `${at}${line.slice(line.indexOf(','))}`;
+      })
+      .join('\n');
+    const series = readDatalog(bytes(stamped));
+    const plain = readDatalog(bytes(generated.join('\n')));
+    expect(series.units.time).toBe('s');
+    expect(series.rows).toBe(plain.rows);
+    for (let i = 0; i < series.rows; i += 97)
+      expect(series.time[i]).toBeCloseTo(plain.time[i] as number, 3);
   });
 });

@@ -7,7 +7,14 @@ export {
   type CanonicalChannel,
 } from './channels';
 export type { DatalogVehicle } from './context';
-export { detectCsvLayout, parseCsvColumns, type CsvLayout } from './csv-reader';
+export {
+  CSV_HEAD_BYTES,
+  detectCsvLayout,
+  parseCsvColumns,
+  type CsvInput,
+  type CsvLayout,
+  type CsvSource,
+} from './csv-reader';
 export { datalogVehicleSchema, logRequestSchema } from './datalog.schemas';
 export { lambdaErrorPct } from './full-throttle';
 export { trimCorrectionPct } from './fuel-trim';

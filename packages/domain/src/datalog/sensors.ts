@@ -17,46 +17,130 @@ const TIME_GAP_FACTOR = 5;
 const fmt = (value: number, unit: string) =>
   `${round(value, 1)}${unit === '' || unit === '%' || unit === '°' || unit === '°C' ? '' : ' '}${unit}`;
 
-function dropouts(
+/**
+ * Dropouts, impossible readings and a stuck value of one channel, in a single pass over its samples (a
+ * million-row log has a million samples per channel; three passes each cost as much as the one).
+ */
+function scanChannel(
   ctx: AnalysisContext,
   channel: CanonicalChannel,
   values: Float32Array,
-): SensorIssue | null {
-  const label = CHANNEL_INFO[channel].label;
-  const time = ctx.time;
-  let runs = 0;
-  let longest = 0;
+): SensorIssue[] {
+  const { label, unit, quantity } = CHANNEL_INFO[channel];
+  const { rows, time, rpm, settings } = ctx;
+  const runningRpm = settings.engineRunningRpm;
+  // Dropouts: runs of blank samples at least dropoutMinS long.
+  let dropRuns = 0;
+  let dropLongest = 0;
   let valid = 0;
-  let start = -1;
-  for (let i = 0; i <= ctx.rows; i++) {
-    const blank = i < ctx.rows && !Number.isFinite(values[i] as number);
-    if (blank) {
-      if (start < 0) start = i;
+  let blankStart = -1;
+  // Out of range: readings outside the physical limits; a wideband reads off-scale lean on a coast-down (no fault).
+  const limits = settings.physicalLimits[channel];
+  const lo = limits?.[0] ?? -Infinity;
+  const hi = limits?.[1] ?? Infinity;
+  const mid = (lo + hi) / 2;
+  const drive = ctx.drive?.values;
+  const skipCoast = quantity === 'lambda' && drive !== undefined;
+  let outside = 0;
+  let worst = Number.NaN;
+  // Flatline: one value held while the engine runs (temperatures: the whole drive; others: while rpm swings).
+  const temperature = TEMPERATURE_CHANNELS.includes(channel);
+  let watchFlat = temperature || (FLATLINE_CHANNELS.includes(channel) && rpm !== undefined);
+  let stuck: { value: number; seconds: number } | null = null;
+  let first = -1;
+  let last = -1;
+  let flatStart = -1;
+  let rpmMin = Infinity;
+  let rpmMax = -Infinity;
+
+  for (let i = 0; i <= rows; i++) {
+    const inside = i < rows;
+    const v = inside ? (values[i] as number) : Number.NaN;
+    const finite = Number.isFinite(v);
+    const running = inside && (rpm === undefined || (rpm[i] as number) >= runningRpm);
+
+    if (inside && !finite) {
+      if (blankStart < 0) blankStart = i;
+    } else {
+      if (inside) valid++;
+      if (blankStart >= 0) {
+        const span =
+          (time[Math.min(rows - 1, i)] as number) - (time[Math.max(0, blankStart - 1)] as number);
+        if (span >= settings.dropoutMinS) {
+          dropRuns++;
+          dropLongest = Math.max(dropLongest, span);
+        }
+        blankStart = -1;
+      }
+    }
+
+    if (
+      finite &&
+      (v < lo || v > hi) &&
+      !(skipCoast && (drive[i] as number) <= settings.decelPedalPct)
+    ) {
+      outside++;
+      if (Number.isNaN(worst) || Math.abs(v - mid) > Math.abs(worst - mid)) worst = v;
+    }
+
+    if (!watchFlat) continue;
+    if (temperature) {
+      if (!running || !finite) continue;
+      if (first < 0) first = i;
+      else if (v !== values[first]) watchFlat = false;
+      last = i;
       continue;
     }
-    if (i < ctx.rows) valid++;
-    if (start >= 0) {
-      const from = time[Math.max(0, start - 1)] as number;
-      const to = time[Math.min(ctx.rows - 1, i)] as number;
-      if (to - from >= ctx.settings.dropoutMinS) {
-        runs++;
-        longest = Math.max(longest, to - from);
-      }
-      start = -1;
+    const r = inside ? (rpm?.[i] as number) : Number.NaN;
+    if (flatStart >= 0 && running && v === values[flatStart]) {
+      if (r < rpmMin) rpmMin = r;
+      if (r > rpmMax) rpmMax = r;
+      continue;
     }
+    if (flatStart >= 0) {
+      const seconds = (time[i - 1] as number) - (time[flatStart] as number);
+      if (seconds >= settings.flatlineMinS && rpmMax - rpmMin >= settings.flatlineRpmSwing) {
+        stuck = { value: values[flatStart] as number, seconds };
+        watchFlat = false;
+        continue;
+      }
+    }
+    flatStart = running && finite ? i : -1;
+    rpmMin = flatStart >= 0 ? r : Infinity;
+    rpmMax = flatStart >= 0 ? r : -Infinity;
   }
+  if (temperature && watchFlat && first >= 0) {
+    const seconds = (time[last] as number) - (time[first] as number);
+    if (seconds >= settings.temperatureFlatlineMinS)
+      stuck = { value: values[first] as number, seconds };
+  }
+
+  const issues: SensorIssue[] = [];
   if (valid === 0)
-    return {
+    issues.push({
       channel,
       issue: 'dropout',
       message: `The ${label} column is in the log but holds no readings.`,
-    };
-  if (runs === 0) return null;
-  return {
-    channel,
-    issue: 'dropout',
-    message: `The ${label} reading dropped out ${runs === 1 ? 'once' : `${runs} times`} (longest ${round(longest, 1)} s); check the logger connection.`,
-  };
+    });
+  else if (dropRuns > 0)
+    issues.push({
+      channel,
+      issue: 'dropout',
+      message: `The ${label} reading dropped out ${dropRuns === 1 ? 'once' : `${dropRuns} times`} (longest ${round(dropLongest, 1)} s); check the logger connection.`,
+    });
+  if (limits !== undefined && outside >= settings.outOfRangeMinSamples)
+    issues.push({
+      channel,
+      issue: 'out_of_range',
+      message: `The ${label} read ${fmt(worst, unit)} in ${outside} samples, outside the possible ${fmt(lo, unit)} to ${fmt(hi, unit)}; the sensor or its wiring may be faulty.`,
+    });
+  if (stuck !== null)
+    issues.push({
+      channel,
+      issue: 'flatline',
+      message: `The ${label} stayed at ${fmt(stuck.value, unit)} for ${Math.round(stuck.seconds)} s while the engine was running; the sensor may be dead or unplugged.`,
+    });
+  return issues;
 }
 
 function timeGaps(ctx: AnalysisContext): SensorIssue | null {
@@ -81,88 +165,6 @@ function timeGaps(ctx: AnalysisContext): SensorIssue | null {
   };
 }
 
-function outOfRange(
-  ctx: AnalysisContext,
-  channel: CanonicalChannel,
-  values: Float32Array,
-): SensorIssue | null {
-  const limits = ctx.settings.physicalLimits[channel];
-  if (limits === undefined) return null;
-  const [lo, hi] = limits;
-  const drive = ctx.drive?.values;
-  // A wideband reads off-scale lean while the injectors are off on a coast-down: that is no sensor fault.
-  const skipCoast = CHANNEL_INFO[channel].quantity === 'lambda' && drive !== undefined;
-  let count = 0;
-  let worst = Number.NaN;
-  for (let i = 0; i < ctx.rows; i++) {
-    const v = values[i] as number;
-    if (!Number.isFinite(v) || (v >= lo && v <= hi)) continue;
-    if (skipCoast && (drive[i] as number) <= ctx.settings.decelPedalPct) continue;
-    count++;
-    if (Number.isNaN(worst) || Math.abs(v - (lo + hi) / 2) > Math.abs(worst - (lo + hi) / 2))
-      worst = v;
-  }
-  if (count < ctx.settings.outOfRangeMinSamples) return null;
-  const { label, unit } = CHANNEL_INFO[channel];
-  return {
-    channel,
-    issue: 'out_of_range',
-    message: `The ${label} read ${fmt(worst, unit)} in ${count} samples, outside the possible ${fmt(lo, unit)} to ${fmt(hi, unit)}; the sensor or its wiring may be faulty.`,
-  };
-}
-
-function flatline(
-  ctx: AnalysisContext,
-  channel: CanonicalChannel,
-  values: Float32Array,
-): SensorIssue | null {
-  const rpm = ctx.rpm;
-  const time = ctx.time;
-  const { flatlineMinS, flatlineRpmSwing } = ctx.settings;
-  const label = CHANNEL_INFO[channel].label;
-  const stuck = (value: number, seconds: number): SensorIssue => ({
-    channel,
-    issue: 'flatline',
-    message: `The ${label} stayed at ${fmt(value, CHANNEL_INFO[channel].unit)} for ${Math.round(seconds)} s while the engine was running; the sensor may be dead or unplugged.`,
-  });
-  if (TEMPERATURE_CHANNELS.includes(channel)) {
-    let first = -1;
-    let last = -1;
-    for (let i = 0; i < ctx.rows; i++) {
-      if (!ctx.running(i) || !Number.isFinite(values[i] as number)) continue;
-      if (first < 0) first = i;
-      else if (values[i] !== values[first]) return null;
-      last = i;
-    }
-    const seconds = first < 0 ? 0 : (time[last] as number) - (time[first] as number);
-    return seconds >= ctx.settings.temperatureFlatlineMinS
-      ? stuck(values[first] as number, seconds)
-      : null;
-  }
-  if (rpm === undefined) return null;
-  let start = -1;
-  let rpmMin = Infinity;
-  let rpmMax = -Infinity;
-  for (let i = 0; i <= ctx.rows; i++) {
-    const continues = i < ctx.rows && start >= 0 && ctx.running(i) && values[i] === values[start];
-    if (continues) {
-      const r = rpm[i] as number;
-      if (r < rpmMin) rpmMin = r;
-      if (r > rpmMax) rpmMax = r;
-      continue;
-    }
-    if (start >= 0) {
-      const seconds = (time[i - 1] as number) - (time[start] as number);
-      if (seconds >= flatlineMinS && rpmMax - rpmMin >= flatlineRpmSwing)
-        return stuck(values[start] as number, seconds);
-    }
-    start = i < ctx.rows && ctx.running(i) && Number.isFinite(values[i] as number) ? i : -1;
-    rpmMin = start >= 0 ? (rpm[start] as number) : Infinity;
-    rpmMax = start >= 0 ? (rpm[start] as number) : -Infinity;
-  }
-  return null;
-}
-
 /** Dead (flat) sensors, impossible readings and dropouts, one entry per channel and kind. */
 export function analyzeSensors(ctx: AnalysisContext): SensorIssue[] {
   const issues: SensorIssue[] = [];
@@ -172,14 +174,7 @@ export function analyzeSensors(ctx: AnalysisContext): SensorIssue[] {
     CanonicalChannel,
     Float32Array,
   ][]) {
-    const found = [
-      dropouts(ctx, channel, values),
-      outOfRange(ctx, channel, values),
-      FLATLINE_CHANNELS.includes(channel) || TEMPERATURE_CHANNELS.includes(channel)
-        ? flatline(ctx, channel, values)
-        : null,
-    ];
-    for (const issue of found) if (issue !== null) issues.push(issue);
+    issues.push(...scanChannel(ctx, channel, values));
   }
   return issues;
 }

@@ -1,7 +1,7 @@
 import { DomainError } from '../errors';
 import { fuelLabel, stoichAfr, type FuelSpec } from '../vehicles/fuel';
 import { CHANNEL_INFO, type CanonicalChannel } from './channels';
-import { detectCsvLayout, parseCsvColumns, type ColumnArray } from './csv-reader';
+import { detectCsvLayout, parseCsvColumns, type ColumnArray, type CsvInput } from './csv-reader';
 import { mapHeaders, type HeaderMapping, type MappedColumn } from './header-mapping';
 import {
   STANDARD_ATMOSPHERE_KPA,
@@ -122,8 +122,8 @@ function dropRowsWithoutTime(time: Float64Array, others: ColumnArray[]): number 
   return kept;
 }
 
-/** Parses a CSV datalog (bytes) into canonical channels and units. Throws DomainError('invalid_datalog') on bad input. */
-export function readDatalog(bytes: Uint8Array, options: ReadDatalogOptions = {}): DatalogSeries {
+/** Parses a CSV datalog (bytes, or a file read in pieces) into canonical channels and units. Throws DomainError('invalid_datalog') on bad input. */
+export function readDatalog(bytes: CsvInput, options: ReadDatalogOptions = {}): DatalogSeries {
   const fuelSpec = options.fuel ?? GASOLINE;
   const stoich = stoichAfr(fuelSpec);
   const label = fuelLabel(fuelSpec);
@@ -163,7 +163,11 @@ export function readDatalog(bytes: Uint8Array, options: ReadDatalogOptions = {})
     notes.push(`${parsed.rows - rows} rows without a time value were left out.`);
 
   const time = rawTime.subarray(0, rows);
-  const timeUnit = conversionFor('time', timeColumn, time, stoich, label, notes);
+  // Clock times and date-times are seconds already, whatever the header says.
+  const stamped = parsed.kinds[entries.findIndex(([channel]) => channel === 'time')] !== 'number';
+  const timeUnit = stamped
+    ? { unit: 's', scale: 1, offset: 0 }
+    : conversionFor('time', timeColumn, time, stoich, label, notes);
   units.time = timeUnit.unit;
   const start = time[0] as number;
   for (let i = 0; i < rows; i++) time[i] = ((time[i] as number) - start) * timeUnit.scale;

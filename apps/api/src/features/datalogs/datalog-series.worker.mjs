@@ -1,4 +1,6 @@
-// Worker entry in plain JavaScript, like workers/datalog: tsImport loads the TypeScript job with a loader scoped to it.
-import { tsImport } from 'tsx/esm/api';
+// Worker entry in plain JavaScript, like workers/datalog: it runs the job compiled by scripts/build-node.mjs.
+import { pathToFileURL } from 'node:url';
+import { builtPath, ensureBuilt } from '../../../../../scripts/build-node.mjs';
 
-await tsImport('./datalog-series.job.ts', import.meta.url);
+await ensureBuilt();
+await import(pathToFileURL(builtPath('datalog-series.job')).href);

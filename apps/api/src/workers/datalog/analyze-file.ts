@@ -16,8 +16,37 @@ export type AnalyzeMessage =
   | { type: 'done'; report: DatalogReport }
   | { type: 'error'; code: DomainErrorCode | null; message: string };
 
-// A plain .mjs entry: worker threads do not get the TypeScript loader of vitest, so it loads tsx itself.
+// A plain .mjs entry: it runs the job compiled to JavaScript (scripts/build-node.mjs), under tsx, vitest or node.
 const WORKER_ENTRY = new URL('./analyze-file.worker.mjs', import.meta.url);
+
+/**
+ * A thread started ahead of time with the analysis code loaded: a log then waits for no thread start-up (tens of
+ * milliseconds, the largest part of a small log's wait). It does not keep the process alive.
+ */
+let spare: { worker: Worker; drop: () => void } | undefined;
+
+/** Starts the spare thread unless one is waiting; the server calls it at start, each analysis after it ends. */
+export function warmAnalysisWorker(): void {
+  if (spare) return;
+  const worker = new Worker(WORKER_ENTRY);
+  worker.unref();
+  const drop = () => {
+    if (spare?.worker === worker) spare = undefined;
+  };
+  worker.on('error', drop);
+  worker.on('exit', drop);
+  spare = { worker, drop };
+}
+
+function takeWorker(): Worker {
+  const taken = spare;
+  spare = undefined;
+  if (taken === undefined) return new Worker(WORKER_ENTRY);
+  taken.worker.off('error', taken.drop);
+  taken.worker.off('exit', taken.drop);
+  taken.worker.ref();
+  return taken.worker;
+}
 
 /**
  * At most this many analyses run at once (one per core); the rest wait their turn, so a burst of uploads cannot
@@ -46,13 +75,18 @@ export function analyzeFileInWorker(
   options: WorkerAnalyzeOptions = {},
   onProgress?: (fraction: number) => void,
 ): Promise<DatalogReport> {
-  return withSlot(() => runWorker(filePath, options, onProgress));
+  return withSlot(() => runWorker(filePath, options, onProgress)).finally(warmAnalysisWorker);
 }
 
-function runWorker(filePath: string, options: WorkerAnalyzeOptions, onProgress?: (fraction: number) => void): Promise<DatalogReport> {
+function runWorker(
+  filePath: string,
+  options: WorkerAnalyzeOptions,
+  onProgress?: (fraction: number) => void,
+): Promise<DatalogReport> {
   return new Promise((resolve, reject) => {
     const job: AnalyzeJob = { filePath, options };
-    const worker = new Worker(WORKER_ENTRY, { workerData: job });
+    const worker = takeWorker();
+    worker.postMessage(job);
     let settled = false;
     const settle = (fn: () => void) => {
       if (settled) return;

@@ -1,5 +1,7 @@
-// Worker entry in plain JavaScript: tsImport loads the TypeScript job with a loader scoped to it, so this works
-// whether the parent runs under tsx (the API) or under vitest, and never registers tsx twice.
-import { tsImport } from 'tsx/esm/api';
+// Worker entry in plain JavaScript: it runs the job compiled by scripts/build-node.mjs (built here first when a
+// source is newer), so no TypeScript is compiled when a log arrives, whether the parent runs under tsx or vitest.
+import { pathToFileURL } from 'node:url';
+import { builtPath, ensureBuilt } from '../../../../../scripts/build-node.mjs';
 
-await tsImport('./analyze-file.job.ts', import.meta.url);
+await ensureBuilt();
+await import(pathToFileURL(builtPath('analyze-file.job')).href);

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ListResponse } from '../../../lib/api-client';
-import { datalogsRootKey, type Datalog } from './get-datalog';
+import { datalogsRootKey, processingPollMs, type Datalog } from './get-datalog';
 
 export const getJobDatalogs = (jobId: string) => api.get<ListResponse<Datalog>>(`/api/jobs/${encodeURIComponent(jobId)}/datalogs`);
 
@@ -8,7 +8,7 @@ export const getJobDatalogsQueryOptions = (jobId: string) =>
   queryOptions({
     queryKey: [...datalogsRootKey, 'job', jobId],
     queryFn: () => getJobDatalogs(jobId),
-    refetchInterval: (query) => (query.state.data?.data.some((log) => log.status === 'processing') ? 700 : false),
+    refetchInterval: (query) => processingPollMs(query.state.data?.data ?? []),
   });
 
 export const useJobDatalogs = (jobId: string) => useQuery(getJobDatalogsQueryOptions(jobId));
