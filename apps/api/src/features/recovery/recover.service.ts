@@ -1,5 +1,5 @@
 import { listUnfinishedDatalogs, referencedBlobHashes, updateDatalog } from '@revloop/db';
-import type { AppDeps } from '../../app';
+import type { AppDeps } from '../../context';
 import { loadAuthContext } from '../../http/auth-context';
 import { datalogAnalyzerOf, type ShopAuth } from '../datalogs/datalog.service';
 
