@@ -45,8 +45,8 @@ function cruiseSamples(ctx: AnalysisContext, pulls: [number, number][]): number[
 /**
  * Checks each AFR column against warm closed-loop cruise: read on the right scale it gives λ 1 there. Many
  * wideband controllers print AFR on petrol's scale (λ × 14.7) whatever the fuel; read as E85 AFR that turns
- * λ 0.80 into 1.198 and a fuel correction of +41 % [CALC]. When the scale disagrees and the user has not stated
- * it, the full-throttle fuel corrections are withheld.
+ * λ 0.80 into 1.198 and a fuel correction of +41 % [CALC]. When the scale disagrees with cruise, the full-throttle
+ * fuel corrections are withheld until the user states a scale that cruise bears out.
  */
 export function analyzeAfrScale(
   ctx: AnalysisContext,
@@ -124,17 +124,10 @@ export function analyzeAfrScale(
   const likely = fitsOther
     ? ` It looks written on ${otherWords}: state --afr-scale ${flag} (or choose it under "Confirm or fix columns").`
     : ' Check the wideband\'s calibration and the fuel stated for the vehicle.';
-  if (afr.stated) {
-    return {
-      report,
-      check: {
-        id,
-        status: 'warn',
-        message: `"${header}" reads ${round(cruiseAfr, 1)} AFR in warm cruise, ${round(Math.abs(mismatch), 0)} % off the stoichiometric ${round(expected, 2)} of ${scaleWords}, the scale that was stated. The fuel corrections use the stated scale.${likely}`,
-      },
-    };
-  }
-  const reason = `"${header}" reads ${round(cruiseAfr, 1)} AFR in warm cruise, where ${scaleWords} expects ${round(expected, 2)} (${round(mismatch, 0)} %). Fuel corrections are held back until the scale is confirmed.`;
+  // A stated scale that cruise contradicts is no confirmation: the wideband or the fuel is not what was said.
+  const reason = afr.stated
+    ? `"${header}" reads ${round(cruiseAfr, 1)} AFR in warm cruise, ${round(mismatch, 0)} % off the ${round(expected, 2)} of ${scaleWords}, the scale that was stated. Fuel corrections are held back until the scale and the fuel agree with the log.`
+    : `"${header}" reads ${round(cruiseAfr, 1)} AFR in warm cruise, where ${scaleWords} expects ${round(expected, 2)} (${round(mismatch, 0)} %). Fuel corrections are held back until the scale is confirmed.`;
   return {
     report: { ...report, correctionsWithheld: true, reason },
     check: { id, status: 'warn', message: `${reason}${likely}` },

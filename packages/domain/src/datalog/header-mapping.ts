@@ -37,9 +37,13 @@ interface SplitHeader {
   names: { name: string; unitText: string | null }[];
 }
 
-/** Lowercase words of a header name: punctuation to spaces, letters and digits split ("STFT1" → "stft 1"). */
+/** "stftB1Pct" → "stft B1 Pct": a capital after a lowercase letter, or a capitalised word after a digit, starts a word. */
+const splitCamel = (text: string): string =>
+  text.replace(/([a-z])([A-Z])/g, '$1 $2').replace(/(\d)([A-Z][a-z])/g, '$1 $2');
+
+/** Lowercase words of a header name: punctuation to spaces, camelCase, letters and digits split ("stftB1" → "stft b 1"). */
 export function normaliseHeaderName(name: string): string {
-  return name
+  return splitCamel(name)
     .toLowerCase()
     .replace(/λ/g, ' lambda ')
     .replace(/[^a-z0-9%]+/g, ' ')
@@ -85,8 +89,7 @@ function splitHeader(raw: string): SplitHeader {
 function unitSuffix(base: string): SplitHeader['names'][number] | null {
   const text = base.trim();
   if (!/[_.]|[a-z][A-Z]/.test(text) || /\s/.test(text)) return null;
-  const tokens = text
-    .replace(/([a-z])([A-Z])/g, '$1 $2')
+  const tokens = splitCamel(text)
     .split(/[\s_.]+/)
     .filter((t) => t !== '');
   for (const take of [2, 1]) {
