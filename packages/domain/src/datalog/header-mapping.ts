@@ -67,7 +67,8 @@ function splitHeader(raw: string): SplitHeader {
   names.push({ name: normaliseHeaderName(base), unitText: bracketUnit ?? percentSuffix });
   const words = base.trim().split(/\s+/);
   const last = words.at(-1);
-  if (words.length > 1 && last !== undefined && isKnownUnitText(last)) {
+  // A spaced single letter ("…position F", "…sensor C") is a name's last word more often than a unit.
+  if (words.length > 1 && last !== undefined && last.length > 1 && isKnownUnitText(last)) {
     names.push({
       name: normaliseHeaderName(words.slice(0, -1).join(' ')),
       unitText: bracketUnit ?? last,

@@ -209,14 +209,15 @@ export const UNIT_CHOICES: Readonly<Record<Quantity, readonly { value: string; l
     { value: 'K', label: 'K' },
   ],
   pressure: [
-    { value: 'kPa', label: 'kPa absolute' },
+    // "abs" is said outright, so a stated absolute unit overrules a header that reads as boost.
+    { value: 'kPa abs', label: 'kPa absolute' },
     { value: 'kPag', label: 'kPa gauge' },
     { value: 'psia', label: 'psi absolute' },
     { value: 'psig', label: 'psi gauge' },
-    { value: 'bar', label: 'bar absolute' },
+    { value: 'bar abs', label: 'bar absolute' },
     { value: 'barg', label: 'bar gauge' },
-    { value: 'inHg', label: 'inHg absolute' },
-    { value: 'hPa', label: 'hPa absolute' },
+    { value: 'inHg abs', label: 'inHg absolute' },
+    { value: 'hPa abs', label: 'hPa absolute' },
   ],
   mass_flow: [
     { value: 'g/s', label: 'g/s' },
