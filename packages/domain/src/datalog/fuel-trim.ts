@@ -10,7 +10,7 @@ export function trimCorrectionPct(combinedTrimPct: number): number {
 }
 
 /** A cell's load bin on whichever axis its grid uses. */
-export const trimCellLoad = (cell: FuelTrimCell): Range =>
+export const trimCellLoad = (cell: Pick<FuelTrimCell, 'map' | 'maf'>): Range =>
   cell.map ?? cell.maf ?? [Number.NaN, Number.NaN];
 
 /** Load axis name with its unit, for table headings and exports. */

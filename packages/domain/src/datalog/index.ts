@@ -8,7 +8,12 @@ export {
 } from './channels';
 export type { DatalogVehicle } from './context';
 export { detectCsvLayout, parseCsvColumns, type CsvLayout } from './csv-reader';
-export { datalogVehicleSchema, logRequestSchema } from './datalog.schemas';
+export {
+  datalogMappingInputSchema,
+  datalogVehicleSchema,
+  logRequestSchema,
+  type DatalogMappingInput,
+} from './datalog.schemas';
 export { lambdaErrorPct } from './full-throttle';
 export { trimAxisLabel, trimCellLoad, trimCorrectionPct } from './fuel-trim';
 export {
