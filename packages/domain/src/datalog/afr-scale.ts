@@ -1,17 +1,12 @@
 import { STOICH_AFR } from '../vehicles/fuel';
 import type { CanonicalChannel } from './channels';
-import { round, type AnalysisContext } from './context';
+import { median, round, type AnalysisContext } from './context';
 import type { AfrScaleReport, DatalogCheck } from './report';
 
 /** Fewer warm cruise samples than this (a few seconds at 20 Hz) say nothing about the scale. */
 const MIN_CRUISE_SAMPLES = 100;
 /** At most this many samples are sorted for a median: a long log is sampled evenly. */
 const MEDIAN_SAMPLES = 20001;
-
-function median(values: number[]): number {
-  values.sort((a, b) => a - b);
-  return values[Math.floor(values.length / 2)] ?? Number.NaN;
-}
 
 /**
  * Warm part-throttle driving outside the pulls: closed loop holds λ 1 there, so an AFR column must read the

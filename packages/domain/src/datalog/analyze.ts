@@ -8,7 +8,7 @@ import {
   wotGearsCheck,
 } from './checks';
 import { stoichAfr } from '../vehicles/fuel';
-import { createContext, round, type DatalogVehicle } from './context';
+import { createContext, median, round, type DatalogVehicle } from './context';
 import { analyzeFuelTrims } from './fuel-trim';
 import { analyzePulls, countRatioGears, findPartialPulls, findPulls } from './full-throttle';
 import { analyzeKnock } from './knock';
@@ -31,10 +31,10 @@ function ethanolSummary(series: DatalogSeries): DatalogReport['fuel']['ethanolPc
   if (ethanol === undefined || series.fuel.stoichBySample === undefined) return undefined;
   const valid = Array.from(ethanol).filter((v) => Number.isFinite(v) && v >= 0 && v <= 100);
   if (valid.length === 0) return undefined;
-  valid.sort((a, b) => a - b);
+  const mid = median(valid);
   return {
     min: round(valid[0] as number, 1),
-    median: round(valid[Math.floor(valid.length / 2)] as number, 1),
+    median: round(mid, 1),
     max: round(valid.at(-1) as number, 1),
   };
 }
