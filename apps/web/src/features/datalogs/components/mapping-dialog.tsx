@@ -63,7 +63,8 @@ function MappingForm({ datalogId, mapping, onDone }: { datalogId: string; mappin
         {mapping.canonical.map(({ channel, label, unit, unitChoices }) => {
           const header = choice[channel] ?? NOT_LOGGED;
           const read = mapping.channels[channel] === header ? mapping.units[channel] : null;
-          const unitOptions = [{ value: FROM_HEADER, label: read ? `As the header says (${read})` : `As the header says, else ${unit || 'none'}` }, ...unitChoices];
+          // Short labels: the dialog is narrow on a phone.
+          const unitOptions = [{ value: FROM_HEADER, label: read ? `${read} (header)` : `${unit || '—'} (default)` }, ...unitChoices];
           return (
             <div key={channel} className="grid grid-cols-[minmax(0,1fr)_minmax(0,1.3fr)_minmax(0,0.9fr)] items-center gap-2">
               <label htmlFor={`map-${channel}`} className="text-ink-800">
