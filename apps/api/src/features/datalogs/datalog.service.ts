@@ -259,7 +259,9 @@ export function compareReports(base: DatalogReport, other: DatalogReport) {
       const otherTrimPct = b?.meanTrimPct ?? null;
       return {
         rpm: cell.rpm,
-        ...(cell.map && { map: cell.map }),
+        axis: cell.maf ? ('maf' as const) : ('map' as const),
+        // `map` stays filled for readers that know only the MAP grid; on the airflow axis it holds the g/s bin.
+        map: trimCellLoad(cell),
         ...(cell.maf && { maf: cell.maf }),
         baseTrimPct,
         otherTrimPct,
