@@ -51,3 +51,21 @@ test('the tuner sees the trim grid and the chart of a log in review', async ({ p
   await expect(chart.locator('.recharts-line')).toHaveCount(5);
   await page.screenshot({ path: '.tmp/datalogs-tuner.png', fullPage: true });
 });
+
+test('the tuner states a column unit and the AFR scale, and the log is checked again with them', async ({ page }) => {
+  await signIn(page, 'tuner@kestrel.test');
+  const job = await firstJobIn(page, 'log_review');
+  const logs = await (await page.request.get(`/api/jobs/${job.id}/datalogs`)).json();
+  const id = logs.data[0].id as string;
+  await page.goto(`/datalogs/${id}`);
+  await page.getByRole('button', { name: 'Confirm or fix columns' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Confirm the column mapping' });
+  await dialog.getByLabel('Unit of manifold pressure').selectOption('kPa abs');
+  await dialog.getByLabel('Air-fuel ratio columns are written on').selectOption('gasoline');
+  await page.screenshot({ path: '.tmp/datalogs-mapping.png', fullPage: true });
+  await dialog.getByRole('button', { name: 'Confirm and check again' }).click();
+  await expect(dialog).toBeHidden();
+  const mapping = await (await page.request.get(`/api/datalogs/${id}/mapping`)).json();
+  expect(mapping.data).toMatchObject({ stated: { map: 'kPa abs' }, afrScale: 'gasoline' });
+  await expect(page.getByRole('list', { name: 'Log checks' })).toBeVisible({ timeout: 30_000 });
+});

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, describe, expect, it } from 'vitest';
-import { DEMO_VEHICLE, generateLog } from '@revloop/domain/datalog/testing';
+import { DEMO_VEHICLE, generateAwkwardLog, generateLog } from '@revloop/domain/datalog/testing';
 
 const run = promisify(execFile);
 const root = resolve(import.meta.dirname, '../../../..');
@@ -65,7 +65,40 @@ describe('analyze CLI', () => {
       'full_throttle',
       'wot_gears',
       'sensor_sanity',
+      // The log's AFR is petrol-scaled (λ × 14.7) but E10 was stated: 4 % off at cruise [CALC].
+      'afr_scale',
     ]);
+    expect(report.afrScale.correctionsWithheld).toBe(true);
+  });
+
+  it('takes --unit, --afr-scale and --trim-axis', async () => {
+    const awkward = file('petrol-scaled.csv', generateAwkwardLog('e85_afr_petrol_scale').bytes);
+    const { code, stdout } = await analyze(
+      awkward,
+      '--fuel',
+      'e85',
+      '--afr-scale',
+      'gasoline',
+      '--unit',
+      'map=kPa abs',
+      '--trim-axis',
+      'maf',
+    );
+    expect(code).toBe(0);
+    const report = JSON.parse(stdout);
+    expect(report.afrScale).toMatchObject({ scale: 'gasoline', stated: true, correctionsWithheld: false });
+    expect(report.units.map).toBe('kPa (stated)');
+    expect(report.fuelTrim.axis).toBe('maf');
+  });
+
+  it.each([
+    [['--afr-scale', 'petrol'], /--afr-scale is fuel or gasoline/],
+    [['--trim-axis', 'tps'], /--trim-axis is map or maf/],
+    [['--unit', 'map'], /--unit needs <channel>=<unit>/],
+    [['--unit', 'map=°F'], /not a unit of manifold pressure/],
+  ])('exits 2 for %j', async (args, message) => {
+    const result = await analyze(log, ...args);
+    expect(result).toMatchObject({ code: 2, stdout: '', stderr: expect.stringMatching(message) });
   });
 
   it.each([

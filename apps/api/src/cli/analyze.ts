@@ -1,14 +1,22 @@
-// `npm run -s analyze -- FILE.csv [--fuel …] [--map channel=header …] [--vehicle vehicle.json]`: report JSON on stdout.
+// `npm run -s analyze -- FILE.csv [--fuel …] [--map channel=header …] [--unit channel=unit …] [--afr-scale …]
+// [--trim-axis …] [--vehicle vehicle.json]`: report JSON on stdout.
 // Exit 0 on success, 2 with one line on stderr for unreadable input or bad options, 1 for a bug.
 import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
-import { analyzeDatalog, datalogVehicleSchema, type AnalyzeOptions } from '@revloop/domain/datalog';
+import {
+  AFR_SCALES,
+  analyzeDatalog,
+  datalogVehicleSchema,
+  type AfrScale,
+  type AnalyzeOptions,
+} from '@revloop/domain/datalog';
 import { isDomainError } from '@revloop/domain';
 import { parseFuelOption } from '@revloop/domain/vehicles';
 import { readCsvFile } from '../workers/datalog/csv-file';
 
 const USAGE =
-  'usage: analyze FILE.csv [--fuel gasoline|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--vehicle vehicle.json]';
+  'usage: analyze FILE.csv [--fuel gasoline|diesel|e85|e<NN>|stoich=<AFR>] [--map <channel>=<header> ...] [--unit <channel>=<unit> ...] [--afr-scale fuel|gasoline] [--trim-axis map|maf] [--vehicle vehicle.json]';
+const TRIM_AXES = ['map', 'maf'] as const;
 
 class UsageError extends Error {}
 
@@ -33,14 +41,20 @@ function unreadable(error: unknown, path: string, what: string): UsageError {
   return new UsageError(`cannot read ${what} "${path}": ${reason}`);
 }
 
-function parseMap(pairs: string[]): Record<string, string> {
+function parsePairs(flag: string, what: string, pairs: string[]): Record<string, string> {
   return Object.fromEntries(
     pairs.map((pair) => {
       const at = pair.indexOf('=');
-      if (at <= 0) throw new UsageError(`--map needs <channel>=<header>, got "${pair}"`);
+      if (at <= 0) throw new UsageError(`--${flag} needs <channel>=<${what}>, got "${pair}"`);
       return [pair.slice(0, at).trim(), pair.slice(at + 1).trim()];
     }),
   );
+}
+
+function oneOf<T extends string>(flag: string, value: string, allowed: readonly T[]): T {
+  if (!(allowed as readonly string[]).includes(value))
+    throw new UsageError(`--${flag} is ${allowed.join(' or ')}, got "${value}"`);
+  return value as T;
 }
 
 function parseVehicle(path: string): AnalyzeOptions['vehicle'] {
@@ -68,12 +82,22 @@ function main(argv: string[]): number {
       options: {
         fuel: { type: 'string' },
         map: { type: 'string', multiple: true },
+        unit: { type: 'string', multiple: true },
+        'afr-scale': { type: 'string' },
+        'trim-axis': { type: 'string' },
         vehicle: { type: 'string' },
       },
     });
     const [file, ...extra] = positionals;
     if (file === undefined || extra.length > 0) throw new UsageError(USAGE);
-    const options: AnalyzeOptions = { map: parseMap(values.map ?? []) };
+    const options: AnalyzeOptions = {
+      map: parsePairs('map', 'header', values.map ?? []),
+      units: parsePairs('unit', 'unit', values.unit ?? []),
+    };
+    const afrScale = values['afr-scale'];
+    if (afrScale !== undefined) options.afrScale = oneOf<AfrScale>('afr-scale', afrScale, AFR_SCALES);
+    const trimAxis = values['trim-axis'];
+    if (trimAxis !== undefined) options.trimAxis = oneOf('trim-axis', trimAxis, TRIM_AXES);
     if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
     if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
     // Read in pieces, so a 90 MB log never sits in memory whole.

@@ -13,7 +13,7 @@ export interface DatalogTable {
   sha256: string;
   size_bytes: number;
   header_signature: string;
-  /** JSON `{ headers: string[], overrides: Record<channel, header> }`: the columns and the mapping the analysis used. */
+  /** JSON `{ headers, overrides: Record<channel, header>, units?, afrScale?, trimAxis? }`: the columns and the mapping the analysis used. */
   mapping: string;
   /** JSON domain FuelSpec the AFR columns were converted with. */
   fuel: string;
@@ -31,7 +31,7 @@ export type UpdateableDatalogRow = Updateable<DatalogTable>;
 export interface DatalogMappingTable {
   shop_id: string;
   header_signature: string;
-  /** JSON channel → header overrides a member confirmed for this header set. */
+  /** JSON `{ channels, units?, afrScale?, trimAxis? }` a member confirmed for this header set (older rows: a bare channel → header object). */
   mapping: string;
   updated_at: string;
 }

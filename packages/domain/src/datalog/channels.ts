@@ -19,6 +19,10 @@ export const CANONICAL_CHANNELS = [
   'knock_retard',
   'spark_advance',
   'gear',
+  'baro',
+  'ethanol_pct',
+  'oil_temp',
+  'fuel_pressure',
 ] as const;
 
 export type CanonicalChannel = (typeof CANONICAL_CHANNELS)[number];
@@ -73,6 +77,10 @@ export const CHANNEL_INFO: Readonly<Record<CanonicalChannel, ChannelInfo>> = {
   knock_retard: { quantity: 'angle', unit: '°', label: 'knock retard' },
   spark_advance: { quantity: 'angle', unit: '°', label: 'spark advance' },
   gear: { quantity: 'count', unit: '', label: 'gear' },
+  baro: { quantity: 'pressure', unit: 'kPa', label: 'barometric pressure' },
+  ethanol_pct: { quantity: 'percent', unit: '%', label: 'ethanol content of the fuel' },
+  oil_temp: { quantity: 'temperature', unit: '°C', label: 'oil temperature' },
+  fuel_pressure: { quantity: 'pressure', unit: 'kPa', label: 'fuel pressure (absolute)' },
 };
 
 // Patterns run against the normalised header name (see normaliseHeaderName): lowercase words, letters and digits
@@ -84,6 +92,7 @@ const BANK2 = ' (?:bank|b) 2| 2';
 export const CHANNEL_SYNONYMS: Readonly<Record<CanonicalChannel, readonly RegExp[]>> = {
   time: [
     /^(?:time|timestamp|time stamp|elapsed time|log time|elapsed|seconds|sec|secs|t|offset|ms)$/,
+    /^(?:device|logger|session|sample|record|run) time$/,
   ],
   rpm: [/^(?:engine |eng )?(?:rpm|revs)$/, /^(?:eng|engine) (?:spd|speed)$/, /^tach(?:ometer)?$/],
   vehicle_speed: [
@@ -101,6 +110,7 @@ export const CHANNEL_SYNONYMS: Readonly<Record<CanonicalChannel, readonly RegExp
   map: [
     /^(?:intake )?manifold (?:absolute )?pressure$/,
     /^(?:map|boost|boost pressure|manifold pressure|map sensor|intake pressure)$/,
+    /^(?:boost vacuum|boost vac|vacuum boost|boost and vacuum|manifold boost|map abs|manifold abs pressure)$/,
   ],
   maf: [
     /^(?:maf|maf air flow rate|maf air flow|maf rate|mass air ?flow(?: rate)?|air ?flow(?: rate)?|mass airflow|air mass|air mass flow)$/,
@@ -149,17 +159,34 @@ export const CHANNEL_SYNONYMS: Readonly<Record<CanonicalChannel, readonly RegExp
     /^(?:lambda|afr|air fuel ratio|a f ratio|equivalence ratio)(?: (?:meas|measured|actual|act|sensor|bank 1|b 1|1|b 1 s 1|wideband))?$/,
     /^(?:measured|actual) (?:lambda|afr|air fuel ratio)$/,
     /^(?:wideband|wb)(?: (?:lambda|afr|o 2|o 2 sensor|sensor))?$/,
+    // Wideband controllers' own names: "AFR wb", "Lambda wideband", "O2 WB", "Lambda Sensor 1".
+    /^(?:lambda|afr|air fuel ratio|o 2|o 2 sensor|oxygen sensor)(?: 1)? (?:wb|wideband|wide band|uego)(?: 1)?$/,
+    /^(?:wb|wideband|uego) (?:lambda|afr|o 2)(?: 1)?$/,
+    /^(?:lambda|afr) sensor(?: 1)?$/,
     /^(?:o 2|oxygen) sensor (?:1 |bank 1 sensor 1 |b 1 s 1 |s 1 )?(?:wide range )?(?:equivalence ratio|lambda|air fuel ratio|afr)$/,
     /^wide range (?:o 2|oxygen) sensor (?:1 )?(?:lambda|equivalence ratio)$/,
   ],
   knock_retard: [
     /^(?:knock|kr|knock retard|knock ret|knock correction|knock corr|timing retard|ignition retard|spark retard|knock retard total)$/,
+    /^(?:knock retard|knock ret|kr|knock correction|ignition retard|timing retard)(?: cyl| cylinder)? (?:avg|average|mean|max|total)$/,
   ],
   spark_advance: [
     /^(?:timing advance|ignition timing|spark advance|ignition advance|spark timing|timing|spark|ign timing|ign adv|spark adv|ignition angle)$/,
   ],
   gear: [
     /^(?:gear|current gear|gear position|trans gear|transmission gear|gear engaged|selected gear|gear actual)$/,
+  ],
+  // SAE J1979 PID 0x33 "Absolute barometric pressure".
+  baro: [
+    /^(?:absolute )?(?:barometric|baro|atmospheric|ambient|ambient air) (?:pressure|press)$/,
+    /^(?:baro|bap|barometer|atm pressure)$/,
+  ],
+  ethanol_pct: [
+    /^(?:ethanol|ethanol content|ethanol percent|ethanol pct|eth|e|flex fuel|flex fuel content|flex fuel sensor|flex fuel ethanol|fuel ethanol|fuel ethanol content|alcohol fuel|alcohol content|ethanol fuel)$/,
+  ],
+  oil_temp: [/^(?:engine )?oil (?:temp|temperature)$/, /^(?:eot|oil t)$/],
+  fuel_pressure: [
+    /^(?:fuel (?:rail )?(?:press|pressure)|fuel rail pressure|frp|fp|fuel press)$/,
   ],
 };
 

@@ -1,7 +1,7 @@
 import { CHANNEL_INFO } from './channels';
 import { round, type AnalysisContext } from './context';
 import type { LogRequest } from './log-request';
-import type { DatalogCheck, SensorIssue, WotPull } from './report';
+import type { DatalogCheck, FuelTrimGrid, SensorIssue, WotPull } from './report';
 
 const ordinal = (n: number) =>
   `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n % 10 === 2 && n % 100 !== 12 ? 'nd' : n % 10 === 3 && n % 100 !== 13 ? 'rd' : 'th'}`;
@@ -133,22 +133,26 @@ export function wotGearsCheck(
   ctx: AnalysisContext,
   pulls: WotPull[],
   request: LogRequest,
+  ratioGears: number | null,
 ): DatalogCheck {
   const id = 'wot_gears';
   const asked = plural(request.wotGears, 'gear');
+  const wasAsked = `${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for`;
   if (pulls.length === 0)
-    return {
-      id,
-      status: 'fail',
-      message: `There is no full-throttle pull, and ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.`,
-    };
+    return { id, status: 'fail', message: `There is no full-throttle pull, and ${wasAsked}.` };
   if (!ctx.gearKnown) {
-    return {
-      id,
-      status: 'warn',
-      message:
-        'The gear could not be told: no gear channel was logged and no gear ratios were given, so the number of full-throttle gears is unknown.',
-    };
+    if (ratioGears === null || ratioGears === 0) {
+      return {
+        id,
+        status: 'warn',
+        message:
+          'The gear could not be told: no gear channel, no gear ratios and no steady road speed during the pulls, so the number of full-throttle gears is unknown.',
+      };
+    }
+    const held = `${plural(ratioGears, 'gear')} held, told from the steps of engine speed over road speed (give the vehicle's gear ratios to name them)`;
+    return ratioGears >= request.wotGears
+      ? { id, status: 'pass', message: `Full throttle: ${held}; ${wasAsked}.` }
+      : { id, status: 'warn', message: `Full throttle: ${held}, but ${wasAsked}.` };
   }
   const gears = [...new Set(pulls.flatMap((p) => p.gears))].sort((a, b) => a - b);
   const held =
@@ -156,16 +160,32 @@ export function wotGearsCheck(
       ? 'no gear that could be told'
       : `${plural(gears.length, 'gear')} (${listWords(gears.map(ordinal))})`;
   if (gears.length >= request.wotGears) {
+    return { id, status: 'pass', message: `Full throttle was held in ${held}; ${wasAsked}.` };
+  }
+  return { id, status: 'warn', message: `Full throttle was held in ${held}, but ${wasAsked}.` };
+}
+
+/** Both banks logged: a cell where they disagree by more than the shop's threshold is one bank's problem, hidden by the average. */
+export function bankSplitCheck(ctx: AnalysisContext, grid: FuelTrimGrid): DatalogCheck | null {
+  const split = grid.cells.filter((c) => c.bankSplitPct !== undefined);
+  if (split.length === 0) return null;
+  const limit = ctx.settings.bankSplitPct;
+  const over = split.filter((c) => Math.abs(c.bankSplitPct as number) > limit);
+  const id = 'bank_split';
+  if (over.length === 0)
     return {
       id,
       status: 'pass',
-      message: `Full throttle was held in ${held}; ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.`,
+      message: `Bank 1 and bank 2 trims agree within ${limit} % in every cell.`,
     };
-  }
+  const worst = over.reduce((a, b) =>
+    Math.abs(b.bankSplitPct as number) > Math.abs(a.bankSplitPct as number) ? b : a,
+  );
+  const lean = (worst.bankSplitPct as number) > 0 ? 1 : 2;
   return {
     id,
     status: 'warn',
-    message: `Full throttle was held in ${held}, but ${asked} ${request.wotGears === 1 ? 'was' : 'were'} asked for.`,
+    message: `Bank 1 and bank 2 trims differ by more than ${limit} % in ${plural(over.length, 'cell')} (up to ${round(Math.abs(worst.bankSplitPct as number), 1)} %, bank ${lean} adding more fuel): look for a leak, an injector or a sensor on one bank before changing the fuel table for both.`,
   };
 }
 

@@ -109,3 +109,9 @@ export const round = (value: number, digits = 2): number => {
   const f = 10 ** digits;
   return Math.round(value * f) / f;
 };
+
+/** Median of the values (sorted in place). */
+export function median(values: number[]): number {
+  values.sort((a, b) => a - b);
+  return values[Math.floor(values.length / 2)] ?? Number.NaN;
+}

@@ -60,10 +60,75 @@ function gearsIn(ctx: AnalysisContext, start: number, end: number): number[] {
   return [...held].filter(([, seconds]) => seconds >= ctx.settings.gearMinS).map(([gear]) => gear);
 }
 
-function lambdaErrors(ctx: AnalysisContext, start: number, end: number): LambdaErrorBin[] {
+/**
+ * rpm per km/h of each gear held in the run, in order, with neither a gear channel nor the vehicle's ratios: in
+ * one gear rpm/speed is constant (overall ratio ÷ tyre circumference), and each shift steps it. Stretches
+ * shorter than gearMinS (the shift itself, clutch slip) are not gears. Null when rpm or speed is not logged.
+ */
+export function ratioSteps(ctx: AnalysisContext, start: number, end: number): number[] | null {
+  const speed = ctx.series.channels.vehicle_speed;
+  const rpm = ctx.rpm;
+  if (speed === undefined || rpm === undefined) return null;
+  const { gearTolerance, gearMinS, gearRatioMinSpeedKmh } = ctx.settings;
+  const time = ctx.time;
+  const levels: number[] = [];
+  let first = -1;
+  let last = -1;
+  let sum = 0;
+  let n = 0;
+  const close = () => {
+    if (first < 0 || (time[last] as number) - (time[first] as number) < gearMinS) return;
+    const level = sum / n;
+    const previous = levels.at(-1);
+    if (previous === undefined || Math.abs(level / previous - 1) > gearTolerance) levels.push(level);
+  };
+  for (let i = start; i <= end; i++) {
+    const v = speed[i] as number;
+    const r = rpm[i] as number;
+    if (!(v >= gearRatioMinSpeedKmh) || !(r > 0)) {
+      close();
+      first = -1;
+      continue;
+    }
+    const ratio = r / v;
+    if (first >= 0 && Math.abs(ratio / (sum / n) - 1) <= gearTolerance) {
+      sum += ratio;
+      n++;
+      last = i;
+      continue;
+    }
+    close();
+    first = i;
+    last = i;
+    sum = ratio;
+    n = 1;
+  }
+  close();
+  return levels;
+}
+
+/** Distinct gears over all pulls from their rpm/speed steps (one gear pulled twice counts once); null when not logged. */
+export function countRatioGears(ctx: AnalysisContext, runs: [number, number][]): number | null {
+  const distinct: number[] = [];
+  for (const [start, end] of runs) {
+    const levels = ratioSteps(ctx, start, end);
+    if (levels === null) return null;
+    for (const level of levels)
+      if (!distinct.some((d) => Math.abs(level / d - 1) <= ctx.settings.gearTolerance))
+        distinct.push(level);
+  }
+  return distinct.length;
+}
+
+function lambdaErrors(
+  ctx: AnalysisContext,
+  start: number,
+  end: number,
+  withhold: boolean,
+): LambdaErrorBin[] {
   const { lambda_meas: measured, lambda_cmd: commanded } = ctx.series.channels;
   const rpm = ctx.rpm;
-  if (measured === undefined || rpm === undefined) return [];
+  if (measured === undefined || rpm === undefined || !ctx.settings.lambdaCorrections) return [];
   const { wotSettleS, wotRpmBinWidth, wotMinSamplesPerBin, wotDefaultTargetLambda } = ctx.settings;
   const from = (ctx.time[start] as number) + wotSettleS;
   const bins = new Map<number, { sum: number; n: number }>();
@@ -88,20 +153,29 @@ function lambdaErrors(ctx: AnalysisContext, start: number, end: number): LambdaE
         rpm: [lo, lo + wotRpmBinWidth],
         samples: b.n,
         meanErrorPct,
-        fuelCorrectionPct: meanErrorPct,
+        fuelCorrectionPct: withhold ? null : meanErrorPct,
       };
     });
 }
 
-export function analyzePulls(ctx: AnalysisContext, pulls: [number, number][]): WotPull[] {
+/** Each pull's gears and λ error; `withholdCorrections` blanks the fuel corrections (an AFR scale in doubt). */
+export function analyzePulls(
+  ctx: AnalysisContext,
+  pulls: [number, number][],
+  withholdCorrections = false,
+): WotPull[] {
   const drive = ctx.drive;
-  return pulls.map(([start, end]) => ({
-    startS: round(ctx.time[start] as number),
-    endS: round(ctx.time[end] as number),
-    gears: gearsIn(ctx, start, end),
-    rpmStart: round(ctx.rpm?.[start] ?? Number.NaN, 0),
-    rpmEnd: round(ctx.rpm?.[end] ?? Number.NaN, 0),
-    maxPedalPct: drive === undefined ? 0 : round(maxOf(drive.values, start, end), 1),
-    lambdaError: lambdaErrors(ctx, start, end),
-  }));
+  return pulls.map(([start, end]) => {
+    const gears = gearsIn(ctx, start, end);
+    return {
+      startS: round(ctx.time[start] as number),
+      endS: round(ctx.time[end] as number),
+      gears,
+      gearsHeld: ctx.gearKnown ? gears.length : (ratioSteps(ctx, start, end)?.length ?? null),
+      rpmStart: round(ctx.rpm?.[start] ?? Number.NaN, 0),
+      rpmEnd: round(ctx.rpm?.[end] ?? Number.NaN, 0),
+      maxPedalPct: drive === undefined ? 0 : round(maxOf(drive.values, start, end), 1),
+      lambdaError: lambdaErrors(ctx, start, end, withholdCorrections),
+    };
+  });
 }

@@ -97,6 +97,75 @@ describe('mapHeaders', () => {
   });
 });
 
+describe('mapHeaders: units in script-style names and stated units', () => {
+  it('reads a unit written as a snake_case, camelCase or dotted suffix', () => {
+    const c = mapHeaders([
+      'elapsed_ms',
+      'coolant_c',
+      'oil_temp_f',
+      'fuel_press_psig',
+      'veh_spd_kph',
+      'airflow_lbmin',
+      'stftB1Pct',
+      'rpm.min',
+      'mapPsia',
+    ]).channels;
+    expect(c.time).toMatchObject({ header: 'elapsed_ms', unitText: 'ms' });
+    expect(c.coolant_temp).toMatchObject({ header: 'coolant_c', unitText: 'c' });
+    expect(c.oil_temp).toMatchObject({ header: 'oil_temp_f', unitText: 'f' });
+    expect(c.fuel_pressure).toMatchObject({ header: 'fuel_press_psig', unitText: 'psig' });
+    expect(c.vehicle_speed).toMatchObject({ header: 'veh_spd_kph', unitText: 'kph' });
+    expect(c.maf).toMatchObject({ header: 'airflow_lbmin', unitText: 'lbmin' });
+    expect(c.stft_b1).toMatchObject({ header: 'stftB1Pct', unitText: 'Pct' });
+    expect(c.rpm).toMatchObject({ header: 'rpm.min', unitText: 'min' });
+    expect(c.map).toMatchObject({ header: 'mapPsia', unitText: 'Psia' });
+  });
+
+  it('keeps a spaced single letter as part of the name ("Accelerator pedal position F" is no °F)', () => {
+    const c = mapHeaders(['Time', 'Accelerator pedal position F']).channels;
+    expect(c.pedal_pos?.unitText).toBeNull();
+  });
+
+  it('reads the unit of a column named with --map from its suffix', () => {
+    const c = mapHeaders(['t_s', 'press_psig'], { time: 't_s', map: 'press_psig' }).channels;
+    expect(c.map).toMatchObject({ unitText: 'psig' });
+  });
+
+  it('knows wideband, boost/vacuum, knock-average, device-time, baro and ethanol words', () => {
+    const headerOf = (headers: string[]) =>
+      Object.fromEntries(Object.entries(mapHeaders(headers).channels).map(([k, m]) => [k, m.header]));
+    expect(
+      headerOf([
+        'Device Time',
+        'Boost/Vacuum (psi)',
+        'Knock Retard Cyl Avg',
+        'Lambda Sensor 1',
+        'Barometric Pressure (kPa)',
+        'Flex Fuel Content (%)',
+      ]),
+    ).toEqual({
+      time: 'Device Time',
+      map: 'Boost/Vacuum (psi)',
+      knock_retard: 'Knock Retard Cyl Avg',
+      lambda_meas: 'Lambda Sensor 1',
+      baro: 'Barometric Pressure (kPa)',
+      ethanol_pct: 'Flex Fuel Content (%)',
+    });
+    for (const wideband of ['AFR wb', 'Lambda wideband', 'O2 WB'])
+      expect(headerOf(['Time', wideband]).lambda_meas).toBe(wideband);
+    expect(headerOf(['Time', 'E%']).ethanol_pct).toBe('E%');
+    expect(mapHeaders(['Time', 'Boost/Vacuum (psi)']).channels.map?.gauge).toBe(true);
+  });
+
+  it('lets a stated unit overrule the header, and refuses a unit of another quantity', () => {
+    const mapping = mapHeaders(['Time', 'Boost (psi)', 'AFR'], {}, { map: 'psia', afr_meas: 'lambda' });
+    expect(mapping.channels.map).toMatchObject({ unitText: 'psia', unitStated: true });
+    expect(mapping.channels.lambda_meas).toMatchObject({ lambdaUnit: 'lambda', unitStated: true });
+    expect(() => mapHeaders(['Time', 'MAP'], {}, { map: '°F' })).toThrow(/not a unit of manifold pressure/);
+    expect(() => mapHeaders(['Time', 'MAP'], {}, { maf: 'g/s' })).toThrow(/no column of this log/);
+  });
+});
+
 describe('headerSignature', () => {
   it('ignores case, quotes and spacing but not the columns or their order', () => {
     const a = headerSignature(['Time (s)', 'Engine RPM']);

@@ -6,14 +6,17 @@ import {
   isCanonicalChannel,
   type CanonicalChannel,
 } from './channels';
-import { isKnownUnitText, lambdaUnitOf, type LambdaUnit } from './units';
+import { CHANNEL_INFO } from './channels';
+import { isKnownUnitText, isUnitOf, lambdaUnitOf, UNIT_CHOICES, type LambdaUnit } from './units';
 
 export interface MappedColumn {
   /** Zero-based column index in the log. */
   column: number;
   header: string;
-  /** Unit text read from the header ("°F", "psi"), or null when the header names none. */
+  /** Unit text read from the header ("°F", "psi") or stated by the user, or null when neither names one. */
   unitText: string | null;
+  /** The user stated the unit (CLI `--unit`, the mapping dialog), so the header's own unit word was overruled. */
+  unitStated: boolean;
   /** Header says gauge pressure ("Boost …"): one atmosphere is added to make it absolute. */
   gauge: boolean;
   /** For lambda channels: the header says AFR or λ; null leaves it to the values. */
@@ -34,9 +37,13 @@ interface SplitHeader {
   names: { name: string; unitText: string | null }[];
 }
 
-/** Lowercase words of a header name: punctuation to spaces, letters and digits split ("STFT1" → "stft 1"). */
+/** "stftB1Pct" → "stft B1 Pct": a capital after a lowercase letter, or a capitalised word after a digit, starts a word. */
+const splitCamel = (text: string): string =>
+  text.replace(/([a-z])([A-Z])/g, '$1 $2').replace(/(\d)([A-Z][a-z])/g, '$1 $2');
+
+/** Lowercase words of a header name: punctuation to spaces, camelCase, letters and digits split ("stftB1" → "stft b 1"). */
 export function normaliseHeaderName(name: string): string {
-  return name
+  return splitCamel(name)
     .toLowerCase()
     .replace(/λ/g, ' lambda ')
     .replace(/[^a-z0-9%]+/g, ' ')
@@ -60,7 +67,8 @@ function splitHeader(raw: string): SplitHeader {
   names.push({ name: normaliseHeaderName(base), unitText: bracketUnit ?? percentSuffix });
   const words = base.trim().split(/\s+/);
   const last = words.at(-1);
-  if (words.length > 1 && last !== undefined && isKnownUnitText(last)) {
+  // A spaced single letter ("…position F", "…sensor C") is a name's last word more often than a unit.
+  if (words.length > 1 && last !== undefined && last.length > 1 && isKnownUnitText(last)) {
     names.push({
       name: normaliseHeaderName(words.slice(0, -1).join(' ')),
       unitText: bracketUnit ?? last,
@@ -70,7 +78,31 @@ function splitHeader(raw: string): SplitHeader {
   if (words.length === 1 && last !== undefined && isKnownUnitText(last) && bracketUnit === null) {
     names[0] = { name: normaliseHeaderName(base), unitText: last };
   }
+  const suffixed = bracketUnit === null ? unitSuffix(base) : null;
+  if (suffixed !== null) names.push(suffixed);
   return { header, names };
+}
+
+/**
+ * A unit written as the last part of a script-style name: snake_case (`coolant_c`, `airflow_lbmin`), camelCase
+ * (`elapsedMs`) or dotted (`rpm.min`). Only these separators count, so a spaced "Pedal position F" keeps its F.
+ */
+function unitSuffix(base: string): SplitHeader['names'][number] | null {
+  const text = base.trim();
+  if (!/[_.]|[a-z][A-Z]/.test(text) || /\s/.test(text)) return null;
+  const tokens = splitCamel(text)
+    .split(/[\s_.]+/)
+    .filter((t) => t !== '');
+  for (const take of [2, 1]) {
+    if (tokens.length <= take) continue;
+    const tail = tokens.slice(-take);
+    const candidates = take === 2 ? [tail.join(''), tail.join('/')] : [tail.join('')];
+    const unitText = candidates.find(isKnownUnitText);
+    if (unitText !== undefined) {
+      return { name: normaliseHeaderName(tokens.slice(0, -take).join(' ')), unitText };
+    }
+  }
+  return null;
 }
 
 function lambdaUnitFromHeader(name: string, unitText: string | null): LambdaUnit | null {
@@ -94,6 +126,7 @@ function toMapped(
     column,
     header: split.header,
     unitText,
+    unitStated: false,
     gauge,
     lambdaUnit: forcedAfr ? 'afr' : lambdaUnitFromHeader(chosen.name, unitText),
   };
@@ -134,14 +167,36 @@ function resolveOverrideChannel(key: string): CanonicalChannel {
   return channel;
 }
 
+/** A unit the user stated for a channel's column replaces whatever the header said. */
+function stateUnit(key: string, text: string, mapped: MappedColumn | undefined): MappedColumn {
+  const channel = resolveOverrideChannel(key);
+  const { quantity, label } = CHANNEL_INFO[channel];
+  if (mapped === undefined) {
+    throw new DomainError(
+      'validation',
+      `A unit was given for ${label}, but no column of this log feeds it. Map a column to ${channel} first.`,
+    );
+  }
+  if (!isUnitOf(quantity, text)) {
+    const known = UNIT_CHOICES[quantity].map((u) => u.value).join(', ');
+    throw new DomainError(
+      'validation',
+      `"${text}" is not a unit of ${label}.${known === '' ? '' : ` Use one of: ${known}.`}`,
+    );
+  }
+  const lambdaUnit = quantity === 'lambda' ? lambdaUnitOf(text) : mapped.lambdaUnit;
+  return { ...mapped, unitText: text.trim(), unitStated: true, lambdaUnit };
+}
+
 /**
  * Proposes which column feeds each canonical channel, by header synonyms; `overrides` (channel → header text)
- * win, and an empty header text means "not logged" (a column the synonyms took wrongly). The UI shows the
- * result for the tuner to confirm or fix.
+ * win, and an empty header text means "not logged" (a column the synonyms took wrongly). `units` (channel →
+ * unit text such as "psia") states a column's unit. The UI shows the result for the tuner to confirm or fix.
  */
 export function mapHeaders(
   headers: readonly string[],
   overrides: Readonly<Record<string, string>> = {},
+  units: Readonly<Record<string, string>> = {},
 ): HeaderMapping {
   const splits = headers.map(splitHeader);
   const taken = new Set<number>();
@@ -163,7 +218,12 @@ export function mapHeaders(
         `This log has no column "${wanted}" for ${channel}. Its columns are: ${splits.map((s) => s.header).join(', ')}.`,
       );
     }
-    channels[channel] = toMapped(split, column, 0, key.trim().toLowerCase().startsWith('afr_'));
+    // A column named by hand still has its unit read from the header, wherever the header writes it.
+    const withUnit = Math.max(
+      0,
+      split.names.findIndex((n) => n.unitText !== null),
+    );
+    channels[channel] = toMapped(split, column, withUnit, key.trim().toLowerCase().startsWith('afr_'));
     taken.add(column);
   }
 
@@ -181,6 +241,12 @@ export function mapHeaders(
         }
       }
     }
+  }
+
+  for (const [key, text] of Object.entries(units)) {
+    if (text.trim() === '') continue;
+    const channel = resolveOverrideChannel(key);
+    channels[channel] = stateUnit(key, text, channels[channel]);
   }
 
   return {

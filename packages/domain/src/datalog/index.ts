@@ -15,9 +15,14 @@ export {
   type CsvLayout,
   type CsvSource,
 } from './csv-reader';
-export { datalogVehicleSchema, logRequestSchema } from './datalog.schemas';
+export {
+  datalogMappingInputSchema,
+  datalogVehicleSchema,
+  logRequestSchema,
+  type DatalogMappingInput,
+} from './datalog.schemas';
 export { lambdaErrorPct } from './full-throttle';
-export { trimCorrectionPct } from './fuel-trim';
+export { trimAxisLabel, trimCellLoad, trimCorrectionPct } from './fuel-trim';
 export {
   headerSignature,
   mapHeaders,
@@ -27,7 +32,13 @@ export {
 } from './header-mapping';
 export { DEFAULT_WARMUP_MINUTES, defaultLogRequest, type LogRequest } from './log-request';
 export type * from './report';
-export { readDatalog, type DatalogSeries, type ReadDatalogOptions } from './series';
-export { DEFAULT_ANALYSIS_SETTINGS, type AnalysisSettings } from './settings';
-export { STANDARD_ATMOSPHERE_KPA, unitConversion } from './units';
+export {
+  AFR_SCALES,
+  readDatalog,
+  type AfrScale,
+  type DatalogSeries,
+  type ReadDatalogOptions,
+} from './series';
+export { DEFAULT_ANALYSIS_SETTINGS, fuelLambdaSettings, type AnalysisSettings } from './settings';
+export { STANDARD_ATMOSPHERE_KPA, UNIT_CHOICES, isUnitOf, unitConversion } from './units';
 export { trimGridToCsv, wotTableToCsv } from './report-export';

@@ -1,20 +1,25 @@
 import { toCsv } from '../csv';
+import { trimAxisLabel, trimCellLoad } from './fuel-trim';
 import type { DatalogReport } from './report';
 
 /**
  * Fuel-trim corrections as a grid a tuner pastes next to the fuel table: one row per rpm bin, one column per
- * MAP bin, cells hold correctionPct (blank where the cell had too few samples).
+ * MAP (or airflow) bin, cells hold correctionPct (blank where the cell had too few samples).
  */
 export function trimGridToCsv(report: DatalogReport): string {
-  const { rpmAxis, mapAxis, cells } = report.fuelTrim;
+  const { rpmAxis, cells } = report.fuelTrim;
+  const axis = report.fuelTrim.axis ?? 'map';
+  const loadAxis = axis === 'map' ? report.fuelTrim.mapAxis : report.fuelTrim.mafAxis;
+  const corner = `rpm \\ ${trimAxisLabel(axis)}`;
   const first = cells[0];
-  if (first === undefined) return toCsv(['rpm \\ MAP kPa'], []);
+  if (first === undefined) return toCsv([corner], []);
   const rpmWidth = first.rpm[1] - first.rpm[0];
-  const mapWidth = first.map[1] - first.map[0];
-  const byCell = new Map(cells.map((c) => [`${c.rpm[0]}:${c.map[0]}`, c.correctionPct]));
+  const [loadLo, loadHi] = trimCellLoad(first);
+  const loadWidth = loadHi - loadLo;
+  const byCell = new Map(cells.map((c) => [`${c.rpm[0]}:${trimCellLoad(c)[0]}`, c.correctionPct]));
   return toCsv(
-    ['rpm \\ MAP kPa', ...mapAxis.map((m) => `${m}-${m + mapWidth}`)],
-    rpmAxis.map((r) => [`${r}-${r + rpmWidth}`, ...mapAxis.map((m) => byCell.get(`${r}:${m}`))]),
+    [corner, ...loadAxis.map((m) => `${m}-${+(m + loadWidth).toFixed(3)}`)],
+    rpmAxis.map((r) => [`${r}-${r + rpmWidth}`, ...loadAxis.map((m) => byCell.get(`${r}:${m}`))]),
   );
 }
 

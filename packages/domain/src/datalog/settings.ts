@@ -1,3 +1,4 @@
+import type { FuelSpec } from '../vehicles/fuel';
 import type { CanonicalChannel } from './channels';
 
 /** Every threshold the analysis uses; callers override single fields. Sources in the comments ([CP] = common practice). */
@@ -23,6 +24,16 @@ export interface AnalysisSettings {
   /** Trim grid: 500 rpm × 10 kPa cells [CP]. */
   trimRpmBinWidth: number;
   trimMapBinWidthKpa: number;
+  /** Trim grid on the airflow axis (MAF cars): 5 g/s steps, a tenth of a 2 L engine's cruise range [CP]. */
+  trimMafBinWidthGs: number;
+  /** Bank 1 and bank 2 trims of one cell further apart than this (percentage points) is a split worth a look [CP]. */
+  bankSplitPct: number;
+  /** Warm closed-loop cruise reads λ 1; an AFR column whose cruise median is further off than this is on another scale. */
+  afrScaleTolerancePct: number;
+  /** Give λ-based fuel corrections; off for diesel, which runs lean by design. */
+  lambdaCorrections: boolean;
+  /** Road speed below this tells no gear from the rpm/speed ratio (clutch slip, rounding of a slow speed). */
+  gearRatioMinSpeedKmh: number;
   /** Fewer samples than this in a cell is noise, not a trend. */
   trimMinSamples: number;
   /** Closed loop means commanded λ within this of 1 (where commanded λ is logged). */
@@ -64,6 +75,13 @@ export const DEFAULT_ANALYSIS_SETTINGS: Readonly<AnalysisSettings> = {
   wotDefaultTargetLambda: 0.85,
   trimRpmBinWidth: 500,
   trimMapBinWidthKpa: 10,
+  trimMafBinWidthGs: 5,
+  // Twice a cell's "good" band (±5 %, REFERENCES "healthy trim band" [CP]) would hide a bank problem: 5 points apart flags it.
+  bankSplitPct: 5,
+  // Narrow-band closed loop holds λ within about ±1 % of stoich [CP]; E10 read on petrol's scale is 4.3 % off [CALC].
+  afrScaleTolerancePct: 3,
+  lambdaCorrections: true,
+  gearRatioMinSpeedKmh: 10,
   trimMinSamples: 20,
   closedLoopLambdaTolerance: 0.03,
   decelPedalPct: 1,
@@ -96,5 +114,29 @@ export const DEFAULT_ANALYSIS_SETTINGS: Readonly<AnalysisSettings> = {
     lambda_meas: [0.5, 1.6],
     knock_retard: [0, 30],
     spark_advance: [-64, 64],
+    // SAE J1979 PID 0x33 reads 0–255 kPa; the air itself is 50–110 kPa from 5,000 m to sea level [CALC, ISO 2533].
+    baro: [50, 110],
+    ethanol_pct: [0, 100],
+    oil_temp: [-40, 160],
+    // Port injection runs 250–600 kPa, direct injection up to about 35 MPa [CP].
+    fuel_pressure: [0, 40000],
   },
 };
+
+/**
+ * λ thresholds by fuel. λ already divides out each fuel's stoichiometric ratio, so every spark-ignition fuel
+ * (petrol, ethanol blends, methanol) shares one set; diesel runs lean by design (λ 1.3 and far above at part
+ * load [CP]), so it gets no λ corrections, no fuel-cut cut-off and a wide plausible range.
+ */
+export function fuelLambdaSettings(fuel: FuelSpec): Partial<AnalysisSettings> {
+  if (fuel.kind !== 'diesel') return {};
+  return {
+    lambdaCorrections: false,
+    fuelCutLambda: Number.POSITIVE_INFINITY,
+    physicalLimits: {
+      ...DEFAULT_ANALYSIS_SETTINGS.physicalLimits,
+      lambda_cmd: [0.5, 10],
+      lambda_meas: [0.5, 10],
+    },
+  };
+}

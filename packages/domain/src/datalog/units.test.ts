@@ -1,7 +1,14 @@
 import { unit } from 'mathjs';
 import { stoichAfr } from '../vehicles/fuel';
 import { describe, expect, it } from 'vitest';
-import { STANDARD_ATMOSPHERE_KPA, lambdaConversion, unitConversion } from './units';
+import type { Quantity } from './channels';
+import {
+  STANDARD_ATMOSPHERE_KPA,
+  UNIT_CHOICES,
+  isUnitOf,
+  lambdaConversion,
+  unitConversion,
+} from './units';
 
 // Oracle: mathjs unit definitions (independent of this code). Each expectation converts one source unit.
 const convert = (
@@ -52,6 +59,22 @@ describe('unit conversions against mathjs', () => {
     // REFERENCES "lambda": λ = AFR / AFR_stoich; 12.5 AFR gasoline (14.7) → λ 0.850 [definition]
     expect(12.5 * lambdaConversion('afr', 14.7).scale).toBeCloseTo(0.85, 3);
     expect(lambdaConversion('lambda', 14.7).scale).toBe(1);
+  });
+
+  it('converts the suffix spellings of script-style names', () => {
+    expect(convert('mass_flow', 'lbmin', 2)).toBeCloseTo(unit(2, 'lbm/minute').toNumber('g/s'), 9); // [3P] mathjs
+    expect(convert('rotational_speed', 'min', 3000)).toBe(3000); // rpm = revolutions per minute [definition]
+    expect(convert('speed', 'kph', 100)).toBe(100);
+    expect(convert('temperature', 'f', 212)).toBeCloseTo(unit(212, 'degF').toNumber('degC'), 9); // [3P] mathjs
+    expect(convert('pressure', 'kPag', 50)).toBeCloseTo(50 + unit(1, 'atm').toNumber('kPa'), 9); // [3P] mathjs atm; ISO 2533 [STD]
+    expect(convert('pressure', 'bar abs', 1.5)).toBeCloseTo(unit(1.5, 'bar').toNumber('kPa'), 9); // [3P] mathjs
+    expect(unitConversion('pressure', 'psig', false)?.gauge).toBe(true);
+  });
+
+  it('offers every unit choice of a quantity as a unit the importer reads', () => {
+    for (const [quantity, choices] of Object.entries(UNIT_CHOICES))
+      for (const choice of choices)
+        expect(isUnitOf(quantity as Quantity, choice.value), `${quantity} ${choice.value}`).toBe(true);
   });
 
   it('refuses a unit of another quantity', () => {

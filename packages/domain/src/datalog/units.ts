@@ -6,6 +6,8 @@ export interface UnitConversion {
   unit: string;
   scale: number;
   offset: number;
+  /** Gauge pressure: the offset is one standard atmosphere, replaced by the logged barometric pressure where there is one. */
+  gauge?: boolean;
 }
 
 /** Standard atmosphere, added to gauge ("boost") pressure to make it absolute (ISO 2533). */
@@ -46,7 +48,10 @@ const UNITS: Readonly<
     rpm: entry('rpm'),
     '1/min': entry('rpm'),
     'r/min': entry('rpm'),
+    'rev/min': entry('rpm'),
     'min-1': entry('rpm'),
+    // "rpm.min" and "engine_speed_min": revolutions per minute, the minute named alone.
+    min: entry('rpm'),
   },
   speed: {
     'km/h': entry('km/h'),
@@ -69,6 +74,7 @@ const UNITS: Readonly<
   },
   pressure: {
     kpa: entry('kPa'),
+    kpaa: entry('kPa'),
     psi: entry('psi', KPA_PER_PSI),
     psia: entry('psi', KPA_PER_PSI),
     bar: entry('bar', 100),
@@ -84,6 +90,10 @@ const UNITS: Readonly<
     'lb/min': entry('lb/min', G_PER_LB / 60),
     'lbs/min': entry('lb/min', G_PER_LB / 60),
     'lbm/min': entry('lb/min', G_PER_LB / 60),
+    lbmin: entry('lb/min', G_PER_LB / 60),
+    lbsmin: entry('lb/min', G_PER_LB / 60),
+    kgh: entry('kg/h', 1 / 3.6),
+    lbh: entry('lb/h', G_PER_LB / 3600),
     'kg/h': entry('kg/h', 1 / 3.6),
     'kg/hr': entry('kg/h', 1 / 3.6),
     'lb/h': entry('lb/h', G_PER_LB / 3600),
@@ -162,7 +172,7 @@ export function unitConversion(
     if (GAUGE_SUFFIXES.includes(key)) {
       isGauge = true;
       key = key.replace(/\(g\)$|gauge$|g$/, '');
-    } else if (key.endsWith('abs') || key === 'psia') {
+    } else if (key.endsWith('abs') || key === 'psia' || key === 'kpaa') {
       isGauge = false;
       key = key.replace(/abs$/, '');
     }
@@ -170,7 +180,63 @@ export function unitConversion(
   const found = UNITS[quantity][key];
   if (found === undefined) return null;
   if (quantity === 'pressure' && isGauge) {
-    return { unit: `${found.label} (gauge)`, scale: found.scale, offset: STANDARD_ATMOSPHERE_KPA };
+    return {
+      unit: `${found.label} (gauge)`,
+      scale: found.scale,
+      offset: STANDARD_ATMOSPHERE_KPA,
+      gauge: true,
+    };
   }
   return { unit: found.label, scale: found.scale, offset: found.offset };
+}
+
+/** Units a user may state for a channel (CLI `--unit`, the mapping dialog's picker); values are unit texts the importer reads. */
+export const UNIT_CHOICES: Readonly<Record<Quantity, readonly { value: string; label: string }[]>> = {
+  time: [
+    { value: 's', label: 's' },
+    { value: 'ms', label: 'ms' },
+    { value: 'min', label: 'min' },
+  ],
+  rotational_speed: [{ value: 'rpm', label: 'rpm' }],
+  speed: [
+    { value: 'km/h', label: 'km/h' },
+    { value: 'mph', label: 'mph' },
+    { value: 'm/s', label: 'm/s' },
+  ],
+  temperature: [
+    { value: '°C', label: '°C' },
+    { value: '°F', label: '°F' },
+    { value: 'K', label: 'K' },
+  ],
+  pressure: [
+    // "abs" is said outright, so a stated absolute unit overrules a header that reads as boost.
+    { value: 'kPa abs', label: 'kPa absolute' },
+    { value: 'kPag', label: 'kPa gauge' },
+    { value: 'psia', label: 'psi absolute' },
+    { value: 'psig', label: 'psi gauge' },
+    { value: 'bar abs', label: 'bar absolute' },
+    { value: 'barg', label: 'bar gauge' },
+    { value: 'inHg abs', label: 'inHg absolute' },
+    { value: 'hPa abs', label: 'hPa absolute' },
+  ],
+  mass_flow: [
+    { value: 'g/s', label: 'g/s' },
+    { value: 'lb/min', label: 'lb/min' },
+    { value: 'kg/h', label: 'kg/h' },
+    { value: 'lb/h', label: 'lb/h' },
+  ],
+  percent: [{ value: '%', label: '%' }],
+  lambda: [
+    { value: 'lambda', label: 'λ' },
+    { value: 'afr', label: 'AFR' },
+  ],
+  angle: [{ value: '°', label: '°' }],
+  count: [],
+};
+
+/** Whether a unit text is one of the quantity's (so a stated unit can be refused before anything is read). */
+export function isUnitOf(quantity: Quantity, text: string): boolean {
+  if (quantity === 'lambda') return lambdaUnitOf(text) !== null;
+  if (quantity === 'count') return false;
+  return unitConversion(quantity, text, false) !== null;
 }

@@ -21,6 +21,8 @@ export const shopSettingsSchema = z.object({
       partialPedalPct: z.number().min(10).max(90),
       trimRpmBinWidth: z.number().int().min(100).max(2000),
       trimMapBinWidthKpa: z.number().min(2).max(50),
+      trimMafBinWidthGs: z.number().min(1).max(50),
+      bankSplitPct: z.number().min(1).max(30),
       trimMinSamples: z.number().int().min(1).max(1000),
       wotRpmBinWidth: z.number().int().min(100).max(2000),
     })

@@ -13,10 +13,13 @@ import {
 } from '@revloop/db';
 import { DomainError, isDomainError } from '@revloop/domain';
 import {
+  datalogMappingInputSchema,
   detectCsvLayout,
   logRequestSchema,
   mapHeaders,
+  trimCellLoad,
   type AnalyzeOptions,
+  type DatalogMappingInput,
   type DatalogReport,
   type DatalogVehicle,
   type LambdaErrorBin,
@@ -38,6 +41,29 @@ export interface StoredMapping {
   headers: string[];
   /** Channel → header; '' = not logged. Empty when the synonyms' proposal was used as is. */
   overrides: Record<string, string>;
+  /** Channel → unit the user stated (absent in rows written before units could be stated). */
+  units?: Record<string, string>;
+  afrScale?: DatalogMappingInput['afrScale'];
+  trimAxis?: DatalogMappingInput['trimAxis'];
+}
+
+/** The analysis options a stored mapping decides. */
+export function mappingOptions(mapping: StoredMapping): Pick<AnalyzeOptions, 'map' | 'units' | 'afrScale' | 'trimAxis'> {
+  return {
+    map: mapping.overrides,
+    units: mapping.units ?? {},
+    ...(mapping.afrScale && { afrScale: mapping.afrScale }),
+    ...(mapping.trimAxis && { trimAxis: mapping.trimAxis }),
+  };
+}
+
+/** A shop's remembered mapping: the full input since units could be stated, a bare channel → header object before. */
+function parseRemembered(json: string): DatalogMappingInput {
+  const raw: unknown = JSON.parse(json);
+  const full = datalogMappingInputSchema.safeParse(raw);
+  if (full.success) return full.data;
+  const legacy = datalogMappingInputSchema.shape.channels.safeParse(raw);
+  return { channels: legacy.success ? legacy.data : {} };
 }
 
 /** Enough of the file to find the header row, whatever the logger's preamble (see detectCsvLayout). */
@@ -74,18 +100,27 @@ export function logRequestOf(job: JobListRow, spec: VehicleInput): LogRequest {
   return parsed.success ? parsed.data : defaultLogRequest(spec.engine.family, Math.max(1, job.round));
 }
 
-/** The shop's remembered overrides for this header set, then the uploader's own, checked against the headers. */
-export async function resolveOverrides(
+/** The shop's remembered mapping for this header set, then the uploader's own choices, checked against the headers. */
+export async function resolveMapping(
   db: Db,
   shopId: string,
   headers: string[],
   signature: string,
-  own: Record<string, string>,
-): Promise<Record<string, string>> {
-  const remembered = await findDatalogMapping(db, shopId, signature);
-  const overrides = { ...(remembered ? (JSON.parse(remembered.mapping) as Record<string, string>) : {}), ...own };
-  mapHeaders(headers, overrides);
-  return overrides;
+  own: Partial<DatalogMappingInput>,
+): Promise<StoredMapping> {
+  const found = await findDatalogMapping(db, shopId, signature);
+  const remembered = found ? parseRemembered(found.mapping) : undefined;
+  const mapping: StoredMapping = {
+    headers,
+    overrides: { ...remembered?.channels, ...own.channels },
+    units: { ...remembered?.units, ...own.units },
+  };
+  const afrScale = own.afrScale ?? remembered?.afrScale;
+  const trimAxis = own.trimAxis ?? remembered?.trimAxis;
+  if (afrScale) mapping.afrScale = afrScale;
+  if (trimAxis) mapping.trimAxis = trimAxis;
+  mapHeaders(headers, mapping.overrides, mapping.units);
+  return mapping;
 }
 
 /** Per-process analysis runs: progress lives here (0–1), the status in the row. */
@@ -120,7 +155,7 @@ export class DatalogAnalyzer {
     const vehicle = datalogVehicleOf(spec);
     const options: Omit<AnalyzeOptions, 'onProgress'> = {
       fuel: JSON.parse(row.fuel) as FuelSpec,
-      map: mapping.overrides,
+      ...mappingOptions(mapping),
       logRequest: logRequestOf(job, spec),
       settings: parseShopSettings(auth.shop.settings).analysis,
       ...(vehicle && { vehicle }),
@@ -221,8 +256,11 @@ const delta = (a: number | null, b: number | null) => (a === null || b === null 
 
 /** Before/after of two logs of one job: trims per cell and full-throttle lambda error per rpm bin (other − base). */
 export function compareReports(base: DatalogReport, other: DatalogReport) {
-  const baseCells = new Map(base.fuelTrim.cells.map((c) => [`${key(c.rpm)}|${key(c.map)}`, c]));
-  const otherCells = new Map(other.fuelTrim.cells.map((c) => [`${key(c.rpm)}|${key(c.map)}`, c]));
+  // Cells of grids on different load axes (MAP, airflow) never meet: the axis is part of the key.
+  const cellKey = (grid: DatalogReport['fuelTrim'], c: DatalogReport['fuelTrim']['cells'][number]) =>
+    `${grid.axis ?? 'map'}|${key(c.rpm)}|${key(trimCellLoad(c))}`;
+  const baseCells = new Map(base.fuelTrim.cells.map((c) => [cellKey(base.fuelTrim, c), c]));
+  const otherCells = new Map(other.fuelTrim.cells.map((c) => [cellKey(other.fuelTrim, c), c]));
   const cellKeys = [...new Set([...baseCells.keys(), ...otherCells.keys()])];
   const fuelTrim = cellKeys
     .map((k) => {
@@ -231,9 +269,18 @@ export function compareReports(base: DatalogReport, other: DatalogReport) {
       const cell = (a ?? b)!;
       const baseTrimPct = a?.meanTrimPct ?? null;
       const otherTrimPct = b?.meanTrimPct ?? null;
-      return { rpm: cell.rpm, map: cell.map, baseTrimPct, otherTrimPct, deltaPct: delta(baseTrimPct, otherTrimPct) };
+      return {
+        rpm: cell.rpm,
+        axis: cell.maf ? ('maf' as const) : ('map' as const),
+        // `map` stays filled for readers that know only the MAP grid; on the airflow axis it holds the g/s bin.
+        map: trimCellLoad(cell),
+        ...(cell.maf && { maf: cell.maf }),
+        baseTrimPct,
+        otherTrimPct,
+        deltaPct: delta(baseTrimPct, otherTrimPct),
+      };
     })
-    .sort((x, y) => x.rpm[0] - y.rpm[0] || x.map[0] - y.map[0]);
+    .sort((x, y) => x.rpm[0] - y.rpm[0] || trimCellLoad(x)[0] - trimCellLoad(y)[0]);
   const baseBins = pooledLambdaError(base);
   const otherBins = pooledLambdaError(other);
   const lambdaError = [...new Set([...baseBins.keys(), ...otherBins.keys()])]

@@ -248,6 +248,47 @@ describe('header mapping', () => {
     expect(elsewhere.report.channels.rpm).toBeUndefined();
   });
 
+  it('keeps stated units and the AFR scale, and remembers them with the columns', async () => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const job = customerJob('log_review');
+    const psiHeaders = drive.replace('Intake manifold absolute pressure (kPa)', 'Manifold P');
+    const log = await settled(owner, (await upload(owner, job.id, psiHeaders, 'psi.csv')).body.data.id);
+    const mapping = (await owner.get(`/api/datalogs/${log.id}/mapping`)).body.data;
+    expect(mapping.canonical.find((c: { channel: string }) => c.channel === 'map').unitChoices).toContainEqual({ value: 'psia', label: 'psi absolute' });
+    expect(mapping).toMatchObject({ stated: {}, afrScale: null });
+
+    const put = await owner
+      .put(`/api/datalogs/${log.id}/mapping`)
+      .send({ channels: { map: 'Manifold P' }, units: { map: 'kPa abs', rpm: '' }, afrScale: 'gasoline' });
+    expect(put.status).toBe(200);
+    const again = await settled(owner, log.id);
+    expect(again.report.units.map).toBe('kPa (stated)');
+    expect(again.report.afrScale).toMatchObject({ scale: 'gasoline', stated: true });
+    expect((await owner.get(`/api/datalogs/${log.id}/mapping`)).body.data).toMatchObject({ stated: { map: 'kPa abs' }, afrScale: 'gasoline' });
+
+    const next = await settled(owner, (await upload(owner, job.id, psiHeaders, 'psi-2.csv')).body.data.id);
+    expect(next.report.units.map).toBe('kPa (stated)');
+    expect(next.report.afrScale.stated).toBe(true);
+
+    const bad = await owner.put(`/api/datalogs/${log.id}/mapping`).send({ channels: {}, units: { map: '°F' } });
+    expect(bad.status).toBe(400);
+    const badScale = await owner.put(`/api/datalogs/${log.id}/mapping`).send({ channels: {}, afrScale: 'petrol' });
+    expect(badScale.status).toBe(400);
+  });
+
+  it('takes stated units with the upload', async () => {
+    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const res = await owner
+      .post(`/api/jobs/${customerJob('log_review').id}/datalogs`)
+      .attach('file', Buffer.from(drive.replace('Intake manifold absolute pressure (kPa)', 'Manifold Q')), 'q.csv')
+      .field('map', JSON.stringify({ map: 'Manifold Q' }))
+      .field('units', JSON.stringify({ map: 'kPa abs' }));
+    expect(res.status).toBe(202);
+    const log = await settled(owner, res.body.data.id);
+    expect(log.report.units.map).toBe('kPa (stated)');
+    expect(log.report.unmapped).toEqual([]);
+  });
+
   it('refuses a mapping that names a column the log does not have', async () => {
     const owner = await signIn(t.app, 'owner@kestrel.test');
     const log = await settled(owner, (await upload(owner, customerJob('log_review').id, drive)).body.data.id);

@@ -2,7 +2,17 @@ import { Router, type RequestHandler } from 'express';
 import { z } from 'zod';
 import { findDatalogMapping, insertDatalog, listJobDatalogs, newId, saveDatalogMapping, updateDatalog } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
-import { CANONICAL_CHANNELS, CHANNEL_INFO, headerSignature, mapHeaders, trimGridToCsv, wotTableToCsv, type CanonicalChannel } from '@revloop/domain/datalog';
+import {
+  CANONICAL_CHANNELS,
+  CHANNEL_INFO,
+  UNIT_CHOICES,
+  datalogMappingInputSchema,
+  headerSignature,
+  mapHeaders,
+  trimGridToCsv,
+  wotTableToCsv,
+  type CanonicalChannel,
+} from '@revloop/domain/datalog';
 import type { JobState } from '@revloop/domain/jobs';
 import { safeUploadName } from '@revloop/domain/calibration';
 import { parseShopSettings } from '@revloop/domain/shops';
@@ -18,9 +28,10 @@ import {
   datalogRowToDatalog,
   fuelOf,
   loadDatalog,
+  mappingOptions,
   readLogHeaders,
   readyReport,
-  resolveOverrides,
+  resolveMapping,
   vehicleSpecOf,
   type StoredMapping,
 } from './datalog.service';
@@ -29,23 +40,27 @@ import { SeriesCache, downsampleChannel } from './datalog-series';
 /** A finished or cancelled job keeps its logs but takes no new ones. */
 const CLOSED_STATES: readonly JobState[] = ['dialed_in', 'cancelled'];
 
-const overridesSchema = z.record(z.string().min(1).max(40), z.string().max(200));
-const uploadFieldsSchema = z.object({
-  map: z
+/** A JSON text field of a multipart upload, parsed with its schema; empty means "not given". */
+const jsonField = <T extends z.ZodType>(schema: T, what: string) =>
+  z
     .string()
     .max(8000)
     .optional()
-    .transform((text, ctx) => {
-      if (text === undefined || text.trim() === '') return {};
+    .transform((text, ctx): z.infer<T> | undefined => {
+      if (text === undefined || text.trim() === '') return undefined;
       try {
-        return overridesSchema.parse(JSON.parse(text));
+        return schema.parse(JSON.parse(text));
       } catch {
-        ctx.addIssue({ code: 'custom', message: 'map must be a JSON object of channel → column header.' });
+        ctx.addIssue({ code: 'custom', message: what });
         return z.NEVER;
       }
-    }),
+    });
+const uploadFieldsSchema = z.object({
+  map: jsonField(datalogMappingInputSchema.shape.channels, 'map must be a JSON object of channel → column header.'),
+  units: jsonField(datalogMappingInputSchema.shape.channels, 'units must be a JSON object of channel → unit, such as {"map":"psia"}.'),
+  afrScale: datalogMappingInputSchema.shape.afrScale,
+  trimAxis: datalogMappingInputSchema.shape.trimAxis,
 });
-const mappingInputSchema = z.object({ channels: overridesSchema });
 
 const channelList = z
   .string()
@@ -87,15 +102,19 @@ export function createDatalogsRouter(deps: AppDeps): Router {
       const temp = req.file?.path;
       try {
         if (!req.file || !temp) throw new DomainError('validation', 'Choose a CSV log file to upload (form field "file").');
-        const { map } = parseInput(uploadFieldsSchema, req.body ?? {});
+        const fields = parseInput(uploadFieldsSchema, req.body ?? {});
         // Browsers send the name as raw UTF-8 while multer reads it as Latin-1; the bytes convert back losslessly.
         const originalName = safeUploadName(Buffer.from(req.file.originalname, 'latin1').toString('utf8')).slice(0, 200);
         const headers = await readLogHeaders(temp);
         const signature = headerSignature(headers);
-        const overrides = await resolveOverrides(db, auth.shop.id, headers, signature, map);
+        const mapping = await resolveMapping(db, auth.shop.id, headers, signature, {
+          ...(fields.map && { channels: fields.map }),
+          ...(fields.units && { units: fields.units }),
+          ...(fields.afrScale && { afrScale: fields.afrScale }),
+          ...(fields.trimAxis && { trimAxis: fields.trimAxis }),
+        });
         const spec = await vehicleSpecOf(db, job);
         const blob = await blobs.adopt(temp);
-        const mapping: StoredMapping = { headers, overrides };
         const row = await insertDatalog(db, {
           id: newId(),
           shop_id: auth.shop.id,
@@ -161,7 +180,7 @@ export function createDatalogsRouter(deps: AppDeps): Router {
     const mapping = JSON.parse(row.mapping) as StoredMapping;
     const columns = await seriesCache.get(`${row.sha256}|${row.mapping}|${row.fuel}`, {
       filePath: blobs.pathOf(row.sha256),
-      options: { map: mapping.overrides, fuel: JSON.parse(row.fuel) },
+      options: { ...mappingOptions(mapping), fuel: JSON.parse(row.fuel) },
     });
     const from = q.from ?? 0;
     const to = q.to ?? report.durationS;
@@ -185,13 +204,24 @@ export function createDatalogsRouter(deps: AppDeps): Router {
     const auth = requireShop(req);
     const { row } = await loadDatalog(db, auth, req.params.id);
     const stored = JSON.parse(row.mapping) as StoredMapping;
-    const proposal = mapHeaders(stored.headers, stored.overrides);
+    const proposal = mapHeaders(stored.headers, stored.overrides, stored.units ?? {});
     const remembered = await findDatalogMapping(db, auth.shop.id, row.header_signature);
     res.json({
       data: {
         headers: stored.headers,
         channels: Object.fromEntries(Object.entries(proposal.channels).map(([c, m]) => [c, m.header])),
-        canonical: CANONICAL_CHANNELS.map((channel) => ({ channel, label: CHANNEL_INFO[channel].label, unit: CHANNEL_INFO[channel].unit })),
+        // The unit each column is read in now: stated, or read from its header (null = the channel's own unit).
+        units: Object.fromEntries(Object.entries(proposal.channels).map(([c, m]) => [c, m.unitText])),
+        stated: stored.units ?? {},
+        afrScale: stored.afrScale ?? null,
+        trimAxis: stored.trimAxis ?? null,
+        unmapped: proposal.unmapped,
+        canonical: CANONICAL_CHANNELS.map((channel) => ({
+          channel,
+          label: CHANNEL_INFO[channel].label,
+          unit: CHANNEL_INFO[channel].unit,
+          unitChoices: UNIT_CHOICES[CHANNEL_INFO[channel].quantity],
+        })),
         remembered: remembered !== undefined,
       },
     });
@@ -202,12 +232,19 @@ export function createDatalogsRouter(deps: AppDeps): Router {
     const { row, job } = await loadDatalog(db, auth, req.params.id);
     authorizeRow(auth, 'upload', 'Job', jobSubject(job));
     if (row.status === 'processing') throw new DomainError('conflict', 'This log is still being checked. Try again in a moment.');
-    const { channels } = parseInput(mappingInputSchema, req.body);
+    const input = parseInput(datalogMappingInputSchema, req.body);
     const stored = JSON.parse(row.mapping) as StoredMapping;
-    mapHeaders(stored.headers, channels);
-    const mapping: StoredMapping = { headers: stored.headers, overrides: channels };
+    const units = Object.fromEntries(Object.entries(input.units ?? {}).filter(([, unit]) => unit.trim() !== ''));
+    mapHeaders(stored.headers, input.channels, units);
+    const mapping: StoredMapping = {
+      headers: stored.headers,
+      overrides: input.channels,
+      units,
+      ...(input.afrScale && { afrScale: input.afrScale }),
+      ...(input.trimAxis && { trimAxis: input.trimAxis }),
+    };
     const at = clock.now().toISOString();
-    await saveDatalogMapping(db, { shop_id: auth.shop.id, header_signature: row.header_signature, mapping: JSON.stringify(channels), updated_at: at });
+    await saveDatalogMapping(db, { shop_id: auth.shop.id, header_signature: row.header_signature, mapping: JSON.stringify({ ...input, units }), updated_at: at });
     const updated = (await updateDatalog(db, auth.shop.id, row.id, { mapping: JSON.stringify(mapping), status: 'processing', error: null, report: null }))!;
     await recordAudit(db, {
       shopId: auth.shop.id,

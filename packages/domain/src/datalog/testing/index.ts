@@ -1,1 +1,2 @@
 export * from './generate-log';
+export * from './awkward-logs';

@@ -1,15 +1,15 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { DatalogMappingInput } from '@revloop/domain/datalog';
 import { apiRequest, type ItemResponse } from '../../../lib/api-client';
 import { datalogsRootKey, type Datalog } from './get-datalog';
 
-export interface UpdateDatalogMappingInput {
+/** Channel → header for every channel (an empty header means "not logged"), stated units, AFR scale and trim axis. */
+export interface UpdateDatalogMappingInput extends DatalogMappingInput {
   datalogId: string;
-  /** Channel → header for every channel; an empty header means "not logged". */
-  channels: Record<string, string>;
 }
 
-export const updateDatalogMapping = ({ datalogId, channels }: UpdateDatalogMappingInput) =>
-  apiRequest<ItemResponse<Datalog>>('PUT', `/api/datalogs/${encodeURIComponent(datalogId)}/mapping`, { channels });
+export const updateDatalogMapping = ({ datalogId, ...input }: UpdateDatalogMappingInput) =>
+  apiRequest<ItemResponse<Datalog>>('PUT', `/api/datalogs/${encodeURIComponent(datalogId)}/mapping`, input);
 
 /** Confirms or fixes the mapping: the server re-analyses the log and remembers the choice for the shop. */
 export function useUpdateDatalogMapping() {

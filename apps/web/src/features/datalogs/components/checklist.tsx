@@ -7,6 +7,8 @@ const CHECK_TITLES: Record<CheckId, string> = {
   full_throttle: 'Full throttle',
   wot_gears: 'Full-throttle gears',
   sensor_sanity: 'Sensors',
+  afr_scale: 'Air-fuel ratio scale',
+  bank_split: 'Bank 1 against bank 2',
 };
 
 // Word and shape as well as colour, so the result never rests on colour alone.

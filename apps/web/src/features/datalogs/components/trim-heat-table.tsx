@@ -1,4 +1,6 @@
-import type { FuelTrimGrid } from '@revloop/domain/datalog';
+import { useState } from 'react';
+import { trimAxisLabel, trimCellLoad, type FuelTrimCell, type FuelTrimGrid } from '@revloop/domain/datalog';
+import { Select } from '../../../components/ui/select';
 
 /**
  * ColorBrewer "RdBu" 11-class diverging scheme (Cynthia Brewer, colorbrewer2.org, marked colour-blind safe there),
@@ -18,27 +20,51 @@ export function trimColour(trimPct: number): { background: string; text: string 
 
 const fmt = (v: number) => `${v > 0 ? '+' : ''}${v.toFixed(1)}`;
 
-/** Mean fuel trim per rpm × MAP cell as a heat table; each cell also prints its number, so colour is never the only cue. */
+type TrimView = 'mean' | 'bank1' | 'bank2' | 'split';
+
+const VIEWS: { value: TrimView; label: string }[] = [
+  { value: 'mean', label: 'Banks averaged' },
+  { value: 'bank1', label: 'Bank 1' },
+  { value: 'bank2', label: 'Bank 2' },
+  { value: 'split', label: 'Bank 1 − bank 2' },
+];
+
+const valueOf = (cell: FuelTrimCell, view: TrimView): number | undefined =>
+  view === 'mean' ? cell.meanTrimPct : view === 'bank1' ? cell.bank1TrimPct : view === 'bank2' ? cell.bank2TrimPct : cell.bankSplitPct;
+
+/** Mean fuel trim per rpm × MAP (or airflow) cell as a heat table; each cell also prints its number, so colour is never the only cue. */
 export function TrimHeatTable({ grid }: { grid: FuelTrimGrid }) {
+  const [view, setView] = useState<TrimView>('mean');
   if (grid.cells.length === 0) {
     return <p className="text-sm text-ink-600">No cell had enough warm closed-loop samples to show a trim.</p>;
   }
+  const axis = grid.axis ?? 'map';
+  const loadAxis = axis === 'map' ? grid.mapAxis : grid.mafAxis;
   const first = grid.cells[0]!;
-  const mapWidth = first.map[1] - first.map[0];
+  const [loadLo, loadHi] = trimCellLoad(first);
+  const loadWidth = loadHi - loadLo;
   const rpmWidth = first.rpm[1] - first.rpm[0];
-  const byCell = new Map(grid.cells.map((c) => [`${c.rpm[0]}:${c.map[0]}`, c]));
+  const byCell = new Map(grid.cells.map((c) => [`${c.rpm[0]}:${trimCellLoad(c)[0]}`, c]));
+  const twoBanks = grid.cells.some((c) => c.bankSplitPct !== undefined);
+  const loadName = axis === 'map' ? 'manifold pressure' : 'airflow';
   return (
     <div className="flex flex-col gap-3">
+      {twoBanks && (
+        <label className="flex items-center gap-2 text-sm text-ink-800">
+          Show
+          <Select className="w-auto" options={VIEWS} value={view} onChange={(e) => setView(e.target.value as TrimView)} />
+        </label>
+      )}
       <div className="overflow-x-auto">
-        <table className="border-collapse text-xs" aria-label="Mean fuel trim by engine speed and manifold pressure">
+        <table className="border-collapse text-xs" aria-label={`${view === 'mean' ? 'Mean' : (VIEWS.find((v) => v.value === view)?.label ?? '')} fuel trim by engine speed and ${loadName}`}>
           <thead>
             <tr>
               <th scope="col" className="px-2 py-1 text-left font-medium text-ink-600">
-                rpm \ MAP kPa
+                rpm \ {trimAxisLabel(axis)}
               </th>
-              {grid.mapAxis.map((m) => (
+              {loadAxis.map((m) => (
                 <th key={m} scope="col" className="px-2 py-1 font-medium text-ink-600">
-                  {m}–{m + mapWidth}
+                  {m}–{+(m + loadWidth).toFixed(3)}
                 </th>
               ))}
             </tr>
@@ -49,18 +75,20 @@ export function TrimHeatTable({ grid }: { grid: FuelTrimGrid }) {
                 <th scope="row" className="px-2 py-1 text-left font-medium whitespace-nowrap text-ink-600">
                   {r}–{r + rpmWidth}
                 </th>
-                {grid.mapAxis.map((m) => {
+                {loadAxis.map((m) => {
                   const cell = byCell.get(`${r}:${m}`);
-                  if (!cell) return <td key={m} className="border border-white bg-ink-50 px-2 py-1 text-center text-ink-400">·</td>;
-                  const colour = trimColour(cell.meanTrimPct);
+                  const value = cell && valueOf(cell, view);
+                  if (!cell || value === undefined) return <td key={m} className="border border-white bg-ink-50 px-2 py-1 text-center text-ink-400">·</td>;
+                  const colour = trimColour(value);
+                  const banks = cell.bank1TrimPct !== undefined && cell.bank2TrimPct !== undefined ? `; bank 1 ${fmt(cell.bank1TrimPct)} %, bank 2 ${fmt(cell.bank2TrimPct)} %` : '';
                   return (
                     <td
                       key={m}
                       className="border border-white px-2 py-1 text-center tabular-nums"
                       style={{ background: colour.background, color: colour.text }}
-                      title={`${cell.samples} samples; mean trim ${fmt(cell.meanTrimPct)} %, correction ${fmt(cell.correctionPct)} %`}
+                      title={`${cell.samples} samples; mean trim ${fmt(cell.meanTrimPct)} %, correction ${fmt(cell.correctionPct)} %${banks}`}
                     >
-                      {fmt(cell.meanTrimPct)}
+                      {fmt(value)}
                     </td>
                   );
                 })}

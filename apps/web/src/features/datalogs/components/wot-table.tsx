@@ -10,7 +10,7 @@ export function WotTable({ pulls }: { pulls: WotPull[] }) {
       {pulls.map((pull, i) => (
         <div key={pull.startS}>
           <p className="mb-1 text-sm text-ink-800">
-            <strong>Pull {i + 1}</strong> at {pull.startS.toFixed(1)}–{pull.endS.toFixed(1)} s, {pull.gears.length > 0 ? `gear ${pull.gears.join(' → ')}` : 'gear unknown'},{' '}
+            <strong>Pull {i + 1}</strong> at {pull.startS.toFixed(1)}–{pull.endS.toFixed(1)} s, {pull.gears.length > 0 ? `gear ${pull.gears.join(' → ')}` : pull.gearsHeld ? `${pull.gearsHeld} gear${pull.gearsHeld === 1 ? '' : 's'} held` : 'gear unknown'},{' '}
             {Math.round(pull.rpmStart)}–{Math.round(pull.rpmEnd)} rpm, pedal up to {Math.round(pull.maxPedalPct)} %
           </p>
           <table className="w-full max-w-xl text-sm">
@@ -28,7 +28,7 @@ export function WotTable({ pulls }: { pulls: WotPull[] }) {
                   <td className="py-1">{bin.rpm[0]}–{bin.rpm[1]}</td>
                   <td className="py-1">{bin.samples}</td>
                   <td className="py-1">{signed(bin.meanErrorPct)}</td>
-                  <td className="py-1">{signed(bin.fuelCorrectionPct)}</td>
+                  <td className="py-1">{bin.fuelCorrectionPct === null ? 'held back' : signed(bin.fuelCorrectionPct)}</td>
                 </tr>
               ))}
             </tbody>

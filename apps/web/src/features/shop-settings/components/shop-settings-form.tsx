@@ -20,7 +20,9 @@ const THRESHOLDS = [
   { key: 'partialPedalPct', label: 'Half-pressed pedal above (%)', hint: 'A sustained pedal above this that never reaches full throttle fails the pull.' },
   { key: 'trimRpmBinWidth', label: 'Trim grid rpm step', hint: 'Width of each fuel-trim cell in rpm.' },
   { key: 'trimMapBinWidthKpa', label: 'Trim grid MAP step (kPa)', hint: 'Height of each fuel-trim cell in kPa.' },
+  { key: 'trimMafBinWidthGs', label: 'Trim grid airflow step (g/s)', hint: 'Height of each fuel-trim cell when the grid is by mass airflow.' },
   { key: 'trimMinSamples', label: 'Samples per trim cell', hint: 'Fewer samples than this leave a cell out as noise.' },
+  { key: 'bankSplitPct', label: 'Bank split above (%)', hint: 'Bank 1 and bank 2 trims of a cell further apart than this are flagged (common practice: 5 %).' },
   { key: 'wotRpmBinWidth', label: 'Full-throttle rpm step', hint: 'Width of each rpm bin in the full-throttle table.' },
 ] as const;
 

@@ -22,7 +22,7 @@ import { isApiError } from '../../../../lib/api-client';
 import { errorMessage } from '../../../../lib/form-errors';
 import { formatDateTime } from '../../../../lib/format';
 
-function ReportBody({ log, report }: { log: DatalogDetail; report: DatalogReport }) {
+function ReportBody({ log, report, onFixColumns }: { log: DatalogDetail; report: DatalogReport; onFixColumns: () => void }) {
   const jobLogs = useJobDatalogs(log.jobId);
   const summary = checksSummary(report.checks);
   const available = (Object.keys(report.channels) as CanonicalChannel[])
@@ -34,6 +34,16 @@ function ReportBody({ log, report }: { log: DatalogDetail; report: DatalogReport
       <Card title="Checks" description="Whether the log is usable, in plain words.">
         <div className="flex flex-col gap-3">
           <Banner tone={summary.tone}>{summary.text}</Banner>
+          {report.afrScale?.correctionsWithheld && (
+            <Banner tone="warn" title="Full-throttle fuel corrections are held back">
+              <span className="flex flex-col items-start gap-2">
+                {report.afrScale.reason} Confirm which scale the wideband writes before changing fuel.
+                <Button size="sm" variant="secondary" onClick={onFixColumns}>
+                  Confirm the AFR scale
+                </Button>
+              </span>
+            </Banner>
+          )}
           <Checklist checks={report.checks} />
           {report.notes.length > 0 && (
             <div className="text-sm text-ink-700">
@@ -45,10 +55,15 @@ function ReportBody({ log, report }: { log: DatalogDetail; report: DatalogReport
               </ul>
             </div>
           )}
+          {(report.unmapped?.length ?? 0) > 0 && (
+            <p className="text-sm text-ink-700">
+              <span className="font-medium">Columns left unread:</span> {report.unmapped.join(', ')}. Map one under “Confirm or fix columns” if it holds a channel.
+            </p>
+          )}
         </div>
       </Card>
       <Card
-        title="Fuel trim by engine speed and manifold pressure"
+        title={`Fuel trim by engine speed and ${report.fuelTrim.axis === 'maf' ? 'airflow' : 'manifold pressure'}`}
         description="Warm, closed-loop samples only; cells with too few samples stay blank."
         actions={
           <a className={buttonClasses('secondary', 'sm')} href={datalogExportHref(log.id, 'trims')} download>
@@ -121,7 +136,7 @@ function ReportScreen({ datalogId }: { datalogId: string }) {
           {log.error} If a column was taken for the wrong channel, fix the columns; otherwise export the log again as CSV.
         </Banner>
       )}
-      {log.status === 'ready' && log.report && <ReportBody log={log} report={log.report} />}
+      {log.status === 'ready' && log.report && <ReportBody log={log} report={log.report} onFixColumns={() => setMappingOpen(true)} />}
       <MappingDialog datalogId={log.id} open={mappingOpen} onClose={() => setMappingOpen(false)} />
     </>
   );
