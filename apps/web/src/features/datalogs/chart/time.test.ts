@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { binEdges, binOf, formatClock, pullAlignment, valueAt } from './time';
+import { binEdges, binOf, formatClock, pullAlignment, timeTicks, valueAt } from './time';
 
 describe('formatClock', () => {
   it('writes seconds as m:ss, the minutes and seconds of an ISO 8601 time of day', () => {
@@ -63,5 +63,15 @@ describe('binEdges and binOf', () => {
     expect(binEdges([4, 4], 7)).toEqual([4, 4]);
     expect(binOf(4, [4, 4])).toBe(0);
     expect(binEdges([], 7)).toEqual([]);
+  });
+});
+
+describe('timeTicks', () => {
+  it('puts ticks on round clock steps', () => {
+    // [CALC] 0–418 s in at most 8 ticks: 60 s steps (30 s would make 14).
+    expect(timeTicks(0, 418)).toEqual([0, 60, 120, 180, 240, 300, 360]);
+    // An aligned overlay from 5 s before the pull to 10 s after it: 2 s steps, through 0.
+    expect(timeTicks(-5, 10)).toEqual([-4, -2, 0, 2, 4, 6, 8, 10]);
+    expect(timeTicks(3, 3)).toEqual([3]);
   });
 });

@@ -74,3 +74,14 @@ export function binOf(value: number, edges: readonly number[]): number {
   for (let i = 0; i < last; i++) if (value < (edges[i + 1] as number)) return i;
   return last;
 }
+
+const TICK_STEPS_S = [0.5, 1, 2, 5, 10, 15, 30, 60, 120, 300, 600, 900, 1800, 3600];
+
+/** Time-axis ticks on round clock steps (1 s, 5 s, 30 s, 1 min, 5 min …), about `target` of them over the span. */
+export function timeTicks(from: number, to: number, target = 8): number[] {
+  if (!(to > from)) return [from];
+  const step = TICK_STEPS_S.find((s) => (to - from) / s <= target) ?? TICK_STEPS_S[TICK_STEPS_S.length - 1]!;
+  const ticks: number[] = [];
+  for (let t = Math.ceil(from / step) * step; t <= to + 1e-9; t += step) ticks.push(Math.round(t * 1000) / 1000);
+  return ticks;
+}

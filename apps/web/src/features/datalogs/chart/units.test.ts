@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { axisLabel, formatChange, formatNumber, formatValue, groupByUnit } from './units';
+import { axisLabel, formatChange, formatNumber, formatValue, groupByUnit, withUnit } from './units';
 
 describe('formatValue', () => {
   it('writes each unit at the precision a tuner reads it', () => {
@@ -62,5 +62,13 @@ describe('formatChange', () => {
     expect(formatChange(0.0204, 'λ')).toBe('+0.020');
     expect(formatChange(0.01, 'rpm')).toBe('±0 rpm');
     expect(formatChange(null, 'rpm')).toBe('—');
+  });
+});
+
+describe('withUnit', () => {
+  it('names a channel with its unit once', () => {
+    expect(withUnit('engine speed', 'rpm')).toBe('engine speed (rpm)');
+    expect(withUnit('measured lambda (wideband air-fuel ratio)', 'λ')).toBe('measured lambda (wideband air-fuel ratio), λ');
+    expect(withUnit('gear', '')).toBe('gear');
   });
 });

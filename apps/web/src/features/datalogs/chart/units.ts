@@ -50,6 +50,12 @@ export function formatChange(delta: number | null, unit: string): string {
   return `${sign}${formatValue(Math.abs(delta), unit)}`;
 }
 
+/** "engine speed (rpm)"; a label that already ends in brackets takes the unit after a comma; gear has none. */
+export function withUnit(label: string, unit: string): string {
+  if (unit === '') return label;
+  return label.endsWith(')') ? `${label}, ${unit}` : `${label} (${unit})`;
+}
+
 /** The y-axis title of a unit group; gear has no unit, so its axis is named for the channel. */
 export const axisLabel = (unit: string) => (unit === '' ? 'gear' : unit);
 

@@ -11,6 +11,7 @@ import type { ChannelChoice, ChartLine, Stretch } from '../chart/lines';
 import { lineColour } from '../chart/palette';
 import { marksOf, pullLabel } from '../chart/marks';
 import { formatClock } from '../chart/time';
+import { withUnit } from '../chart/units';
 import { LogOverlay } from './log-overlay';
 import { LogScatter } from './log-scatter';
 import { TimeChart } from './time-chart';
@@ -58,8 +59,7 @@ function ChannelPicker({ available, picked, onToggle }: { available: ChannelChoi
               disabled={!picked.includes(channel) && picked.length >= MAX_CHANNELS}
               onChange={() => onToggle(channel)}
             />
-            {label}
-            {unit && <span className="text-ink-600">({unit})</span>}
+            {withUnit(label, unit)}
           </label>
         ))}
       </div>

@@ -10,13 +10,13 @@ import type { ChannelChoice, Stretch } from '../chart/lines';
 import { pullLabel } from '../chart/marks';
 import { LINE_COLOURS, VIRIDIS_7 } from '../chart/palette';
 import { binEdges, binOf, formatClock } from '../chart/time';
-import { axisLabel, formatNumber, formatValue } from '../chart/units';
+import { formatNumber, formatValue, withUnit } from '../chart/units';
 
 /** A channel of the log, or λ error worked out row by row from measured and commanded λ. */
 type Axis = CanonicalChannel | 'lambda_error';
 const LAMBDA_ERROR: ChannelChoice & { needs: CanonicalChannel[] } = {
   channel: 'lambda_meas',
-  label: 'λ error, measured against commanded (+ lean)',
+  label: 'λ error (+ lean)',
   unit: '%',
   needs: ['lambda_meas', 'lambda_cmd'],
 };
@@ -90,7 +90,7 @@ export function LogScatter({ datalogId, report, available, stretch }: { datalogI
   const xi = info(x);
   const yi = info(y);
   const ci = colour === 'none' ? null : info(colour);
-  const options = axes.map((a) => ({ value: a, label: `${info(a).label}${info(a).unit ? ` (${info(a).unit})` : ''}` }));
+  const options = axes.map((a) => ({ value: a, label: withUnit(info(a).label, info(a).unit) }));
   const title = `${yi.label} against ${xi.label}${ci ? `, coloured by ${ci.label}` : ''}`;
 
   return (
@@ -146,7 +146,7 @@ export function LogScatter({ datalogId, report, available, stretch }: { datalogI
                   tick={{ fill: INK, fontSize: 12 }}
                   tickFormatter={(v: number) => formatNumber(v, xi.unit)}
                   height={44}
-                  label={{ value: `${xi.label} (${axisLabel(xi.unit)})`, position: 'insideBottom', fill: INK, fontSize: 12 }}
+                  label={{ value: withUnit(xi.label, xi.unit), position: 'insideBottom', fill: INK, fontSize: 12 }}
                 />
                 <YAxis
                   type="number"
@@ -156,7 +156,7 @@ export function LogScatter({ datalogId, report, available, stretch }: { datalogI
                   width={64}
                   tick={{ fill: INK, fontSize: 12 }}
                   tickFormatter={(v: number) => formatNumber(v, yi.unit)}
-                  label={{ value: axisLabel(yi.unit), angle: -90, position: 'insideLeft', fill: INK, fontSize: 13, fontWeight: 600 }}
+                  label={{ value: withUnit(yi.label, yi.unit), angle: -90, position: 'insideLeft', fill: INK, fontSize: 12 }}
                 />
                 <ZAxis range={[14, 14]} />
                 <Tooltip
@@ -185,8 +185,7 @@ export function LogScatter({ datalogId, report, available, stretch }: { datalogI
         {ci && edges.length > 0 && (
           <div className="text-sm text-ink-700">
             <p id={`${datalogId}-colour-scale`} className="font-medium text-ink-800">
-              Colour: {ci.label}
-              {ci.unit && ` (${axisLabel(ci.unit)})`} — viridis scale, low (dark) to high (light)
+              Colour: {withUnit(ci.label, ci.unit)} — viridis scale, low (dark) to high (light)
             </p>
             <ul aria-labelledby={`${datalogId}-colour-scale`} className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
               {bins.map((bin) => (

@@ -3,8 +3,8 @@ import { Brush, CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, Re
 import { mergeRows, type ChartLine } from '../chart/lines';
 import type { TimeMarks } from '../chart/marks';
 import { KNOCK_STROKE, PULL_FILL } from '../chart/palette';
-import { formatClock, valueAt } from '../chart/time';
-import { axisLabel, formatChange, formatNumber, formatValue, groupByUnit } from '../chart/units';
+import { formatClock, timeTicks, valueAt } from '../chart/time';
+import { axisLabel, formatChange, formatNumber, formatValue, groupByUnit, withUnit } from '../chart/units';
 
 interface TimeChartProps {
   title: string;
@@ -43,6 +43,7 @@ export function TimeChart({ title, lines, domain, xLabel, marks, cursor, onCurso
   const span = domain[1] - domain[0];
   const step = span > 600 ? 1 : 0.1;
   const sources = [...new Set(lines.map((l) => l.source))];
+  const channels = [...new Map(lines.map((l) => [l.channel, l])).values()];
 
   return (
     <figure className="flex min-w-0 flex-col gap-3">
@@ -54,7 +55,7 @@ export function TimeChart({ title, lines, domain, xLabel, marks, cursor, onCurso
         aria-label={`${title}. On a narrow screen the chart scrolls sideways.`}
         className="overflow-x-auto rounded-md focus-visible:outline-2 focus-visible:outline-accent-600"
       >
-        <div className="h-[26rem] min-w-[40rem]">
+        <div className="h-[26rem] min-w-[34rem]">
           <ResponsiveContainer width="100%" height="100%">
             <LineChart
               data={rows}
@@ -70,6 +71,7 @@ export function TimeChart({ title, lines, domain, xLabel, marks, cursor, onCurso
                 type="number"
                 domain={domain}
                 allowDataOverflow
+                ticks={timeTicks(domain[0], domain[1])}
                 tickFormatter={(t: number) => formatClock(t)}
                 tick={{ fill: INK, fontSize: 12 }}
                 height={44}
@@ -158,14 +160,19 @@ export function TimeChart({ title, lines, domain, xLabel, marks, cursor, onCurso
       </div>
 
       <ul aria-label="Legend" className="flex flex-wrap gap-x-5 gap-y-1.5 text-sm text-ink-700">
-        {lines.map((line) => (
-          <li key={line.key} className="inline-flex items-center gap-1.5">
-            <LineSwatch colour={line.colour} dashed={line.dashed} />
-            <span>
-              {line.label} ({axisLabel(line.unit)}){sources.length > 1 && <span className="text-ink-600"> — {line.source}</span>}
-            </span>
+        {channels.map((line) => (
+          <li key={line.channel} className="inline-flex items-center gap-1.5">
+            <LineSwatch colour={line.colour} dashed={false} />
+            {withUnit(line.label, line.unit)}
           </li>
         ))}
+        {sources.length > 1 &&
+          sources.map((source, i) => (
+            <li key={source} className="inline-flex items-center gap-1.5">
+              <LineSwatch colour={INK} dashed={i > 0} />
+              {source}
+            </li>
+          ))}
         {marks.pulls.length > 0 && (
           <li className="inline-flex items-center gap-1.5">
             <span aria-hidden="true" className="inline-block h-3 w-7 rounded-sm" style={{ background: PULL_FILL, opacity: 0.35 }} />
@@ -245,12 +252,12 @@ function CursorReadout({ lines, sources, cursor }: { lines: ChartLine[]; sources
                   </span>
                 </th>
                 {values.map((value, i) => (
-                  <td key={sources[i]} className="py-1 pr-3 text-right">
+                  <td key={sources[i]} className="py-1 pr-3 text-right whitespace-nowrap">
                     {formatValue(value, line.unit)}
                   </td>
                 ))}
                 {two && (
-                  <td className="py-1 text-right">
+                  <td className="py-1 text-right whitespace-nowrap">
                     {formatChange(a === null || a === undefined || b === null || b === undefined ? null : a - b, line.unit)}
                   </td>
                 )}
