@@ -68,11 +68,11 @@ function ChannelPicker({ available, picked, onToggle }: { available: ChannelChoi
 }
 
 /** What the time view shows: the whole log, a pull with a little either side, or a zoomed stretch. */
-export type Shown = { kind: 'all' } | { kind: 'pull'; index: number } | { kind: 'zoom'; from: number; to: number };
+type Shown = { kind: 'all' } | { kind: 'pull'; index: number } | { kind: 'zoom'; from: number; to: number };
 
 const PULL_MARGIN_S = 3;
 
-export function windowOf(shown: Shown, report: DatalogReport): Stretch | null {
+function windowOf(shown: Shown, report: DatalogReport): Stretch | null {
   if (shown.kind === 'zoom') return { from: shown.from, to: shown.to };
   const pull = shown.kind === 'pull' ? report.wot.pulls[shown.index] : undefined;
   return pull ? { from: Math.max(0, pull.startS - PULL_MARGIN_S), to: Math.min(report.durationS, pull.endS + PULL_MARGIN_S) } : null;
