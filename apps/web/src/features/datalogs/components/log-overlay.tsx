@@ -35,7 +35,9 @@ function toLines(channels: SeriesChannel[], picked: CanonicalChannel[], source: 
 
 /** Two logs of one job on one chart, lined up on the start of a full-throttle pull or on time from their start. */
 export function LogOverlay({ log, report, others, picked }: { log: Datalog; report: DatalogReport; others: Datalog[]; picked: CanonicalChannel[] }) {
-  const [otherId, setOtherId] = useState<string | null>(others[0]?.id ?? null);
+  const [chosenId, setOtherId] = useState<string | null>(null);
+  // The job's log list may arrive after this view opens: until a log is chosen, the newest other one is shown.
+  const otherId = chosenId ?? others[0]?.id ?? null;
   const [align, setAlign] = useState<Align>('pull');
   const [basePull, setBasePull] = useState(0);
   const [otherPull, setOtherPull] = useState(0);
