@@ -177,7 +177,7 @@ test('two logs of a job overlaid on a pull, and one channel against another colo
   await expect.poll(() => scatter.locator('.recharts-scatter-symbol').count(), LOAD).toBeGreaterThan(1000);
   const scale = page.getByRole('list', { name: /^Colour: engine speed \(rpm\)/ });
   await expect(scale.getByRole('listitem')).toHaveCount(7);
-  await expect(scale.getByRole('listitem').first()).toHaveText(/^\d+–\d+ rpm \(\d+\)$/);
+  await expect(scale.getByRole('listitem').first()).toHaveText(/^\d+–\d+ rpm\s*\(\d+\)$/);
   await page.getByLabel('Samples from').selectOption({ index: 1 });
   await expect(page.getByText(/samples from \d+:\d\d to \d+:\d\d\.$/)).toBeVisible();
   expect(await seriousAxeFindings(page)).toEqual([]);
