@@ -114,6 +114,25 @@ describe('datalog upload and report', () => {
     // [CALC] 10 s at 10 Hz is 101 samples, fewer than asked for, so all are returned.
     expect(window.body.data.channels[0].t).toHaveLength(101);
     expect((await tuner.get(`/api/datalogs/${id}/series?channels=bogus`)).status).toBe(400);
+    expect((await tuner.get(`/api/datalogs/${id}/series?channels=rpm&sampling=every`)).status).toBe(400);
+
+    // Scatter plots pair channels row by row: every channel comes back on the same time stamps.
+    const rows = await tuner.get(`/api/datalogs/${id}/series?channels=rpm,map,knock_retard&sampling=rows&points=500`);
+    expect(rows.status).toBe(200);
+    expect(rows.body.data.sampling).toBe('rows');
+    const [rpm, map, knock] = rows.body.data.channels;
+    expect(rpm.t).toEqual(map.t);
+    expect(rpm.t).toEqual(knock.t);
+    expect(rpm.t.length).toBeLessThanOrEqual(500);
+    expect(rpm.v).toHaveLength(rpm.t.length);
+    // [CALC] the log has rows × 1/rate seconds; an even stride of ceil(rows / 500) rows keeps at least 250 of them.
+    expect(rpm.t.length).toBeGreaterThanOrEqual(250);
+    const stride = Math.ceil(log.report.rows / 500);
+    expect(rpm.t[1] - rpm.t[0]).toBeCloseTo(stride / log.report.sampleRateHz, 3);
+    // Unthinned in a short window: [CALC] 10 s at 10 Hz is 101 rows, each paired with the same row of MAP.
+    const rowWindow = await tuner.get(`/api/datalogs/${id}/series?channels=rpm,map&sampling=rows&from=100&to=110`);
+    expect(rowWindow.body.data.channels[0].t).toHaveLength(101);
+    expect(rowWindow.body.data.channels[1].t).toEqual(rowWindow.body.data.channels[0].t);
 
     const trims = await tuner.get(`/api/datalogs/${id}/export/trims.csv`);
     expect(trims.status).toBe(200);

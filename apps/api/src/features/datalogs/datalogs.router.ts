@@ -36,6 +36,7 @@ import {
   type StoredMapping,
 } from './datalog.service';
 import { SeriesCache, downsampleChannel } from './datalog-series';
+import { sampleAlignedRows } from './datalog-series-rows';
 
 /** A finished or cancelled job keeps its logs but takes no new ones. */
 const CLOSED_STATES: readonly JobState[] = ['dialed_in', 'cancelled'];
@@ -71,6 +72,8 @@ const seriesQuerySchema = z.object({
   from: z.coerce.number().min(0).optional(),
   to: z.coerce.number().min(0).optional(),
   points: z.coerce.number().int().min(10).max(5000).default(2000),
+  /** `lttb` keeps each channel's shape on its own; `rows` returns the same rows of every channel, for scatter plots. */
+  sampling: z.enum(['lttb', 'rows']).default('lttb'),
 });
 
 const csvName = (name: string) => name.replace(/\.[^.]*$/, '').replace(/[^\w.-]+/g, '_').slice(0, 80) || 'datalog';
@@ -186,15 +189,21 @@ export function createDatalogsRouter(deps: AppDeps): Router {
     const to = q.to ?? report.durationS;
     if (to <= from) throw new DomainError('validation', '"to" must be later than "from".');
     const available = (Object.keys(columns) as CanonicalChannel[]).filter((c) => c !== 'time');
+    const logged = q.channels.filter((c) => columns[c] !== undefined);
+    const rows = q.sampling === 'rows' ? sampleAlignedRows(columns, logged, from, to, q.points) : null;
     res.json({
       data: {
         from,
         to,
         durationS: report.durationS,
         available,
-        channels: q.channels
-          .filter((c) => columns[c] !== undefined)
-          .map((c) => ({ channel: c, label: CHANNEL_INFO[c].label, unit: CHANNEL_INFO[c].unit, ...downsampleChannel(columns.time, columns[c]!, from, to, q.points) })),
+        sampling: q.sampling,
+        channels: logged.map((c) => ({
+          channel: c,
+          label: CHANNEL_INFO[c].label,
+          unit: CHANNEL_INFO[c].unit,
+          ...(rows ? { t: rows.t, v: rows.values.get(c)! } : downsampleChannel(columns.time, columns[c]!, from, to, q.points)),
+        })),
         knock: report.knock.events.filter((e) => e.timeS >= from && e.timeS <= to),
       },
     });

@@ -21,17 +21,22 @@ export interface DatalogSeries {
   knock: KnockEvent[];
 }
 
+/** `lttb` keeps each channel's shape on its own; `rows` gives every channel the same time stamps (scatter plots). */
+export type SeriesSampling = 'lttb' | 'rows';
+
 export interface SeriesRequest {
   channels: readonly string[];
   from?: number | undefined;
   to?: number | undefined;
   points?: number;
+  sampling?: SeriesSampling;
 }
 
 export const getDatalogSeries = (datalogId: string, request: SeriesRequest) => {
   const query = new URLSearchParams({ channels: request.channels.join(','), points: String(request.points ?? 2000) });
   if (request.from !== undefined) query.set('from', String(request.from));
   if (request.to !== undefined) query.set('to', String(request.to));
+  if (request.sampling === 'rows') query.set('sampling', 'rows');
   return api.get<ItemResponse<DatalogSeries>>(`/api/datalogs/${encodeURIComponent(datalogId)}/series?${query}`);
 };
 
@@ -43,4 +48,5 @@ export const getDatalogSeriesQueryOptions = (datalogId: string, request: SeriesR
     staleTime: Infinity,
   });
 
-export const useDatalogSeries = (datalogId: string, request: SeriesRequest) => useQuery(getDatalogSeriesQueryOptions(datalogId, request));
+export const useDatalogSeries = (datalogId: string | null, request: SeriesRequest) =>
+  useQuery({ ...getDatalogSeriesQueryOptions(datalogId ?? '', request), enabled: datalogId !== null && request.channels.length > 0 });

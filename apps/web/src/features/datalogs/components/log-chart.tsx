@@ -1,129 +1,200 @@
 import { useMemo, useState } from 'react';
-import { Brush, CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import type { CanonicalChannel } from '@revloop/domain/datalog';
+import { CHANNEL_INFO, type CanonicalChannel, type DatalogReport } from '@revloop/domain/datalog';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
+import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
-import { useDatalogSeries, type SeriesChannel } from '../api/get-datalog-series';
+import type { Datalog } from '../api/get-datalog';
+import { useDatalogSeries } from '../api/get-datalog-series';
+import type { ChannelChoice, ChartLine, Stretch } from '../chart/lines';
+import { lineColour } from '../chart/palette';
+import { marksOf, pullLabel } from '../chart/marks';
+import { formatClock } from '../chart/time';
+import { withUnit } from '../chart/units';
+import { LogOverlay } from './log-overlay';
+import { LogScatter } from './log-scatter';
+import { TimeChart } from './time-chart';
 
-/** Okabe & Ito (2008) "Color Universal Design" palette: told apart with every common colour-vision deficiency. */
-const LINE_COLOURS = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9', '#000000', '#F0E442'];
-const DEFAULT_CHANNELS: CanonicalChannel[] = ['rpm', 'map', 'lambda_meas', 'knock_retard'];
+const DEFAULT_CHANNELS: CanonicalChannel[] = ['rpm', 'map', 'lambda_meas', 'lambda_cmd', 'knock_retard'];
 const MAX_CHANNELS = 6;
 
-type Row = { t: number } & Partial<Record<CanonicalChannel, number>>;
+type Mode = 'time' | 'overlay' | 'scatter';
 
-/** One row per time stamp of any series; each series was downsampled on its own, so others are blank there. */
-function mergeSeries(channels: SeriesChannel[]): Row[] {
-  const rows = new Map<number, Row>();
-  for (const series of channels) {
-    series.t.forEach((t, i) => {
-      const row = rows.get(t) ?? { t };
-      row[series.channel] = series.v[i];
-      rows.set(t, row);
-    });
-  }
-  return [...rows.values()].sort((a, b) => a.t - b.t);
+const MODES: { value: Mode; label: string }[] = [
+  { value: 'time', label: 'Over time' },
+  { value: 'overlay', label: 'Two logs overlaid' },
+  { value: 'scatter', label: 'One channel against another' },
+];
+
+function ModeSwitch({ mode, onChange }: { mode: Mode; onChange: (m: Mode) => void }) {
+  return (
+    <fieldset>
+      <legend className="mb-1 text-sm font-medium text-ink-800">View</legend>
+      <div className="inline-flex flex-wrap rounded-md border border-ink-300 bg-white p-0.5">
+        {MODES.map((m) => (
+          <label
+            key={m.value}
+            className="cursor-pointer rounded px-3 py-1.5 text-sm text-ink-700 has-checked:bg-accent-600 has-checked:text-white has-focus-visible:outline-2 has-focus-visible:outline-offset-1 has-focus-visible:outline-accent-700"
+          >
+            <input type="radio" name="chart-mode" value={m.value} checked={mode === m.value} onChange={() => onChange(m.value)} className="sr-only" />
+            {m.label}
+          </label>
+        ))}
+      </div>
+    </fieldset>
+  );
 }
 
-/** Time-series chart of a log: pick channels, brush a stretch and zoom into it at full detail, knock marked. */
-export function LogChart({ datalogId, available }: { datalogId: string; available: { channel: CanonicalChannel; label: string }[] }) {
-  const [picked, setPicked] = useState<CanonicalChannel[]>(() => DEFAULT_CHANNELS.filter((c) => available.some((a) => a.channel === c)));
-  const [window, setWindow] = useState<{ from: number; to: number } | null>(null);
-  const [brushed, setBrushed] = useState<{ from: number; to: number } | null>(null);
-  const series = useDatalogSeries(datalogId, { channels: picked, from: window?.from, to: window?.to });
-  const data = useMemo(() => mergeSeries(series.data?.data.channels ?? []), [series.data]);
-  const channels = series.data?.data.channels ?? [];
+function ChannelPicker({ available, picked, onToggle }: { available: ChannelChoice[]; picked: CanonicalChannel[]; onToggle: (c: CanonicalChannel) => void }) {
+  return (
+    <fieldset>
+      <legend className="mb-1 text-sm font-medium text-ink-800">Channels (up to {MAX_CHANNELS}; one axis per unit)</legend>
+      <div className="flex flex-wrap gap-x-4 gap-y-1">
+        {available.map(({ channel, label, unit }) => (
+          <label key={channel} className="inline-flex items-center gap-1.5 text-sm text-ink-700">
+            <input
+              type="checkbox"
+              checked={picked.includes(channel)}
+              disabled={!picked.includes(channel) && picked.length >= MAX_CHANNELS}
+              onChange={() => onToggle(channel)}
+            />
+            {withUnit(label, unit)}
+          </label>
+        ))}
+      </div>
+    </fieldset>
+  );
+}
 
+/** What the time view shows: the whole log, a pull with a little either side, or a zoomed stretch. */
+type Shown = { kind: 'all' } | { kind: 'pull'; index: number } | { kind: 'zoom'; from: number; to: number };
+
+const PULL_MARGIN_S = 3;
+
+function windowOf(shown: Shown, report: DatalogReport): Stretch | null {
+  if (shown.kind === 'zoom') return { from: shown.from, to: shown.to };
+  const pull = shown.kind === 'pull' ? report.wot.pulls[shown.index] : undefined;
+  return pull ? { from: Math.max(0, pull.startS - PULL_MARGIN_S), to: Math.min(report.durationS, pull.endS + PULL_MARGIN_S) } : null;
+}
+
+interface TimeViewProps {
+  datalogId: string;
+  report: DatalogReport;
+  picked: CanonicalChannel[];
+  shown: Shown;
+  onShow: (shown: Shown) => void;
+  brushed: Stretch | null;
+  onBrush: (stretch: Stretch | null) => void;
+}
+
+/** One log over time: the stretch to show (whole log, a pull, or the brushed stretch), pulls and knock marked. */
+function TimeView({ datalogId, report, picked, shown, onShow, brushed, onBrush }: TimeViewProps) {
+  const window = windowOf(shown, report);
+  const [cursor, setCursor] = useState(() => report.wot.pulls[0]?.startS ?? 0);
+  const series = useDatalogSeries(datalogId, { channels: picked, from: window?.from, to: window?.to });
+  const data = series.data?.data;
+  const lines = useMemo<ChartLine[]>(
+    () =>
+      (data?.channels ?? []).map((c) => ({
+        key: c.channel,
+        channel: c.channel,
+        label: c.label,
+        unit: c.unit,
+        colour: lineColour(picked.indexOf(c.channel)),
+        source: 'this log',
+        dashed: false,
+        t: c.t,
+        v: c.v,
+      })),
+    [data, picked],
+  );
+  const domain: [number, number] = window ? [window.from, window.to] : [0, report.durationS];
+  const show = (next: Shown) => {
+    onShow(next);
+    onBrush(null);
+    const w = windowOf(next, report);
+    if (w && (cursor < w.from || cursor > w.to)) setCursor(w.from);
+  };
+
+  return (
+    <div className="flex flex-col gap-3">
+      <div className="flex flex-wrap items-end gap-3">
+        <label className="flex flex-col gap-1 text-sm font-medium text-ink-800">
+          Show
+          <Select
+            className="w-auto min-w-64"
+            value={shown.kind === 'pull' ? `pull:${shown.index}` : shown.kind}
+            onChange={(e) => {
+              const value = e.target.value;
+              if (value.startsWith('pull:')) show({ kind: 'pull', index: Number(value.slice(5)) });
+              else if (value === 'all') show({ kind: 'all' });
+            }}
+            options={[
+              { value: 'all', label: `The whole log (${formatClock(report.durationS)})` },
+              ...report.wot.pulls.map((p, i) => ({ value: `pull:${i}`, label: pullLabel(p, i) })),
+              ...(shown.kind === 'zoom' ? [{ value: 'zoom', label: `Zoomed: ${formatClock(shown.from)}–${formatClock(shown.to)}` }] : []),
+            ]}
+          />
+        </label>
+        <Button size="sm" variant="secondary" disabled={!brushed} onClick={() => brushed && show({ kind: 'zoom', ...brushed })}>
+          Zoom to the brushed stretch
+        </Button>
+        <Button size="sm" variant="ghost" disabled={shown.kind === 'all'} onClick={() => show({ kind: 'all' })}>
+          Show the whole log
+        </Button>
+        {series.isFetching && <Spinner label="Loading the chart" />}
+      </div>
+      {series.isError && <Banner tone="bad" title="The chart could not be loaded">{errorMessage(series.error)}</Banner>}
+      {lines.length > 0 && (
+        <TimeChart
+          title={`Chart of ${lines.map((l) => l.label).join(', ')} over time`}
+          lines={lines}
+          domain={domain}
+          xLabel="Time from the start of the log"
+          marks={marksOf(report)}
+          cursor={cursor}
+          onCursor={setCursor}
+          onBrush={onBrush}
+        />
+      )}
+      <p className="text-sm text-ink-600">
+        Drag the handles under the chart (or focus one and use the arrow keys) to pick a stretch; zooming reloads it at full
+        detail (at most 2000 points a channel). Shaded: full-throttle pulls. Dashed red lines: knock retard events.
+      </p>
+    </div>
+  );
+}
+
+/**
+ * The tuner's chart of a log: over time with a cursor readout, overlaid on another log of the job (aligned on a pull
+ * or on time), or one channel against another coloured by a third.
+ */
+export function LogChart({ log, report, others }: { log: Datalog; report: DatalogReport; others: Datalog[] }) {
+  const available = useMemo<ChannelChoice[]>(
+    () =>
+      (Object.keys(report.channels) as CanonicalChannel[])
+        .filter((c) => c !== 'time')
+        .map((channel) => ({ channel, label: CHANNEL_INFO[channel].label, unit: CHANNEL_INFO[channel].unit })),
+    [report],
+  );
+  const [mode, setMode] = useState<Mode>('time');
+  const [shown, setShown] = useState<Shown>({ kind: 'all' });
+  const [brushed, setBrushed] = useState<Stretch | null>(null);
+  const [picked, setPicked] = useState<CanonicalChannel[]>(() => DEFAULT_CHANNELS.filter((c) => available.some((a) => a.channel === c)));
   const toggle = (channel: CanonicalChannel) =>
     setPicked((current) => (current.includes(channel) ? current.filter((c) => c !== channel) : current.length >= MAX_CHANNELS ? current : [...current, channel]));
 
   return (
-    <div className="flex flex-col gap-3">
-      <fieldset>
-        <legend className="mb-1 text-sm font-medium text-ink-800">Channels (up to {MAX_CHANNELS}; each has its own scale)</legend>
-        <div className="flex flex-wrap gap-x-4 gap-y-1">
-          {available.map(({ channel, label }) => (
-            <label key={channel} className="inline-flex items-center gap-1.5 text-sm text-ink-700">
-              <input type="checkbox" checked={picked.includes(channel)} onChange={() => toggle(channel)} />
-              {label}
-            </label>
-          ))}
-        </div>
-      </fieldset>
-      {series.isError && <Banner tone="bad" title="The chart could not be loaded">{errorMessage(series.error)}</Banner>}
-      {picked.length === 0 ? (
-        <p className="text-sm text-ink-600">Pick at least one channel.</p>
-      ) : (
-        <div className="relative h-96 w-full" role="img" aria-label={`Chart of ${channels.map((c) => c.label).join(', ')} over time`}>
-          {series.isFetching && <Spinner label="Loading the chart" className="absolute top-2 right-2" />}
-          <ResponsiveContainer width="100%" height="100%">
-            <LineChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 16 }}>
-              <CartesianGrid stroke="#eceeec" />
-              <XAxis dataKey="t" type="number" domain={['dataMin', 'dataMax']} unit=" s" tickFormatter={(t: number) => t.toFixed(0)} />
-              {channels.map((c) => (
-                <YAxis key={c.channel} yAxisId={c.channel} hide domain={['auto', 'auto']} />
-              ))}
-              <Tooltip
-                labelFormatter={(t) => `${Number(t).toFixed(2)} s`}
-                formatter={(value, name) => {
-                  const c = channels.find((s) => s.label === name);
-                  return [`${Number(value).toFixed(2)} ${c?.unit ?? ''}`, name];
-                }}
-              />
-              {channels.map((c, i) => (
-                <Line
-                  key={c.channel}
-                  yAxisId={c.channel}
-                  dataKey={c.channel}
-                  name={c.label}
-                  stroke={LINE_COLOURS[i % LINE_COLOURS.length]}
-                  dot={false}
-                  strokeWidth={1.5}
-                  connectNulls
-                  isAnimationActive={false}
-                />
-              ))}
-              {channels[0] &&
-                (series.data?.data.knock ?? []).map((event) => (
-                  <ReferenceLine
-                    key={event.timeS}
-                    yAxisId={channels[0]!.channel}
-                    x={event.timeS}
-                    stroke="#ad2318"
-                    strokeDasharray="4 3"
-                    label={{ value: `knock −${event.retardDeg.toFixed(1)}°`, position: 'insideTopLeft', fill: '#ad2318', fontSize: 11 }}
-                  />
-                ))}
-              {data.length > 1 && (
-                <Brush
-                  dataKey="t"
-                  height={24}
-                  stroke="#1e6c76"
-                  tickFormatter={(t: number) => `${Number(t).toFixed(0)} s`}
-                  onChange={(range) => {
-                    const from = data[range.startIndex ?? 0]?.t;
-                    const to = data[range.endIndex ?? data.length - 1]?.t;
-                    setBrushed(from !== undefined && to !== undefined && to > from ? { from, to } : null);
-                  }}
-                />
-              )}
-            </LineChart>
-          </ResponsiveContainer>
-        </div>
+    <div className="flex min-w-0 flex-col gap-4">
+      <ModeSwitch mode={mode} onChange={setMode} />
+      {mode !== 'scatter' && <ChannelPicker available={available} picked={picked} onToggle={toggle} />}
+      {mode !== 'scatter' && picked.length === 0 && <p className="text-sm text-ink-600">Pick at least one channel.</p>}
+      {mode === 'time' && picked.length > 0 && (
+        <TimeView datalogId={log.id} report={report} picked={picked} shown={shown} onShow={setShown} brushed={brushed} onBrush={setBrushed} />
       )}
-      <div className="flex flex-wrap items-center gap-2 text-sm">
-        <Button size="sm" variant="secondary" disabled={!brushed} onClick={() => brushed && setWindow(brushed)}>
-          Zoom to the brushed stretch
-        </Button>
-        <Button size="sm" variant="ghost" disabled={!window} onClick={() => { setWindow(null); setBrushed(null); }}>
-          Show the whole log
-        </Button>
-        <span className="text-ink-600">
-          Drag the handles under the chart to pick a stretch; zooming reloads it at full detail (at most 2000 points a channel). Dashed red lines mark knock.
-        </span>
-      </div>
+      {mode === 'overlay' && picked.length > 0 && <LogOverlay log={log} report={report} others={others} picked={picked} />}
+      {mode === 'scatter' && <LogScatter datalogId={log.id} report={report} available={available} stretch={brushed ?? windowOf(shown, report)} />}
     </div>
   );
 }

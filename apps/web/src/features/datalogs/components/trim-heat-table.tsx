@@ -55,7 +55,7 @@ export function TrimHeatTable({ grid }: { grid: FuelTrimGrid }) {
           <Select className="w-auto" options={VIEWS} value={view} onChange={(e) => setView(e.target.value as TrimView)} />
         </label>
       )}
-      <div className="overflow-x-auto">
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Fuel trim grid">
         <table className="border-collapse text-xs" aria-label={`${view === 'mean' ? 'Mean' : (VIEWS.find((v) => v.value === view)?.label ?? '')} fuel trim by engine speed and ${loadName}`}>
           <thead>
             <tr>

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
-import { CHANNEL_INFO, type CanonicalChannel, type DatalogReport } from '@revloop/domain/datalog';
+import type { DatalogReport } from '@revloop/domain/datalog';
 import { PageHeader } from '../../../../components/layout/page-header';
 import { Banner } from '../../../../components/ui/banner';
 import { Button, buttonClasses } from '../../../../components/ui/button';
@@ -13,6 +13,7 @@ import { useJobDatalogs } from '../../../../features/datalogs/api/get-job-datalo
 import { Checklist, checksSummary } from '../../../../features/datalogs/components/checklist';
 import { CompareLogs } from '../../../../features/datalogs/components/compare-logs';
 import { FullThrottleCautions } from '../../../../features/datalogs/components/full-throttle-cautions';
+import { formatClock } from '../../../../features/datalogs/chart/time';
 import { LogChart } from '../../../../features/datalogs/components/log-chart';
 import { MappingDialog } from '../../../../features/datalogs/components/mapping-dialog';
 import { ProgressBar } from '../../../../features/datalogs/components/progress-bar';
@@ -25,9 +26,6 @@ import { formatDateTime } from '../../../../lib/format';
 function ReportBody({ log, report, onFixColumns }: { log: DatalogDetail; report: DatalogReport; onFixColumns: () => void }) {
   const jobLogs = useJobDatalogs(log.jobId);
   const summary = checksSummary(report.checks);
-  const available = (Object.keys(report.channels) as CanonicalChannel[])
-    .filter((c) => c !== 'time')
-    .map((channel) => ({ channel, label: CHANNEL_INFO[channel].label }));
   const others = (jobLogs.data?.data ?? []).filter((l) => l.id !== log.id && l.status === 'ready');
   return (
     <div className="flex flex-col gap-6">
@@ -91,8 +89,11 @@ function ReportBody({ log, report, onFixColumns }: { log: DatalogDetail; report:
           <FullThrottleCautions />
         </div>
       </Card>
-      <Card title="Chart" description={`${report.rows.toLocaleString()} samples over ${Math.round(report.durationS)} s at ${report.sampleRateHz} Hz.`}>
-        <LogChart datalogId={log.id} available={available} />
+      <Card
+        title="Chart"
+        description={`${report.rows.toLocaleString()} samples over ${formatClock(report.durationS)} (${Math.round(report.durationS)} s) at ${report.sampleRateHz} Hz. Over time, overlaid on another log of this job, or one channel against another.`}
+      >
+        <LogChart log={log} report={report} others={others} />
       </Card>
       <Card title="Compare with another log of this job" description="Before and after a revision: what changed in the trims and at full throttle.">
         <CompareLogs datalogId={log.id} others={others} />
