@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import type { ReactTable, RowData, rowSortingFeature, TableFeatures } from '@tanstack/react-table';
 import { cn } from '../../lib/cn';
+import { ScrollRegion } from './scroll-region';
 
 const SORT_ICON = { asc: '▲', desc: '▼' } as const;
 
@@ -35,7 +36,7 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
   const rows = table.getRowModel().rows;
   const cellPadding = dense ? 'px-3 py-2.5' : 'px-4 py-3';
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-200 bg-white">
+    <ScrollRegion label={caption} className="rounded-lg border border-ink-200 bg-white">
       <table className={cn('w-full border-collapse text-left text-sm', minWidthClass)}>
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
@@ -88,6 +89,6 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
           )}
         </tbody>
       </table>
-    </div>
+    </ScrollRegion>
   );
 }

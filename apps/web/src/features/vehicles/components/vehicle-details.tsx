@@ -9,6 +9,7 @@ import { Card } from '../../../components/ui/card';
 import type { UnitSystem } from '../../auth/api/get-me';
 import type { Vehicle } from '../api/get-vehicles';
 import { formatLength, formatMass, formatSpeed, speedUnit } from './vehicle-units';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 const MOD_LABELS = new Map<string, string>(COMMON_MODIFICATIONS.map((m) => [m.id, m.label]));
 
@@ -75,7 +76,7 @@ export function VehicleNumbersCard({ vehicle, units }: { vehicle: Vehicle; units
         {derived.speeds.length === 0 ? (
           <p className="text-ink-600">A CVT has no fixed gears, so there is no speed per gear.</p>
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-ink-200">
+          <ScrollRegion label="Road speed per gear" className="rounded-lg border border-ink-200">
             <table className="w-full border-collapse text-left text-sm">
               <caption className="sr-only">Road speed per gear</caption>
               <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
@@ -97,7 +98,7 @@ export function VehicleNumbersCard({ vehicle, units }: { vehicle: Vehicle; units
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollRegion>
         )}
         <p className="text-xs text-ink-600">Speed = rpm × tyre circumference ÷ (gear ratio × final drive). Tyre wear and slip change it by a few percent; at the rev limit in the top gears it is the gearing's limit, not a speed the car reaches.</p>
       </div>
