@@ -67,7 +67,7 @@ export async function mainPagesOf(page: Page): Promise<MainPage[]> {
 export async function openMainPage(page: Page, target: MainPage): Promise<void> {
   await page.goto(target.url);
   await expect(page.getByRole('heading', { level: 1 }).first()).toBeVisible();
-  await expect(page.getByRole('status').filter({ hasText: /Loading/ })).toHaveCount(0);
+  await expect(page.getByRole('status').filter({ hasText: /Loading/ })).toHaveCount(0, { timeout: 45_000 });
   await page.waitForLoadState('networkidle');
 }
 

@@ -7,7 +7,8 @@ import { cn } from '../../lib/cn';
  */
 export function ScrollRegion({ label, className, children }: { label: string; className?: string; children: ReactNode }) {
   return (
-    <div role="region" aria-label={label} tabIndex={0} className={cn('max-w-full overflow-x-auto', className)}>
+    // Inline-size containment: the width comes from the page, not the content; `relative` keeps sr-only text inside.
+    <div role="region" aria-label={label} tabIndex={0} className={cn('relative max-w-full overflow-x-auto [contain:inline-size]', className)}>
       {children}
     </div>
   );
