@@ -34,7 +34,7 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
   minWidthClass = 'min-w-[36rem]',
 }: TableViewProps<TFeatures, TData, TSelected>) {
   const rows = table.getRowModel().rows;
-  const cellPadding = dense ? 'px-3 py-2.5' : 'px-4 py-3';
+  const cellPadding = dense ? 'px-2 py-2.5' : 'px-4 py-3';
   return (
     <ScrollRegion label={caption} className="rounded-lg border border-ink-200 bg-white">
       <table className={cn('w-full border-collapse text-left text-sm', minWidthClass)}>
@@ -51,7 +51,7 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
                     key={header.id}
                     scope="col"
                     aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : canSort ? 'none' : undefined}
-                    className={cn('border-b border-ink-200 py-2.5 font-medium', dense ? 'px-3' : 'px-4')}
+                    className={cn('border-b border-ink-200 py-2.5 font-medium', dense ? 'px-2' : 'px-4')}
                   >
                     {header.isPlaceholder ? null : canSort ? (
                       <button type="button" onClick={column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded uppercase hover:text-ink-900">
