@@ -69,16 +69,12 @@ function AssignDialog({ job, open, onClose }: { job: Job; open: boolean; onClose
 
 /** Pause and cancel folded behind a button on a board card; Escape or a click outside closes it. */
 function MoreActions({ job, children }: { job: Job; children: ReactNode }) {
-  const { open, setOpen, rootRef, buttonRef, panelId } = usePopover();
+  const { open, setOpen, rootRef, buttonProps, panelId } = usePopover();
   return (
     <div ref={rootRef} className="relative text-sm">
       <button
-        ref={buttonRef}
-        type="button"
-        aria-expanded={open}
-        aria-controls={panelId}
+        {...buttonProps}
         aria-label={`More actions: ${jobRef(job)}`}
-        onClick={() => setOpen((value) => !value)}
         className="flex items-center gap-1 rounded text-ink-600 hover:text-ink-900"
       >
         <span aria-hidden="true" className={cn('inline-block transition-transform', open && 'rotate-90')}>
