@@ -26,7 +26,8 @@ test('the sign-in page has no critical or serious axe findings, on a laptop and 
 
 for (const email of ROLES) {
   test(`every main page of ${email} has no critical or serious axe findings`, async ({ page }) => {
-    test.setTimeout(300_000);
+    // About fifteen pages, each loaded and scanned by axe: minutes on a busy two-core machine.
+    test.setTimeout(900_000);
     await signIn(page, email);
     const found: string[] = [];
     for (const target of await mainPagesOf(page)) {

@@ -6,7 +6,7 @@ const ROLES = ['owner@kestrel.test', 'tuner@kestrel.test', 'dealer@kestrel.test'
 
 for (const email of ROLES) {
   test(`no page of ${email} is wider than a 390 px phone or a 1366 px laptop`, async ({ page }) => {
-    test.setTimeout(300_000);
+    test.setTimeout(600_000);
     await page.setViewportSize(LAPTOP);
     await signIn(page, email);
     const pages = await mainPagesOf(page);
