@@ -13,3 +13,14 @@ export function formatDateTime(iso: string | null | undefined): string {
   const time = Date.parse(iso);
   return Number.isNaN(time) ? '—' : dateTimeFormat.format(time);
 }
+
+/**
+ * A signed number for deltas such as fuel trims: "+1.5", "−0.3", and "0.0" for anything that rounds to zero,
+ * so a tiny negative never prints as "-0.0". The minus is U+2212, the typographic minus sign.
+ */
+export function formatSigned(value: number, digits = 1): string {
+  if (!Number.isFinite(value)) return '—';
+  const text = Math.abs(value).toFixed(digits);
+  if (Number(text) === 0) return text;
+  return `${value > 0 ? '+' : '−'}${text}`;
+}

@@ -29,5 +29,8 @@ export function usePopover() {
     };
   }, [open]);
 
-  return { open, setOpen, rootRef, buttonRef, panelId };
+  /** Spread on the button that opens the panel. */
+  const buttonProps = { ref: buttonRef, type: 'button', 'aria-expanded': open, 'aria-controls': panelId, onClick: () => setOpen((value) => !value) } as const;
+
+  return { open, setOpen, rootRef, buttonRef, buttonProps, panelId };
 }

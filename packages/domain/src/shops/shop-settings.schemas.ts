@@ -2,10 +2,22 @@ import { z } from 'zod';
 import { logRequestSchema } from '../datalog/datalog.schemas';
 import { defaultLogRequest, type LogRequest } from '../datalog/log-request';
 
+/** True for an IANA time zone name the runtime knows, such as "Europe/Berlin" or "UTC". */
+export function isTimeZone(name: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: name });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 /** What an owner sets for the whole shop; stored as JSON on the shop, every field with a default. */
 export const shopSettingsSchema = z.object({
   /** Largest calibration or log upload, in MiB (16 MiB covers the control units we see). */
   uploadLimitMiB: z.number().int().min(1).max(256).default(16),
+  /** The shop's IANA time zone: dates in its e-mails are written in it. UTC until the owner picks one. */
+  timeZone: z.string().trim().refine(isTimeZone, 'Choose a time zone from the list, such as Europe/Berlin.').default('UTC'),
   /** Keep a new job on hold until its package is paid. */
   holdUntilPaid: z.boolean().default(false),
   /** Default log requests by engine family (free text such as "v8" or "2.0 turbo i4"), matched case-insensitively. */

@@ -44,6 +44,16 @@ describe('sign-in and sessions', () => {
     expect((await request(t.app).get('/api/me')).status).toBe(401);
   });
 
+  it('answers the session probe with 200 either way: null signed out, the me-shape signed in', async () => {
+    const out = await request(t.app).get('/api/me/session');
+    expect(out.status).toBe(200);
+    expect(out.body).toEqual({ data: null });
+    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'owner@kestrel.test', password: 'revloop-demo' });
+    const signedIn = await request(t.app).get('/api/me/session').set('Cookie', sessionCookieOf(res)!);
+    expect(signedIn.status).toBe(200);
+    expect(signedIn.body.data).toMatchObject({ user: { email: 'owner@kestrel.test' }, role: 'owner' });
+  });
+
   it('gives a new session id at each sign-in, and a signed-out cookie is dead', async () => {
     const first = await request(t.app).post('/api/auth/sign-in').send({ email: 'tuner@kestrel.test', password: 'revloop-demo' });
     const second = await request(t.app).post('/api/auth/sign-in').send({ email: 'tuner@kestrel.test', password: 'revloop-demo' });

@@ -1,5 +1,5 @@
 import { formatMoney } from '@revloop/domain/billing';
-import { accountNoticeMail } from '../mail/mail-templates';
+import { accountNoticeMail, formatMailDate } from '../mail/mail-templates';
 
 /** Billing mails: plain sentences, the amounts formatted in the currency they were paid in, one link. */
 const notice = (to: string, subject: string, lines: string[], link: string) =>
@@ -40,13 +40,13 @@ export const lowBalanceMail = (to: string, p: { shopName: string; dealerName: st
     p.link,
   );
 
-export const paymentFailedMail = (to: string, p: { shopName: string; graceEndsAt: Date; link: string }) =>
+export const paymentFailedMail = (to: string, p: { shopName: string; graceEndsAt: Date; timeZone: string; link: string }) =>
   notice(
     to,
     `Payment failed for ${p.shopName}'s Revloop subscription`,
     [
       'The latest subscription payment was declined. Revloop will retry the card.',
-      `Update the card before ${p.graceEndsAt.toUTCString()} to keep the shop open for changes; after that it becomes read-only until the payment succeeds.`,
+      `Update the card before ${formatMailDate(p.graceEndsAt, p.timeZone)} to keep the shop open for changes; after that it becomes read-only until the payment succeeds.`,
     ],
     p.link,
   );

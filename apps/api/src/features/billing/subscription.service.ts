@@ -18,6 +18,7 @@ import {
   type ShopSubscriptionRow,
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
+import { parseShopSettings } from '@revloop/domain/shops';
 import {
   PLANS,
   PLATFORM_CURRENCY,
@@ -107,10 +108,10 @@ async function applyStanding(deps: AppDeps, db: Db, before: ShopSubscriptionRow,
       at: now,
     });
   }
-  const mails: Array<(to: string, shopName: string) => ReturnType<typeof restoredMail>> = [];
+  const mails: Array<(to: string, shopName: string, timeZone: string) => ReturnType<typeof restoredMail>> = [];
   if (next.status === 'past_due' && before.status !== 'past_due' && next.past_due_since) {
     const ends = graceEndsAt(next.past_due_since);
-    mails.push((to, shopName) => paymentFailedMail(to, { shopName, graceEndsAt: ends, link: billingLink(deps) }));
+    mails.push((to, shopName, timeZone) => paymentFailedMail(to, { shopName, graceEndsAt: ends, timeZone, link: billingLink(deps) }));
   }
   if (reason && !before.read_only_reason) mails.push((to, shopName) => readOnlyMail(to, { shopName, reason: READ_ONLY_REASON_TEXT[reason], link: billingLink(deps) }));
   if (!reason && before.read_only_reason) mails.push((to, shopName) => restoredMail(to, { shopName, link: billingLink(deps) }));
@@ -119,7 +120,7 @@ async function applyStanding(deps: AppDeps, db: Db, before: ShopSubscriptionRow,
     if (mails.length === 0) return;
     const shop = await findShopById(deps.db, before.shop_id);
     for (const to of await ownerEmails(deps.db, before.shop_id)) {
-      for (const mail of mails) await deps.mailer.send(mail(to, shop?.name ?? 'Your shop'));
+      for (const mail of mails) await deps.mailer.send(mail(to, shop?.name ?? 'Your shop', parseShopSettings(shop?.settings ?? '{}').timeZone));
     }
   };
 }

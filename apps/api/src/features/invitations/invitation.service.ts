@@ -15,6 +15,7 @@ import {
   type InvitationRow,
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
+import { parseShopSettings } from '@revloop/domain/shops';
 import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
 import { assertSeatFor } from '../billing/plan-limits.service';
 import type { Mailer } from '../mail/mailer';
@@ -76,6 +77,7 @@ export async function createInvitation(
       inviterName: input.invitedBy?.name ?? null,
       url: `${appOrigin}/invitations/${token}`,
       expiresAt,
+      timeZone: parseShopSettings(shop.settings).timeZone,
     }),
   );
   return invitation;

@@ -18,6 +18,11 @@ export function createMeRouter({ db }: AppDeps): Router {
     res.json(await toMe(db, requireAuth(req)));
   });
 
+  // The web app's start-up probe: signed out is an expected answer there, so it is a 200 with null, not a 401.
+  router.get('/session', async (req, res) => {
+    res.json({ data: req.auth ? await toMe(db, req.auth) : null });
+  });
+
   router.patch('/', async (req, res) => {
     const auth = requireAuth(req);
     const input = parseInput(updateMeSchema, req.body);

@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import type { ReactTable, RowData, rowSortingFeature, TableFeatures } from '@tanstack/react-table';
 import { cn } from '../../lib/cn';
+import { ScrollRegion } from './scroll-region';
 
 const SORT_ICON = { asc: '▲', desc: '▼' } as const;
 
@@ -33,9 +34,9 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
   minWidthClass = 'min-w-[36rem]',
 }: TableViewProps<TFeatures, TData, TSelected>) {
   const rows = table.getRowModel().rows;
-  const cellPadding = dense ? 'px-3 py-2.5' : 'px-4 py-3';
+  const cellPadding = dense ? 'px-2 py-2.5' : 'px-4 py-3';
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-200 bg-white">
+    <ScrollRegion label={caption} className="rounded-lg border border-ink-200 bg-white">
       <table className={cn('w-full border-collapse text-left text-sm', minWidthClass)}>
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
@@ -50,7 +51,7 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
                     key={header.id}
                     scope="col"
                     aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : canSort ? 'none' : undefined}
-                    className={cn('border-b border-ink-200 py-2.5 font-medium', dense ? 'px-3' : 'px-4')}
+                    className={cn('border-b border-ink-200 py-2.5 font-medium', dense ? 'px-2' : 'px-4')}
                   >
                     {header.isPlaceholder ? null : canSort ? (
                       <button type="button" onClick={column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded uppercase hover:text-ink-900">
@@ -88,6 +89,6 @@ export function TableView<TFeatures extends SortableFeatures, TData extends RowD
           )}
         </tbody>
       </table>
-    </div>
+    </ScrollRegion>
   );
 }

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { Actor, ShopRole } from '@revloop/domain/auth';
-import { api, isApiError } from '../../../lib/api-client';
+import { api } from '../../../lib/api-client';
 
 export type UnitSystem = 'metric' | 'imperial';
 
@@ -13,14 +13,9 @@ export interface Me {
   actor: Actor;
 }
 
-/** The signed-in user, or null when signed out (the server answers 401). */
+/** The signed-in user, or null when signed out; the session probe answers 200 either way, so no error is logged. */
 export async function getMe(): Promise<Me | null> {
-  try {
-    return await api.get<Me>('/api/me');
-  } catch (error) {
-    if (isApiError(error) && error.status === 401) return null;
-    throw error;
-  }
+  return (await api.get<{ data: Me | null }>('/api/me/session')).data;
 }
 
 export const getMeQueryOptions = () => queryOptions({ queryKey: ['me'], queryFn: getMe, staleTime: 60_000 });

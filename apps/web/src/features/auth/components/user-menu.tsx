@@ -10,7 +10,7 @@ const itemClasses =
 
 /** The signed-in user's name; opens profile and sign-out. Closes on Escape or a click outside. */
 export function UserMenu({ me }: { me: Me }) {
-  const { open, setOpen, rootRef, buttonRef, panelId } = usePopover();
+  const { open, setOpen, rootRef, buttonProps, panelId } = usePopover();
   const navigate = useNavigate();
   const signOut = useSignOut();
 
@@ -25,12 +25,8 @@ export function UserMenu({ me }: { me: Me }) {
   return (
     <div ref={rootRef} className="relative">
       <button
-        ref={buttonRef}
-        type="button"
-        aria-expanded={open}
-        aria-controls={panelId}
+        {...buttonProps}
         aria-label={`${me.user.name}, account menu`}
-        onClick={() => setOpen((value) => !value)}
         className="flex items-center gap-2 rounded-lg py-1 pr-2 pl-1 text-sm text-ink-800 hover:bg-ink-100"
       >
         <span

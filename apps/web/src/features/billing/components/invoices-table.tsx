@@ -2,13 +2,14 @@ import { formatMoney } from '@revloop/domain/billing';
 import { Badge } from '../../../components/ui/badge';
 import { formatDate } from '../../../lib/format';
 import type { SubscriptionInvoice } from '../api/get-subscription';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 const REASONS: Record<string, string> = { subscription_create: 'First invoice', subscription_cycle: 'Renewal', subscription_update: 'Plan change' };
 
 export function InvoicesTable({ invoices }: { invoices: SubscriptionInvoice[] }) {
   if (invoices.length === 0) return <p className="text-sm text-ink-600">No invoices yet: they appear here once a plan is paid through Checkout.</p>;
   return (
-    <div className="overflow-x-auto">
+    <ScrollRegion label="Invoices">
       <table className="w-full text-left text-sm">
         <caption className="sr-only">Invoices</caption>
         <thead className="text-ink-600">
@@ -36,6 +37,6 @@ export function InvoicesTable({ invoices }: { invoices: SubscriptionInvoice[] })
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollRegion>
   );
 }

@@ -1,13 +1,14 @@
 import { formatMoney } from '@revloop/domain/billing';
 import { formatDateTime } from '../../../lib/format';
 import type { DealerLedger } from '../api/get-dealer-ledger';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 /** The statement: every entry in the order it was written, with the balance after it. */
 export function LedgerTable({ ledger }: { ledger: DealerLedger }) {
   const money = (minor: number) => formatMoney(minor, ledger.currency);
   if (ledger.entries.length === 0) return <p className="text-sm text-ink-600">No entries yet. A top-up is the first.</p>;
   return (
-    <div className="overflow-x-auto">
+    <ScrollRegion label={`Statement of ${ledger.dealer.name}`}>
       <table className="w-full text-left text-sm">
         <caption className="sr-only">Statement of {ledger.dealer.name}</caption>
         <thead className="text-ink-600">
@@ -33,6 +34,6 @@ export function LedgerTable({ ledger }: { ledger: DealerLedger }) {
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollRegion>
   );
 }

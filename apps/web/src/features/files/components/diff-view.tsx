@@ -11,6 +11,7 @@ import { useDiffHex, type HexRow } from '../api/get-diff-hex';
 import { useFileDiff } from '../api/get-file-diff';
 import type { DiffRange } from '../api/get-file-verification';
 import { formatBytes, formatShare, hexAddress, hexByte } from './file-format';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 const PAGE_SIZE = 25;
 /** Bytes of one range shown at a time; the server caps a view at 4 KiB too. */
@@ -66,7 +67,7 @@ function HexPane({ a, b, range }: { a: string; b: string; range: DiffRange }) {
       {hex.isPending && <Spinner label="Loading bytes" />}
       {hex.isError && <Banner tone="bad">{errorMessage(hex.error)}</Banner>}
       {hex.data && (
-        <div className="overflow-x-auto rounded-lg border border-ink-200">
+        <ScrollRegion label="Bytes side by side" className="rounded-lg border border-ink-200">
           <table className="font-mono text-xs" aria-label="Bytes side by side">
             <thead className="bg-ink-50 text-ink-600">
               <tr>
@@ -87,7 +88,7 @@ function HexPane({ a, b, range }: { a: string; b: string; range: DiffRange }) {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       )}
     </div>
   );

@@ -16,10 +16,11 @@ const MODULE_OPTIONS = [
   { value: 'other', label: 'Other' },
 ];
 
-const KIND_OPTIONS: Array<{ value: CalibrationFileKind; label: string }> = [
-  { value: 'read', label: 'Read (stock or any read off the car)' },
-  { value: 're_read', label: 'Re-read (proves what is on the car)' },
-  { value: 'revision', label: 'Revision (to send to the customer)' },
+// Short names fit the select at any width; the chosen kind is explained in the hint below it.
+const KIND_OPTIONS: Array<{ value: CalibrationFileKind; label: string; hint: string }> = [
+  { value: 'read', label: 'Read', hint: 'The stock read, or any read off the car.' },
+  { value: 're_read', label: 'Re-read', hint: 'Read back after flashing: proves what is on the car.' },
+  { value: 'revision', label: 'Revision', hint: 'A calibration to send to the customer.' },
 ];
 
 function outcomeText({ data, meta }: UploadJobFileResponse): string {
@@ -34,13 +35,16 @@ function outcomeText({ data, meta }: UploadJobFileResponse): string {
 /** Upload one calibration file to a job, with a real progress bar and the server's reason when it refuses. */
 export function FileUploadForm({ jobId, modules, canUploadRevision, jobOnBench }: { jobId: string; modules: CalibrationModule[]; canUploadRevision: boolean; jobOnBench: boolean }) {
   const [module, setModule] = useState<CalibrationModule>(modules[0] ?? 'ECM');
-  const [kind, setKind] = useState<CalibrationFileKind>(canUploadRevision && jobOnBench ? 'revision' : 'read');
+  // The kind follows the job (a revision while it is on the bench) until the user picks one that is still allowed.
+  const [chosenKind, setKind] = useState<CalibrationFileKind | null>(null);
   const [notes, setNotes] = useState('');
   const [file, setFile] = useState<File | null>(null);
   const [progress, setProgress] = useState(0);
   const [missingFile, setMissingFile] = useState(false);
   const upload = useUploadJobFile();
   const kinds = KIND_OPTIONS.filter((option) => option.value !== 'revision' || canUploadRevision);
+  const kind = chosenKind && kinds.some((option) => option.value === chosenKind) ? chosenKind : canUploadRevision && jobOnBench ? 'revision' : 'read';
+  const kindHint = `${KIND_OPTIONS.find((option) => option.value === kind)?.hint ?? ''}${kind === 'revision' && !jobOnBench ? ' Revisions are taken while the job is On the bench: move it there first.' : ''}`;
 
   const onSubmit = (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
@@ -66,7 +70,7 @@ export function FileUploadForm({ jobId, modules, canUploadRevision, jobOnBench }
         <Field id="file-module" label="Module">
           {(a11y) => <Select {...a11y} options={MODULE_OPTIONS} value={module} onChange={(e) => setModule(e.target.value as CalibrationModule)} />}
         </Field>
-        <Field id="file-kind" label="Kind" hint={kind === 'revision' && !jobOnBench ? 'Revisions are uploaded while the job is On the bench.' : undefined}>
+        <Field id="file-kind" label="Kind" hint={kindHint}>
           {(a11y) => <Select {...a11y} options={kinds} value={kind} onChange={(e) => setKind(e.target.value as CalibrationFileKind)} />}
         </Field>
       </div>

@@ -6,9 +6,11 @@ import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { ProgressBar } from '../../datalogs/components/progress-bar';
 import { useDownloadFile } from '../api/download-file';
+import { useFileVerification } from '../api/get-file-verification';
 import type { CalibrationFile } from '../api/get-job-files';
 import { formatBytes } from './file-format';
 import { VerifyResult } from './verify-result';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 const KIND_TONE = { read: 'neutral', re_read: 'accent', revision: 'ok' } as const;
 
@@ -40,7 +42,7 @@ export function FilesTable({ files, canVerify }: { files: CalibrationFile[]; can
   // Reads and re-reads are checked as soon as the shop opens the list; a clean read stays quiet.
   const [toggled, setToggled] = useState<Record<string, boolean>>({});
   return (
-    <div className="overflow-x-auto">
+    <ScrollRegion label="Files">
       <table className="w-full min-w-[34rem] text-left text-sm">
         <thead className="border-b border-ink-200 text-xs text-ink-600 uppercase">
           <tr>
@@ -56,17 +58,20 @@ export function FilesTable({ files, canVerify }: { files: CalibrationFile[]; can
               key={file.id}
               file={file}
               canVerify={canVerify && file.kind !== 'revision'}
-              checking={toggled[file.id] ?? true}
-              onCheck={() => setToggled({ ...toggled, [file.id]: !(toggled[file.id] ?? true) })}
+              chosen={toggled[file.id]}
+              onCheck={(shown) => setToggled({ ...toggled, [file.id]: !shown })}
             />
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollRegion>
   );
 }
 
-function FileRow({ file, canVerify, checking, onCheck }: { file: CalibrationFile; canVerify: boolean; checking: boolean; onCheck: () => void }) {
+function FileRow({ file, canVerify, chosen, onCheck }: { file: CalibrationFile; canVerify: boolean; chosen: boolean | undefined; onCheck: (shown: boolean) => void }) {
+  const check = useFileVerification(file.id, canVerify);
+  // Until the user chooses, a re-read's check shows and a read's shows only when it warns; the row never opens empty.
+  const shown = canVerify && (chosen ?? (file.kind !== 'read' || check.data?.data.warning === true));
   return (
     <>
       <tr className="align-top">
@@ -79,8 +84,8 @@ function FileRow({ file, canVerify, checking, onCheck }: { file: CalibrationFile
           <div className="mt-2 flex flex-wrap items-start gap-2">
             <DownloadButton file={file} />
             {canVerify && (
-              <Button size="sm" variant="ghost" aria-expanded={checking} onClick={onCheck}>
-                {checking ? 'Hide check' : 'Show check'}
+              <Button size="sm" variant="ghost" aria-expanded={shown} aria-controls={`check-${file.id}`} onClick={() => onCheck(shown)}>
+                {shown ? 'Hide check' : 'Show check'}
               </Button>
             )}
           </div>
@@ -100,10 +105,10 @@ function FileRow({ file, canVerify, checking, onCheck }: { file: CalibrationFile
           <p className="text-xs text-ink-600">{formatDateTime(file.createdAt)}</p>
         </td>
       </tr>
-      {canVerify && checking && (
-        <tr>
+      {shown && (
+        <tr id={`check-${file.id}`}>
           <td colSpan={4} className="pb-3">
-            <VerifyResult fileId={file.id} quietWhenClean={file.kind === 'read'} />
+            <VerifyResult fileId={file.id} />
           </td>
         </tr>
       )}

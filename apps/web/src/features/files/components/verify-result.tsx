@@ -7,12 +7,11 @@ import { hexAddress } from './file-format';
 const SHOWN_RANGES = 5;
 
 /** The proof check of one read or re-read: which revision it matches, how it differs, whether it belongs to another job. */
-export function VerifyResult({ fileId, quietWhenClean = false }: { fileId: string; quietWhenClean?: boolean }) {
+export function VerifyResult({ fileId }: { fileId: string }) {
   const check = useFileVerification(fileId, true);
   if (check.isPending) return <Spinner label="Checking the file" />;
   if (check.isError) return <Banner tone="bad" title="The check failed">{errorMessage(check.error)}</Banner>;
   const v = check.data.data;
-  if (quietWhenClean && !v.warning) return null;
   const tone = v.warning ? 'warn' : v.status === 'matches' ? 'ok' : 'neutral';
   const title = v.status === 'matches' ? (v.matchesRevision ? `Matches revision ${v.matchesRevision}` : 'Matches the read') : v.status === 'differs' ? `Differs in ${v.totalRanges} range${v.totalRanges === 1 ? '' : 's'}` : v.status === 'matches_older' ? `Matches revision ${v.matchesRevision} — not the latest` : 'Checked';
   return (

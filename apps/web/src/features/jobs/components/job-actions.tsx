@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { useAbility } from '@casl/react';
 import { asSubject, type AppAbility } from '@revloop/domain/auth';
 import type { AvailableTransition } from '@revloop/domain/jobs';
@@ -8,7 +8,9 @@ import { Field } from '../../../components/ui/field';
 import { Select } from '../../../components/ui/select';
 import { useSignedInMe } from '../../auth/api/get-me';
 import { useMembers } from '../../members/api/get-members';
+import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
+import { usePopover } from '../../../lib/use-popover';
 import { useAssignJob } from '../api/assign-job';
 import type { Job } from '../api/get-jobs';
 import { useMoveJob } from '../api/move-job';
@@ -65,6 +67,31 @@ function AssignDialog({ job, open, onClose }: { job: Job; open: boolean; onClose
   );
 }
 
+/** Pause and cancel folded behind a button on a board card; Escape or a click outside closes it. */
+function MoreActions({ job, children }: { job: Job; children: ReactNode }) {
+  const { open, setOpen, rootRef, buttonProps, panelId } = usePopover();
+  return (
+    <div ref={rootRef} className="relative text-sm">
+      <button
+        {...buttonProps}
+        aria-label={`More actions: ${jobRef(job)}`}
+        className="flex items-center gap-1 rounded text-ink-600 hover:text-ink-900"
+      >
+        <span aria-hidden="true" className={cn('inline-block transition-transform', open && 'rotate-90')}>
+          ▸
+        </span>
+        More actions
+      </button>
+      {open && (
+        // A click on a move closes the panel; the move's own confirm dialog takes over from there.
+        <div id={panelId} className="mt-2 flex flex-wrap gap-2" onClick={() => setOpen(false)}>
+          {children}
+        </div>
+      )}
+    </div>
+  );
+}
+
 /**
  * The moves this viewer can make on a job now (from the API's `transitions`), plus take and assign.
  * Every action is a real button, so the board works from the keyboard.
@@ -118,12 +145,7 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
         )}
         {!compact && aside.map((transition) => button(transition, transition.to === 'cancelled' ? 'ghost' : 'secondary'))}
       </div>
-      {compact && aside.length > 0 && (
-        <details className="text-sm">
-          <summary className="cursor-pointer rounded text-ink-600 hover:text-ink-900">More actions</summary>
-          <div className="mt-2 flex flex-wrap gap-2">{aside.map((transition) => button(transition, 'secondary'))}</div>
-        </details>
-      )}
+      {compact && aside.length > 0 && <MoreActions job={job}>{aside.map((transition) => button(transition, 'secondary'))}</MoreActions>}
       {error && !confirming && (
         <p role="alert" className="text-sm text-bad">
           {errorMessage(error)}

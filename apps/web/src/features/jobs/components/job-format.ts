@@ -1,5 +1,4 @@
 import { JOB_STATES, OPEN_STATES, type JobState } from '@revloop/domain/jobs';
-import type { Tone } from '../../../components/ui/badge';
 
 /** "45 min", "5 h", "3 d 4 h": how long a job has sat in its state, rounded the way a person would say it. */
 export function formatTimeInState(hours: number): string {
@@ -10,17 +9,6 @@ export function formatTimeInState(hours: number): string {
   const rest = Math.floor(hours - days * 24);
   return rest > 0 && days < 7 ? `${days} d ${rest} h` : `${days} d`;
 }
-
-export const STATE_TONES: Record<JobState, Tone> = {
-  intake: 'neutral',
-  ready: 'accent',
-  on_bench: 'accent',
-  with_customer: 'warn',
-  log_review: 'accent',
-  dialed_in: 'ok',
-  on_hold: 'warn',
-  cancelled: 'bad',
-};
 
 /** The normal path a job walks, for the customer's progress view (hold and cancel sit outside it). */
 export const PROGRESS_STATES: readonly JobState[] = JOB_STATES.filter((state) => state !== 'on_hold' && state !== 'cancelled');

@@ -77,6 +77,8 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
   const units = me.user.unitSystem;
   const form = useForm<JobIntakeFormValues, unknown, JobIntakeInput>({
     resolver: zodResolver(jobIntakeSchema, plainErrors),
+    // The error summary at the top takes focus instead, so the list of problems is what the user sees first.
+    shouldFocusError: false,
     defaultValues: {
       customer: { kind: 'existing', customerUserId: isCustomer ? me.user.id : (customerUserId ?? '') },
       vehicle: { kind: 'existing', vehicleId: '' },
@@ -86,6 +88,10 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
     },
   });
   const { register } = form;
+  const vehicleKindField = register('vehicle.kind', {
+    onChange: (event: { target: { value: string } }) =>
+      form.setValue('vehicle', event.target.value === 'new' ? { kind: 'new', vehicle: NEW_VEHICLE } : { kind: 'existing', vehicleId: '' }),
+  });
   const create = useCreateJob();
   const customerKind = useWatch({ control: form.control, name: 'customer.kind' });
   const chosenCustomer = useWatch({ control: form.control, name: 'customer.customerUserId' });
@@ -104,7 +110,8 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
   }, [customerKind, vehicleKind, vehicles.isSuccess, ownVehicles.length, form]);
 
   const { errors, isSubmitted } = form.formState;
-  const flat = isSubmitted ? flattenFieldErrors(errors) : [];
+  // The shared schema speaks of the customer; on their own form the customer is addressed directly.
+  const flat = (isSubmitted ? flattenFieldErrors(errors) : []).map((e) => (isCustomer && e.path === 'cautionsAccepted' ? { ...e, message: 'Accept the cautions before the job opens.' } : e));
   const items = [
     ...flat.map((e) => ({ fieldId: fieldId('intake', e.path), message: summaryLine(e.path, e.message) })),
     ...(create.error ? [{ message: errorMessage(create.error) }] : []),
@@ -139,7 +146,7 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
 
   return (
     <form noValidate onSubmit={onSubmit} className="flex flex-col gap-6">
-      <FormErrorSummary items={items} />
+      <FormErrorSummary items={items} focusKey={form.formState.submitCount} />
 
       {!isCustomer && (
         <Card title="Customer" description={me.role === 'dealer' ? 'One of your customers, or a new one.' : 'Someone already in the shop, or a new customer.'}>
@@ -182,12 +189,13 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
         <div className="flex flex-col gap-4">
           {ownVehicles.length > 0 && (
             <div role="radiogroup" aria-label="Vehicle" className="flex flex-wrap gap-4 text-sm">
+              {/* One registration for both radios: a second register() call with its own onChange would replace the first. */}
               <label className="flex items-center gap-2">
-                <input type="radio" value="existing" className={radioClasses} {...register('vehicle.kind', { onChange: () => form.setValue('vehicle', { kind: 'existing', vehicleId: '' }) })} />
+                <input type="radio" value="existing" className={radioClasses} {...vehicleKindField} />
                 A vehicle on file
               </label>
               <label className="flex items-center gap-2">
-                <input type="radio" value="new" className={radioClasses} {...register('vehicle.kind', { onChange: () => form.setValue('vehicle', { kind: 'new', vehicle: NEW_VEHICLE }) })} />
+                <input type="radio" value="new" className={radioClasses} {...vehicleKindField} />
                 Another vehicle
               </label>
             </div>

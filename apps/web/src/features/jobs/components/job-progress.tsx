@@ -6,6 +6,7 @@ import { formatDate } from '../../../lib/format';
 import type { Job } from '../api/get-jobs';
 import { PROGRESS_STATES, progressIndex } from './job-format';
 import { JobStateBadge } from './job-state-badge';
+import { STATE_STYLES, StateIcon } from './job-state-style';
 
 /** The normal path of a job as numbered steps, the current one named for screen readers too. */
 export function JobSteps({ job }: { job: Job }) {
@@ -18,10 +19,11 @@ export function JobSteps({ job }: { job: Job }) {
         const here = index === current && job.state !== 'dialed_in';
         return (
           <li key={state} aria-current={here ? 'step' : undefined} className="flex flex-col gap-1">
-            <span aria-hidden="true" className={cn('h-1.5 rounded-full', done ? 'bg-accent-600' : here ? (stopped ? 'bg-warn' : 'bg-accent-300') : 'bg-ink-200')} />
-            <span className={cn('text-xs', here ? 'font-semibold text-ink-900' : done ? 'text-ink-700' : 'text-ink-500')}>
+            <span aria-hidden="true" className={cn('h-1.5 rounded-full', done ? 'bg-accent-600' : here ? (stopped ? STATE_STYLES[job.state].bar : STATE_STYLES[state].bar) : 'bg-ink-200')} />
+            <span className={cn('flex items-center gap-1 text-xs', here ? cn('font-semibold', STATE_STYLES[state].text) : done ? 'text-ink-700' : 'text-ink-500')}>
+              {(here || done) && <StateIcon state={done ? 'dialed_in' : stopped ? job.state : state} />}
               {done && <span className="sr-only">Done: </span>}
-              {here && <span className="sr-only">Now: </span>}
+              {here && <span className="sr-only">{stopped ? `${JOB_STATE_LABELS[job.state]} at: ` : 'Now: '}</span>}
               {JOB_STATE_LABELS[state]}
             </span>
           </li>

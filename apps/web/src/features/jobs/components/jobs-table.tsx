@@ -40,23 +40,23 @@ const columns = helper.columns([
     ),
   }),
   helper.accessor('state', { id: 'state', header: 'State', cell: (info) => <JobStateBadge state={info.getValue()} /> }),
-  helper.accessor((job) => job.vehicle.description, { id: 'vehicle', header: 'Vehicle', cell: (info) => <span className="block max-w-64 truncate">{info.getValue()}</span> }),
-  helper.accessor((job) => job.customer.name, { id: 'customer', header: 'Customer' }),
-  helper.accessor((job) => job.dealer?.name ?? '', { id: 'dealer', header: 'Dealer', enableSorting: false, cell: (info) => info.getValue() || '—' }),
-  helper.accessor((job) => job.package.name, { id: 'package', header: 'Package', enableSorting: false }),
-  helper.accessor((job) => job.tuner?.name ?? '', { id: 'tuner', header: 'Tuner', enableSorting: false, cell: (info) => info.getValue() || 'Unassigned' }),
+  helper.accessor((job) => job.vehicle.description, { id: 'vehicle', header: 'Vehicle', cell: (info) => <span className="line-clamp-2 block min-w-36 whitespace-normal">{info.getValue()}</span> }),
+  helper.accessor((job) => job.customer.name, { id: 'customer', header: 'Customer', cell: (info) => <span className="block whitespace-normal">{info.getValue()}</span> }),
+  helper.accessor((job) => job.dealer?.name ?? '', { id: 'dealer', header: 'Dealer', enableSorting: false, cell: (info) => <span className="block whitespace-normal">{info.getValue() || '—'}</span> }),
+  helper.accessor((job) => job.package.name, { id: 'package', header: 'Package', enableSorting: false, cell: (info) => <span className="block min-w-24 whitespace-normal">{info.getValue()}</span> }),
+  helper.accessor((job) => job.tuner?.name ?? '', { id: 'tuner', header: 'Tuner', enableSorting: false, cell: (info) => <span className="block whitespace-normal">{info.getValue() || 'Unassigned'}</span> }),
   helper.accessor('round', { id: 'round', header: 'Round' }),
   helper.accessor('stateChangedAt', {
     id: 'state_changed',
     header: 'In state',
     cell: (info) => (
-      <span className="inline-flex items-center gap-2">
+      <span className="flex flex-col items-start gap-1">
         {formatTimeInState(info.row.original.hoursInState)}
         {info.row.original.stale && <StaleBadge />}
       </span>
     ),
   }),
-  helper.accessor('updatedAt', { id: 'updated', header: 'Updated', cell: (info) => formatDateTime(info.getValue()) }),
+  helper.accessor('updatedAt', { id: 'updated', header: 'Updated', cell: (info) => <span className="block whitespace-normal">{formatDateTime(info.getValue())}</span> }),
 ]);
 
 export interface JobsTableProps {

@@ -11,18 +11,14 @@ const PREVIEW = 8;
 export function NotificationBell() {
   const notifications = useNotifications();
   const markRead = useMarkNotificationsRead();
-  const { open, setOpen, rootRef, buttonRef, panelId } = usePopover();
+  const { open, setOpen, rootRef, buttonProps, panelId } = usePopover();
   const unread = notifications.data?.meta.unread ?? 0;
 
   return (
     <div ref={rootRef} className="relative">
       <button
-        ref={buttonRef}
-        type="button"
-        aria-expanded={open}
-        aria-controls={panelId}
+        {...buttonProps}
         aria-label={unread > 0 ? `Notifications, ${unread} unread` : 'Notifications'}
-        onClick={() => setOpen((value) => !value)}
         className="relative rounded-lg p-2 text-ink-700 hover:bg-ink-100"
       >
         <svg

@@ -7,6 +7,7 @@ import { errorMessage } from '../../../lib/form-errors';
 import type { Package } from '../api/get-packages';
 import { useSetPackageActive } from '../api/set-package-active';
 import { PackageForm } from './package-form';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 /** The shop's packages with prices, rounds and whether intake still offers them; the owner edits them here. */
 export function PackagesList({ packages, currency, canEdit }: { packages: Package[]; currency: string; canEdit: boolean }) {
@@ -24,7 +25,7 @@ export function PackagesList({ packages, currency, canEdit }: { packages: Packag
           {errorMessage(setActive.error)}
         </p>
       )}
-      <div className="overflow-x-auto rounded-lg border border-ink-200 bg-white">
+      <ScrollRegion label="Packages" className="rounded-lg border border-ink-200 bg-white">
         <table className="w-full min-w-[44rem] border-collapse text-left text-sm">
           <caption className="sr-only">Packages</caption>
           <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
@@ -72,7 +73,7 @@ export function PackagesList({ packages, currency, canEdit }: { packages: Packag
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       <Dialog open={editing !== null} title={editing === 'new' ? 'New package' : 'Edit package'} onClose={() => setEditing(null)}>
         {editing !== null && <PackageForm pkg={editing === 'new' ? null : editing} currency={currency} onDone={() => setEditing(null)} onCancel={() => setEditing(null)} />}
       </Dialog>

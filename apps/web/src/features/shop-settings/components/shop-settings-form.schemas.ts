@@ -10,6 +10,7 @@ export const shopSettingsFormSchema = z
   .object({
     name: z.string().trim().min(2, 'Use at least 2 characters.').max(80),
     uploadLimitMiB: shopSettingsSchema.shape.uploadLimitMiB,
+    timeZone: shopSettingsSchema.shape.timeZone,
     holdUntilPaid: z.boolean(),
     analysis: shopSettingsSchema.shape.analysis,
     defaults: z.array(logRequestSchema.extend({ family: z.string().trim().min(1, 'Name the engine family.').max(80) })),
@@ -22,10 +23,11 @@ export const shopSettingsFormSchema = z
       seen.add(key);
     });
   })
-  .transform(({ name, uploadLimitMiB, holdUntilPaid, analysis, defaults }) => ({
+  .transform(({ name, uploadLimitMiB, timeZone, holdUntilPaid, analysis, defaults }) => ({
     name,
     settings: {
       uploadLimitMiB,
+      timeZone,
       holdUntilPaid,
       // An empty field means "use Revloop's default", so only the shop's own values are kept.
       analysis: Object.fromEntries(Object.entries(analysis).filter(([, value]) => value !== undefined)),
@@ -40,6 +42,7 @@ export function shopSettingsFormDefaults(shop: Shop): ShopSettingsFormValues {
   return {
     name: shop.name,
     uploadLimitMiB: shop.settings.uploadLimitMiB,
+    timeZone: shop.settings.timeZone,
     holdUntilPaid: shop.settings.holdUntilPaid,
     analysis: shop.settings.analysis ?? {},
     defaults: Object.entries(shop.settings.logRequestDefaults).map(([family, request]) => ({ family, ...request })),

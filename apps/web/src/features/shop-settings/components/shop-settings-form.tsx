@@ -5,6 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
 import { Input, controlClasses } from '../../../components/ui/input';
+import { Select } from '../../../components/ui/select';
 import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
 import { plainErrors } from '../../../lib/form-messages';
@@ -25,6 +26,9 @@ const THRESHOLDS = [
   { key: 'bankSplitPct', label: 'Bank split above (%)', hint: 'Bank 1 and bank 2 trims of a cell further apart than this are flagged (common practice: 5 %).' },
   { key: 'wotRpmBinWidth', label: 'Full-throttle rpm step', hint: 'Width of each rpm bin in the full-throttle table.' },
 ] as const;
+
+// Every IANA zone the browser knows; UTC first, as the default.
+const TIME_ZONES = ['UTC', ...Intl.supportedValuesOf('timeZone').filter((zone) => zone !== 'UTC')].map((zone) => ({ value: zone, label: zone.replaceAll('_', ' ') }));
 
 const asNumber = { setValueAs: (value: unknown) => (value === '' || value === undefined ? undefined : Number(value)) };
 
@@ -50,6 +54,9 @@ export function ShopSettingsForm({ shop, canEdit }: { shop: Shop; canEdit: boole
           </Field>
           <Field id="shop-uploadLimitMiB" label="Largest upload (MiB)" hint="For calibration files and datalogs; 16 MiB covers the control units we see." error={errors.uploadLimitMiB?.message}>
             {(a11y) => <Input {...a11y} type="number" inputMode="numeric" {...form.register('uploadLimitMiB', asNumber)} />}
+          </Field>
+          <Field id="shop-timeZone" label="Time zone" hint="Dates in the shop's e-mails are written in this time zone." error={errors.timeZone?.message}>
+            {(a11y) => <Select {...a11y} options={TIME_ZONES} {...form.register('timeZone')} />}
           </Field>
         </div>
         <label className="flex items-start gap-2 text-sm text-ink-900">

@@ -13,6 +13,7 @@ import type { UnitSystem } from '../../auth/api/get-me';
 import type { Vehicle } from '../api/get-vehicles';
 import { RollingCircumferenceForm } from './rolling-circumference-form';
 import { circumferenceDeviation, formatLength, formatMass, formatSpeed, speedUnit } from './vehicle-units';
+import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 /** "gasoline" mid-sentence, but a blend keeps its capital: "E85". */
 const fuelName = (label: string) => (/^E\d/.test(label) ? label : label.toLowerCase());
@@ -113,7 +114,7 @@ export function VehicleNumbersCard({ vehicle, units, canEdit }: { vehicle: Vehic
         {derived.speeds.length === 0 ? (
           <p className="text-ink-600">A CVT has no fixed gears, so there is no speed per gear.</p>
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-ink-200">
+          <ScrollRegion label="Road speed per gear" className="rounded-lg border border-ink-200">
             <table className="w-full border-collapse text-left text-sm">
               <caption className="sr-only">Road speed per gear</caption>
               <thead className="bg-ink-50 text-xs tracking-wide text-ink-600 uppercase">
@@ -135,7 +136,7 @@ export function VehicleNumbersCard({ vehicle, units, canEdit }: { vehicle: Vehic
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollRegion>
         )}
         <p className="text-xs text-ink-600">Speed = rpm × rolling circumference ÷ (gear ratio × final drive). The datalog analysis uses the same circumference to tell the gear. Tyre wear and slip change it by a few percent; at the rev limit in the top gears it is the gearing's limit, not a speed the car reaches.</p>
       </div>

@@ -16,6 +16,7 @@ import { JobTimeline } from '../../../../features/jobs/components/job-timeline';
 import { LogRequestCard } from '../../../../features/jobs/components/log-request-card';
 import { MessageThread } from '../../../../features/jobs/components/message-thread';
 import { GoalsCard } from '../../../../features/jobs/components/special-requests-card';
+import { cn } from '../../../../lib/cn';
 import { errorMessage } from '../../../../lib/form-errors';
 
 export function JobRoute() {
@@ -37,22 +38,35 @@ export function JobRoute() {
   const fields = { shopId: me.shop?.id ?? '', assignedTunerId: data.tuner?.id ?? null, dealerId: data.dealer?.id ?? null, customerUserId: data.customer.id };
   const canEditLogRequest = ability.can('update', asSubject('Job', { ...fields }));
   const canPost = ability.can('create', asSubject('Message', { ...fields }));
+  // The customer comes to pay, answer and see what is next; the working panels follow on a phone.
+  const later = cn('min-w-0', me.role === 'customer' && 'order-last xl:order-none');
 
   return (
     <>
       <PageHeader title={`Job ${data.number}`} description={data.vehicle.description} actions={<TextLink to={paths.jobs.getHref()}>All jobs</TextLink>} />
+      {/* Below xl the two columns dissolve into one list; a customer's follows `order`: next step, payment, messages first. */}
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_24rem]">
-        <div className="flex min-w-0 flex-col gap-6">
+        <div className="contents xl:flex xl:min-w-0 xl:flex-col xl:gap-6">
           <JobSummary job={data} canSeeVehicle={ability.can('read', 'Vehicle')} />
-          <JobFilesPanel jobId={data.id} job={data} />
-          <LogRequestCard jobId={data.id} request={data.logRequest} canEdit={canEditLogRequest} />
-          <JobLogsPanel jobId={data.id} job={data} />
-          <GoalsCard goals={data.goals} requests={data.specialRequests} units={me.user.unitSystem} />
+          <div className={later}>
+            <JobFilesPanel jobId={data.id} job={data} />
+          </div>
+          <div className={later}>
+            <LogRequestCard jobId={data.id} request={data.logRequest} canEdit={canEditLogRequest} />
+          </div>
+          <div className={later}>
+            <JobLogsPanel jobId={data.id} job={data} />
+          </div>
+          <div className={later}>
+            <GoalsCard goals={data.goals} requests={data.specialRequests} units={me.user.unitSystem} />
+          </div>
         </div>
-        <div className="flex min-w-0 flex-col gap-6">
+        <div className="contents xl:flex xl:min-w-0 xl:flex-col xl:gap-6">
           <JobPaymentPanel jobId={data.id} job={data} />
           <MessageThread jobId={data.id} canPost={canPost} />
-          <JobTimeline entries={data.timeline} />
+          <div className={later}>
+            <JobTimeline entries={data.timeline} />
+          </div>
         </div>
       </div>
     </>
