@@ -132,3 +132,15 @@ test('the upload panel follows the job: its Kind options fit, and no stale bench
   }
   await expect(page.getByText(/Revisions are (uploaded|taken) while the job is On the bench/)).toHaveCount(0);
 });
+
+test('the job page states the log request once; the log upload form points to it', async ({ page }) => {
+  await signIn(page, 'customer@kestrel.test');
+  const job = (await jobsOf(page)).find((j) => j.state === 'with_customer');
+  expect(job, 'a job waiting for the customer’s log').toBeDefined();
+  await page.goto(`/jobs/${job?.id}`);
+  await expect(page.getByText('Record what the log request on this page asks for.')).toBeVisible();
+  await expect(page.getByText(/Requested: warm up about/)).toHaveCount(0);
+  // The log page alone has no log request card, so there the form says what to record.
+  await page.goto(`/jobs/${job?.id}/logs`);
+  await expect(page.getByText(/Requested: warm up about \d+ minutes/)).toBeVisible();
+});

@@ -6,8 +6,9 @@ import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { revisionLabel, type Datalog } from '../api/get-datalog';
 import { useDatalogComparison } from '../api/get-datalog-comparison';
+import { formatSigned } from '../../../lib/format';
 
-const pct = (v: number | null) => (v === null ? '—' : `${v > 0 ? '+' : ''}${v.toFixed(1)} %`);
+const pct = (v: number | null) => (v === null ? '—' : `${formatSigned(v)} %`);
 
 /** Before/after: this log against another log of the same job, cell by cell and rpm bin by rpm bin. */
 export function CompareLogs({ datalogId, others }: { datalogId: string; others: Datalog[] }) {

@@ -55,7 +55,7 @@ function LatestLog({ log }: { log: Datalog }) {
   );
 }
 
-function UploadForm({ jobId, job }: { jobId: string; job: JobLogsPanelJob }) {
+function UploadForm({ jobId, job, requestShown }: { jobId: string; job: JobLogsPanelJob; requestShown: boolean }) {
   const upload = useUploadDatalog();
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
@@ -81,9 +81,16 @@ function UploadForm({ jobId, job }: { jobId: string; job: JobLogsPanelJob }) {
   return (
     <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
       <p className="text-sm text-ink-700">
-        The log is linked to the revision on the car now: <strong>{revisionLabel(job.round)}</strong>. Requested: warm up about{' '}
-        {request.warmupMinutes} minutes, then {request.wotGears} gear{request.wotGears === 1 ? '' : 's'} at full throttle with the pedal on the floor.
-        {request.notes && <span className="mt-1 block">{request.notes}</span>}
+        The log is linked to the revision on the car now: <strong>{revisionLabel(job.round)}</strong>.{' '}
+        {requestShown ? (
+          'Record what the log request on this page asks for.'
+        ) : (
+          <>
+            Requested: warm up about {request.warmupMinutes} minutes, then {request.wotGears} gear{request.wotGears === 1 ? '' : 's'} at full throttle with the
+            pedal on the floor.
+            {request.notes && <span className="mt-1 block">{request.notes}</span>}
+          </>
+        )}
       </p>
       <FullThrottleCautions />
       <div className="flex flex-col gap-1.5">
@@ -128,7 +135,8 @@ function UploadForm({ jobId, job }: { jobId: string; job: JobLogsPanelJob }) {
 }
 
 /** The job page's datalog panel: upload a log, see its checks at once, open the report. */
-export function JobLogsPanel({ jobId, job }: { jobId: string; job: JobLogsPanelJob }) {
+/** `requestShown`: the page already shows the log request (the job page), so the upload form does not repeat it. */
+export function JobLogsPanel({ jobId, job, requestShown = false }: { jobId: string; job: JobLogsPanelJob; requestShown?: boolean }) {
   const ability = useAbility<AppAbility>();
   const logs = useJobDatalogs(jobId);
   const canUpload = ability.can('upload', 'Job') && UPLOAD_STATES.includes(job.state);
@@ -140,7 +148,7 @@ export function JobLogsPanel({ jobId, job }: { jobId: string; job: JobLogsPanelJ
         {logs.isPending && <Spinner label="Loading the logs" />}
         {logs.isError && <Banner tone="bad" title="The logs could not be loaded">{errorMessage(logs.error)}</Banner>}
         {latest ? <LatestLog log={latest} /> : logs.isSuccess && <p className="text-sm text-ink-600">No log yet.</p>}
-        {canUpload && <UploadForm jobId={jobId} job={job} />}
+        {canUpload && <UploadForm jobId={jobId} job={job} requestShown={requestShown} />}
         {earlier.length > 0 && (
           <div>
             <h3 className="mb-2 text-sm font-semibold text-ink-900">Earlier logs</h3>

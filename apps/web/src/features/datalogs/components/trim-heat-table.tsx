@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { trimAxisLabel, trimCellLoad, type FuelTrimCell, type FuelTrimGrid } from '@revloop/domain/datalog';
 import { Select } from '../../../components/ui/select';
+import { formatSigned } from '../../../lib/format';
 
 /**
  * ColorBrewer "RdBu" 11-class diverging scheme (Cynthia Brewer, colorbrewer2.org, marked colour-blind safe there),
@@ -18,7 +19,6 @@ export function trimColour(trimPct: number): { background: string; text: string 
   return { background: RDBU_11[index] as string, text: dark ? '#ffffff' : '#191d1b' };
 }
 
-const fmt = (v: number) => `${v > 0 ? '+' : ''}${v.toFixed(1)}`;
 
 type TrimView = 'mean' | 'bank1' | 'bank2' | 'split';
 
@@ -80,15 +80,15 @@ export function TrimHeatTable({ grid }: { grid: FuelTrimGrid }) {
                   const value = cell && valueOf(cell, view);
                   if (!cell || value === undefined) return <td key={m} className="border border-white bg-ink-50 px-2 py-1 text-center text-ink-400">·</td>;
                   const colour = trimColour(value);
-                  const banks = cell.bank1TrimPct !== undefined && cell.bank2TrimPct !== undefined ? `; bank 1 ${fmt(cell.bank1TrimPct)} %, bank 2 ${fmt(cell.bank2TrimPct)} %` : '';
+                  const banks = cell.bank1TrimPct !== undefined && cell.bank2TrimPct !== undefined ? `; bank 1 ${formatSigned(cell.bank1TrimPct)} %, bank 2 ${formatSigned(cell.bank2TrimPct)} %` : '';
                   return (
                     <td
                       key={m}
                       className="border border-white px-2 py-1 text-center tabular-nums"
                       style={{ background: colour.background, color: colour.text }}
-                      title={`${cell.samples} samples; mean trim ${fmt(cell.meanTrimPct)} %, correction ${fmt(cell.correctionPct)} %${banks}`}
+                      title={`${cell.samples} samples; mean trim ${formatSigned(cell.meanTrimPct)} %, correction ${formatSigned(cell.correctionPct)} %${banks}`}
                     >
-                      {fmt(value)}
+                      {formatSigned(value)}
                     </td>
                   );
                 })}

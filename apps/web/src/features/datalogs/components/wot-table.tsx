@@ -1,6 +1,7 @@
 import type { WotPull } from '@revloop/domain/datalog';
+import { formatSigned } from '../../../lib/format';
 
-const signed = (v: number) => `${v > 0 ? '+' : ''}${v.toFixed(1)} %`;
+const signed = (v: number) => `${formatSigned(v)} %`;
 
 /** Each full-throttle pull: gears, rpm span, pedal, and the lambda error per rpm bin with the fuel change that removes it. */
 export function WotTable({ pulls }: { pulls: WotPull[] }) {

@@ -55,7 +55,7 @@ export function JobRoute() {
             <LogRequestCard jobId={data.id} request={data.logRequest} canEdit={canEditLogRequest} />
           </div>
           <div className={later}>
-            <JobLogsPanel jobId={data.id} job={data} />
+            <JobLogsPanel jobId={data.id} job={data} requestShown />
           </div>
           <div className={later}>
             <GoalsCard goals={data.goals} requests={data.specialRequests} units={me.user.unitSystem} />
