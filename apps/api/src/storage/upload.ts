@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { DomainError } from '@revloop/domain';
+import { UNSAFE_NAME_MESSAGE } from '@revloop/domain/text';
 import type { BlobStore } from './blob-store';
 
 /**
@@ -27,7 +28,7 @@ export function singleFileUpload(store: BlobStore, field: string, maxBytes: (req
       if (err instanceof multer.MulterError) return next(new DomainError('validation', `Upload refused: ${err.message}.`));
       // busboy's own refusals: a control character in a part header, a form cut off mid-way.
       if (err instanceof Error && /Malformed part header|Unexpected end of form|Multipart: Boundary not found/.test(err.message)) {
-        return next(new DomainError('validation', 'The upload could not be read: file names must not contain control characters, and the form must arrive whole.'));
+        return next(new DomainError('validation', `The upload could not be read, and the form must arrive whole. ${UNSAFE_NAME_MESSAGE}`));
       }
       next(err);
     });

@@ -118,6 +118,9 @@ describe('upload', () => {
       ['text that is neither format', Buffer.from('hello, this is a letter\n'), 'letter.txt', { module: 'ECM', kind: 'read' }, 422, /neither/],
       ['a name with control characters', rawImage(), 'evil\u0007name.bin', { module: 'ECM', kind: 'read' }, 400, /control characters/],
       ['a name with an escape character', rawImage(), 'evil\u001bname.bin', { module: 'ECM', kind: 'read' }, 400, /control characters/],
+      // U+202E RIGHT-TO-LEFT OVERRIDE makes "stock\u202Enib.exe" display as "stockexe.bin" (Unicode UAX #9) [STD].
+      ['a name with a right-to-left override', rawImage(), 'stock\u202Enib.exe', { module: 'ECM', kind: 'read' }, 400, /text-direction/],
+      ['a name with a left-to-right isolate', rawImage(), 'stock\u2066.bin', { module: 'ECM', kind: 'read' }, 400, /text-direction/],
       ['a missing module', rawImage(), 'ok.bin', { kind: 'read' }, 400, /module/],
     ];
     it.each(cases)('%s', async (_label, body, name, fields, status, message) => {
