@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { generateToken, hashToken } from './session.service';
 import { createTestApp, linkFromMail, sessionCookieOf, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
 
 const DAY = 86_400_000;
@@ -147,5 +148,33 @@ describe('sign-up and password reset', () => {
     const reuse = await request(t.app).post('/api/auth/password-reset/confirm').send({ token, password: 'another-new-secret' });
     expect(reuse.status).toBe(400);
     await signIn(t.app, 'tuner2@kestrel.test', 'a-brand-new-secret');
+  });
+
+  const resetTokens = () =>
+    t.mailbox
+      .list()
+      .filter((m) => m.to.includes('tuner2@kestrel.test'))
+      .map((m) => new URL(m.text.match(new RegExp(`${TEST_ORIGIN}\\S+`))![0]).searchParams.get('token')!);
+  const confirm = (token: string, password: string) => request(t.app).post('/api/auth/password-reset/confirm').send({ token, password });
+
+  it('asking for a new reset link ends the ones sent before', async () => {
+    await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    const [first] = resetTokens();
+    await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    const newest = resetTokens().find((tok) => tok !== first)!;
+    expect((await confirm(first!, 'a-brand-new-secret')).status).toBe(400);
+    expect((await confirm(newest, 'a-brand-new-secret')).status).toBe(204);
+  });
+
+  it('using a reset link ends every other outstanding link of the account', async () => {
+    await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    const [first] = resetTokens();
+    // A second link issued while the first is out (e.g. two requests racing): the database holds both.
+    const second = generateToken();
+    await t.db.insertInto('password_resets').values({ token_hash: hashToken(second), user_id: (await t.db.selectFrom('users').select('id').where('email', '=', 'tuner2@kestrel.test').executeTakeFirstOrThrow()).id, created_at: t.clock.now().toISOString(), expires_at: new Date(t.clock.now().getTime() + 3_600_000).toISOString(), used_at: null }).execute();
+    expect((await confirm(first!, 'a-brand-new-secret')).status).toBe(204);
+    expect((await confirm(second, 'another-new-secret')).status).toBe(400);
+    const open = await t.db.selectFrom('password_resets').select('token_hash').where('used_at', 'is', null).execute();
+    expect(open).toEqual([]);
   });
 });
