@@ -114,6 +114,53 @@ describe('sign-in throttling', () => {
     expect((await attempt('192.0.2.10', 'revloop-demo')).status).toBe(200);
   });
 
+  it('checks at most the limit of a burst of 40 parallel guesses; the rest answer 429', async () => {
+    const burst = await Promise.all(Array.from({ length: 40 }, () => attempt('203.0.113.20', 'wrong-password')));
+    const statuses = burst.map((r) => r.status);
+    // The account+address limit is 5 failures per 15 minutes (DEFAULT_THROTTLE).
+    expect(statuses.filter((s) => s === 401).length).toBeLessThanOrEqual(5);
+    expect(statuses.filter((s) => s === 429).length).toBeGreaterThanOrEqual(35);
+    expect(statuses.every((s) => s === 401 || s === 429)).toBe(true);
+    // The real password is not tried either while the pair is blocked.
+    expect((await attempt('203.0.113.20', 'revloop-demo')).status).toBe(429);
+  });
+
+  it('does not count successful sign-ins against the address: an office of 40 signs in', async () => {
+    for (let i = 0; i < 40; i++) expect((await attempt('203.0.113.30', 'revloop-demo')).status).toBe(200);
+  });
+
+  const office = '203.0.113.40';
+  const guess = (email: string, password = 'wrong-password', cookie?: string) => {
+    const req = request(t.app).post('/api/auth/sign-in').set('X-Forwarded-For', office);
+    return (cookie ? req.set('Cookie', cookie) : req).send({ email, password });
+  };
+  /** 30 wrong passwords from the office address, 5 each on six accounts (so no account+address pair is over). */
+  const thirtyFailures = async () => {
+    for (const who of ['tuner@kestrel.test', 'tuner2@kestrel.test', 'dealer@kestrel.test', 'riley.moss@kestrel.test', 'casey.nguyen@kestrel.test', 'nobody@kestrel.test']) {
+      for (let i = 0; i < 5; i++) expect((await guess(who)).status).toBe(401);
+    }
+  };
+
+  it('30 failures from one address do not lock out an account that never failed there, from another browser', async () => {
+    await thirtyFailures();
+    // An account that failed from the office is blocked there now…
+    expect((await guess('tuner@kestrel.test', 'revloop-demo')).status).toBe(429);
+    // …but a colleague who never failed signs in from a fresh browser on the same address.
+    expect((await guess('owner@kestrel.test', 'revloop-demo')).status).toBe(200);
+  });
+
+  it('a browser that signed in before keeps its own budget for its account while the address is blocked', async () => {
+    const browser = await guess('tuner@kestrel.test', 'revloop-demo');
+    const device = ((browser.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => c.startsWith('revloop_device='))?.split(';')[0];
+    expect(device).toMatch(/^revloop_device=[\w-]+\.[\w-]+$/);
+    await thirtyFailures();
+    expect((await guess('tuner@kestrel.test', 'revloop-demo')).status).toBe(429);
+    expect((await guess('tuner@kestrel.test', 'revloop-demo', device)).status).toBe(200);
+    // A forged cookie, or one for another account, buys nothing.
+    expect((await guess('tuner@kestrel.test', 'revloop-demo', 'revloop_device=made-up.value')).status).toBe(429);
+    expect((await guess('tuner2@kestrel.test', 'revloop-demo', device)).status).toBe(429);
+  });
+
   it('lifts the block once the window has passed', async () => {
     for (let i = 0; i < 5; i++) await attempt('203.0.113.9', 'wrong-password');
     expect((await attempt('203.0.113.9', 'revloop-demo')).status).toBe(429);
