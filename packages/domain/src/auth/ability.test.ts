@@ -32,7 +32,7 @@ const ownRow = (shopId: string, subject: SubjectName) =>
  */
 const CRUD: Action[] = ['read', 'create', 'update', 'delete'];
 const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
-  admin: { Platform: ACTIONS, Shop: ['read', 'create', 'update', 'suspend'], Subscription: ['read'], AuditEvent: ['read'] },
+  admin: { Platform: ACTIONS, Shop: ['read', 'create', 'update', 'suspend'], Subscription: ['read'], AuditEvent: ['read'], Mailbox: ['read', 'delete'] },
   owner: {
     Shop: ['read', 'update'],
     ShopSettings: CRUD,

@@ -44,6 +44,8 @@ export const SUBJECTS = [
   'Ledger',
   'AuditEvent',
   'ShopSettings',
+  /** The local SMTP stand-in's mailbox (development and demo): it holds reset links, so only platform admins read it. */
+  'Mailbox',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -81,6 +83,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     can(['read', 'create', 'update', 'suspend'], 'Shop');
     can('read', 'Subscription');
     can('read', 'AuditEvent');
+    can(['read', 'delete'], 'Mailbox');
     // Platform admins never read a shop's jobs, files or logs without an audited support grant.
     return build();
   }

@@ -7,6 +7,7 @@ import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { SeededJob } from '../../../../../seeds/demo/jobs-scenario';
 import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
+import { signFileLink } from './file-links';
 
 let t: TestApp;
 beforeEach(async () => {
@@ -237,6 +238,15 @@ describe('revisions and the job flow', () => {
     expect((await request(t.app).get(tampered)).status).toBe(403);
     const laterExp = link.replace(/exp=\d+/, `exp=${Number(url.searchParams.get('exp')) + 86_400}`);
     expect((await request(t.app).get(laterExp)).status).toBe(403);
+    // Signed with the app's own key but dated 2099: refused, expiry is capped at the 7-day link lifetime.
+    const fileId = url.pathname.split('/')[3]!;
+    const shop = url.searchParams.get('shop')!;
+    const exp2099 = Math.floor(Date.parse('2099-01-01T00:00:00Z') / 1000);
+    const farSig = signFileLink(t.env.FILE_LINK_SECRET, { shopId: shop, fileId, exp: exp2099 });
+    expect((await request(t.app).get(`/api/files/${fileId}/download?shop=${shop}&exp=${exp2099}&sig=${farSig}`)).status).toBe(403);
+    // The development key that used to be a constant in the source signs nothing any more.
+    const oldKeySig = signFileLink('revloop-development-file-link-secret-not-for-production', { shopId: shop, fileId, exp: Number(url.searchParams.get('exp')) });
+    expect((await request(t.app).get(link.replace(`sig=${sig}`, `sig=${oldKeySig}`))).status).toBe(403);
     expect((await request(t.app).get(link)).status).toBe(200);
     t.clock.advance(7 * 86_400_000 + 1000);
     const expired = await request(t.app).get(link);
