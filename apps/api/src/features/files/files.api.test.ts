@@ -224,6 +224,21 @@ describe('revisions and the job flow', () => {
     expect(timeline).toContain('Rev 1 (TCM) downloaded through an e-mailed link');
   });
 
+  it('the customer’s and the dealer’s timelines leave out revisions not sent yet, as their files list does', async () => {
+    for (const [dealerSide, viewerEmail] of [[false, null], [true, 'dealer@kestrel.test']] as const) {
+      const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2 && (j.dealerId !== null) === dealerSide);
+      const tuner = await tunerOf(job.id);
+      // One module of two: the revision waits as a draft, unseen by the customer side.
+      expect((await upload(tuner, job.id, rawImage(7), 'ecm-draft.bin', { module: 'ECM', kind: 'revision' })).status).toBe(201);
+      const viewer = await signIn(t.app, viewerEmail ?? (await emailOf(job.customerUserId)));
+      const uploads = async (agent: ReturnType<typeof request.agent>) =>
+        (await agent.get(`/api/jobs/${job.id}`)).body.data.timeline.filter((e: { text: string }) => /^Revision \d+ \(ECM\) uploaded/.test(e.text)).length;
+      expect((await viewer.get(`/api/jobs/${job.id}/files`)).body.data.filter((f: { kind: string }) => f.kind === 'revision' && f.module === 'ECM' && f.revisionNumber === 1)).toEqual([]);
+      expect(await uploads(viewer)).toBe(0);
+      expect(await uploads(tuner)).toBe(1);
+    }
+  });
+
   it('a signed link stops working when expired or tampered with', async () => {
     const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2);
     const tuner = await tunerOf(job.id);
