@@ -22,6 +22,12 @@ export function singleFileUpload(store: BlobStore, field: string, maxBytes: (req
     }).single(field);
     upload(req, res, (err: unknown) => {
       if (!err) return next();
+      // The client went away mid-upload (closed tab, lost network): multer has removed the partial file and no one
+      // is left to answer, so this is an event worth a line, not an error.
+      if (req.destroyed || (err instanceof Error && err.message === 'Request aborted')) {
+        req.log?.info({ path: req.path }, 'client aborted the upload');
+        return;
+      }
       if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
         return next(new DomainError('payload_too_large', `The file is larger than this shop allows (${Math.round(limit / 1048576)} MiB).`));
       }

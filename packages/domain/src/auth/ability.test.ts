@@ -129,6 +129,20 @@ describe('row-level rules inside one shop', () => {
     expect(a.can('update', asSubject('Subscription', { shopId: S }))).toBe(true);
   });
 
+  it('a read-only shop moves no money: no job charge, top-up, ledger entry or refund, for any role', () => {
+    const payment = asSubject('Payment', { shopId: S, dealerId: D, customerUserId: ME });
+    const ledger = asSubject('Ledger', { shopId: S, dealerId: D });
+    for (const who of ['owner', 'tuner', 'dealer', 'customer'] as const) {
+      const a = defineAbilityFor({ ...actors[who], shopReadOnly: true });
+      for (const action of ['create', 'update', 'delete', 'refund'] as const) {
+        expect(a.can(action, payment)).toBe(false);
+        expect(a.can(action, ledger)).toBe(false);
+      }
+      // Reading what was paid stays open to whoever could read it before.
+      expect(a.can('read', payment)).toBe(defineAbilityFor(actors[who]).can('read', payment));
+    }
+  });
+
   it('nobody signed in can do nothing', () => {
     const a = defineAbilityFor(null);
     expect(ACTIONS.some((x) => SUBJECTS.some((s) => a.can(x, s)))).toBe(false);

@@ -150,6 +150,9 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
     cannot(WRITE_ACTIONS, ['Member', 'Invitation', 'Dealer', 'Customer', 'Vehicle', 'Package', 'Job', 'Message', 'ShopSettings']);
     cannot('update', 'Shop');
+    // Nor does it move money: no charge for work it cannot do now (job checkout), no dealer top-up or ledger entry,
+    // no refund (docs/decisions/007). Only the owner's own payment to the platform (Subscription) stays open.
+    cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
   }
   return build();
 }

@@ -233,7 +233,7 @@ describe('revisions and the job flow', () => {
       const viewer = await signIn(t.app, viewerEmail ?? (await emailOf(job.customerUserId)));
       const uploads = async (agent: ReturnType<typeof request.agent>) =>
         (await agent.get(`/api/jobs/${job.id}`)).body.data.timeline.filter((e: { text: string }) => /^Revision \d+ \(ECM\) uploaded/.test(e.text)).length;
-      expect((await viewer.get(`/api/jobs/${job.id}/files`)).body.data.filter((f: { kind: string }) => f.kind === 'revision' && f.module === 'ECM' && f.revisionNumber === 1)).toEqual([]);
+      expect((await viewer.get(`/api/jobs/${job.id}/files`)).body.data.filter((f: { kind: string; module: string; revisionNumber: number | null }) => f.kind === 'revision' && f.module === 'ECM' && f.revisionNumber === 1)).toEqual([]);
       expect(await uploads(viewer)).toBe(0);
       expect(await uploads(tuner)).toBe(1);
     }
