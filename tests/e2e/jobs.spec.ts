@@ -55,8 +55,8 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
   await expect(page.getByText('This page is not part of your role')).toBeVisible();
   await expect(page.getByRole('link', { name: 'Development mailbox' })).toHaveCount(0);
   await asPlatformAdmin(page, async (admin) => {
-    await expect(admin.getByRole('link', { name: 'Development mailbox' })).toBeVisible();
     await admin.goto('/dev/mailbox');
+    await expect(admin.getByRole('link', { name: 'Development mailbox' })).toBeVisible();
     await expect(admin.getByText(`We received your job — Job ${number}`).first()).toBeVisible();
   });
 });

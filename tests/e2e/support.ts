@@ -20,8 +20,10 @@ export async function asPlatformAdmin<T>(page: Page, use: (admin: Page) => Promi
   const origin = page.url().startsWith('http') ? new URL(page.url()).origin : undefined;
   const context = await browser.newContext(origin ? { baseURL: origin } : {});
   try {
+    // Signed in through the API (the context's request shares its cookies): the form is tested elsewhere and costs a page load.
+    const signedIn = await context.request.post('/api/auth/sign-in', { data: { email: PLATFORM_ADMIN, password: DEMO_PASSWORD } });
+    expect(signedIn.status()).toBe(200);
     const admin = await context.newPage();
-    await signIn(admin, PLATFORM_ADMIN);
     return await use(admin);
   } finally {
     await context.close();
