@@ -151,7 +151,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     cannot(WRITE_ACTIONS, ['Member', 'Invitation', 'Dealer', 'Customer', 'Vehicle', 'Package', 'Job', 'Message', 'ShopSettings']);
     cannot('update', 'Shop');
     // Nor does it move money: no charge for work it cannot do now (job checkout), no dealer top-up or ledger entry,
-    // no refund (docs/decisions/007). Only the owner's own payment to the platform (Subscription) stays open.
+    // no refund (docs/decisions/008). Only the owner's own payment to the platform (Subscription) stays open.
     cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
   }
   return build();
