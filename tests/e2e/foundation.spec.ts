@@ -32,6 +32,8 @@ test('wrong password shows a clear error and stays signed out', async ({ page })
 });
 
 test('an owner invites a tuner, who accepts through the mailed link and signs in', async ({ page, browser }) => {
+  // Four browser contexts (owner, the platform admin reading the mailbox, the new tuner, a fresh sign-in).
+  test.slow();
   const email = `new.tuner.${Date.now()}@kestrel.test`;
   await signIn(page, 'owner@kestrel.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Team' }).click();

@@ -1,17 +1,5 @@
-import { expect, test, type APIRequestContext } from '@playwright/test';
-import { DEMO_PASSWORD, signIn } from './support';
-
-interface Mail {
-  to: string[];
-  subject: string;
-  text: string;
-}
-
-async function mailTo(request: APIRequestContext, address: string): Promise<Mail[]> {
-  const response = await request.get('/api/dev/mailbox');
-  const { data } = (await response.json()) as { data: Mail[] };
-  return data.filter((mail) => mail.to.includes(address));
-}
+import { expect, test } from '@playwright/test';
+import { asPlatformAdmin, DEMO_PASSWORD, mailTo, signIn } from './support';
 
 test.describe.configure({ mode: 'serial' });
 
@@ -62,9 +50,15 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
   const mail = (await mailTo(request, 'customer@kestrel.test')).find((m) => m.subject.includes(`Job ${number}`))!;
   expect(mail.text).toContain('battery supporter');
 
-  // The development mailbox page shows it too.
+  // The development mailbox page shows it to the platform admin only: it holds every account's reset links.
   await page.goto('/dev/mailbox');
-  await expect(page.getByText(`We received your job — Job ${number}`).first()).toBeVisible();
+  await expect(page.getByText('This page is not part of your role')).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Development mailbox' })).toHaveCount(0);
+  await asPlatformAdmin(page, async (admin) => {
+    await admin.goto('/dev/mailbox');
+    await expect(admin.getByRole('link', { name: 'Development mailbox' })).toBeVisible();
+    await expect(admin.getByText(`We received your job — Job ${number}`).first()).toBeVisible();
+  });
 });
 
 test('a tuner takes an unassigned ready job and starts work on it from the board', async ({ page }) => {

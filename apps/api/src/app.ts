@@ -67,6 +67,11 @@ export function createApp(deps: AppDeps): Express {
       secureCookies: secureCookiesOf(deps.env),
     }),
   );
+  api.use((req, res, next) => {
+    // Signed-in answers are one person's data: no shared cache or back-button copy may keep them.
+    if (req.auth) res.set('Cache-Control', 'no-store');
+    next();
+  });
   const accountLimiter = rateLimit({
     windowMs: 15 * 60_000,
     limit: deps.env.NODE_ENV === 'test' ? 1000 : 50,

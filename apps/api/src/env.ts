@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { z } from 'zod';
+import { dataFolderSecret } from './storage/data-secret';
 
 const flag = z
   .enum(['true', 'false', '1', '0'])
@@ -31,11 +32,9 @@ const envSchema = z.object({
   STRIPE_FAKE_PORT: z.coerce.number().int().min(0).max(65535).optional(),
   /** Express 'trust proxy' setting, for when a reverse proxy sets X-Forwarded-For (sign-in throttling keys on the client address). */
   TRUST_PROXY: z.string().optional(),
-  /** HMAC key for e-mailed file download links; required in production, a fixed development key otherwise. */
+  /** HMAC key for e-mailed file download links; required in production, else made once and kept in DATA_DIR/secrets. */
   FILE_LINK_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
 });
-
-const DEV_FILE_LINK_SECRET = 'revloop-development-file-link-secret-not-for-production';
 
 export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET'> & {
   APP_ORIGIN: string;
@@ -52,13 +51,14 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   }
   const env = parsed.data;
   if (env.NODE_ENV === 'production' && !env.FILE_LINK_SECRET) throw new Error('Invalid environment: FILE_LINK_SECRET is required in production');
+  const dataDir = path.resolve(env.DATA_DIR);
   return {
     ...env,
-    DATA_DIR: path.resolve(env.DATA_DIR),
+    DATA_DIR: dataDir,
     WEB_DIST_DIR: env.WEB_DIST_DIR ? path.resolve(env.WEB_DIST_DIR) : undefined,
     APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
     LOCAL_STRIPE: env.LOCAL_STRIPE ?? env.NODE_ENV === 'development',
-    FILE_LINK_SECRET: env.FILE_LINK_SECRET ?? DEV_FILE_LINK_SECRET,
+    FILE_LINK_SECRET: env.FILE_LINK_SECRET ?? dataFolderSecret(dataDir, 'file-link'),
   };
 }

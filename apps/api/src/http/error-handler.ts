@@ -34,6 +34,13 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     });
     return;
   }
+  // The Stripe SDK's errors (StripeInvalidRequestError, StripeConnectionError, …) carry the provider's own status,
+  // which says nothing about our request: the provider refused or failed, so the answer is a 502 in plain words.
+  if (typeof err?.type === 'string' && err.type.startsWith('Stripe')) {
+    req.log?.warn({ err }, 'payment provider error');
+    res.status(502).json({ error: { code: 'payment_provider', message: `The payment provider did not accept the request: ${err.message}` } });
+    return;
+  }
   const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;
   if (status === 413 || err?.code === 'LIMIT_FILE_SIZE') {
     res.status(413).json({ error: { code: 'payload_too_large', message: 'The upload is larger than this shop allows.' } });

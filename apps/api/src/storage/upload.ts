@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { DomainError } from '@revloop/domain';
+import { UNSAFE_NAME_MESSAGE } from '@revloop/domain/text';
 import type { BlobStore } from './blob-store';
 
 /**
@@ -25,9 +26,15 @@ export function singleFileUpload(store: BlobStore, field: string, maxBytes: (req
         return next(new DomainError('payload_too_large', `The file is larger than this shop allows (${Math.round(limit / 1048576)} MiB).`));
       }
       if (err instanceof multer.MulterError) return next(new DomainError('validation', `Upload refused: ${err.message}.`));
+      // The client went away mid-upload (closed tab, lost network): multer has removed the partial file and no one
+      // is left to answer, so this is an event worth a line, not an error.
+      if (err instanceof Error && err.message === 'Request aborted') {
+        req.log?.info({ path: req.path }, 'client aborted the upload');
+        return;
+      }
       // busboy's own refusals: a control character in a part header, a form cut off mid-way.
       if (err instanceof Error && /Malformed part header|Unexpected end of form|Multipart: Boundary not found/.test(err.message)) {
-        return next(new DomainError('validation', 'The upload could not be read: file names must not contain control characters, and the form must arrive whole.'));
+        return next(new DomainError('validation', `The upload could not be read, and the form must arrive whole. ${UNSAFE_NAME_MESSAGE}`));
       }
       next(err);
     });

@@ -22,7 +22,6 @@ export const router = createBrowserRouter([
           { path: paths.auth.forgotPassword.path, lazy: screen(() => import('./routes/auth/forgot-password'), (m) => m.ForgotPasswordRoute) },
           { path: paths.auth.resetPassword.path, lazy: screen(() => import('./routes/auth/reset-password'), (m) => m.ResetPasswordRoute) },
           { path: paths.auth.invitation.path, lazy: screen(() => import('./routes/auth/invitation'), (m) => m.InvitationRoute) },
-          { path: paths.dev.mailbox.path, lazy: screen(() => import('./routes/dev/mailbox'), (m) => m.MailboxRoute) },
         ],
       },
       {
@@ -31,6 +30,7 @@ export const router = createBrowserRouter([
         children: [
           { index: true, lazy: screen(() => import('./routes/app/home'), (m) => m.HomeRoute) },
           { path: paths.admin.shops.path, lazy: screen(() => import('./routes/app/admin/shops'), (m) => m.AdminShopsRoute) },
+          { path: paths.dev.mailbox.path, lazy: screen(() => import('./routes/dev/mailbox'), (m) => m.MailboxRoute) },
           { path: paths.jobs.path, lazy: screen(() => import('./routes/app/jobs/list'), (m) => m.JobsRoute) },
           { path: paths.newJob.path, lazy: screen(() => import('./routes/app/jobs/new'), (m) => m.NewJobRoute) },
           { path: paths.job.path, lazy: screen(() => import('./routes/app/jobs/job'), (m) => m.JobRoute) },

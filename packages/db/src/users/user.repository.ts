@@ -113,6 +113,11 @@ export async function insertPasswordReset(
   await db.insertInto('password_resets').values({ ...row, used_at: null }).execute();
 }
 
+/** Ends every reset link of a user still open, so only the newest one sent (or none, once one is used) works. */
+export async function endPasswordResets(db: Db, userId: string, now: string): Promise<void> {
+  await db.updateTable('password_resets').set({ used_at: now }).where('user_id', '=', userId).where('used_at', 'is', null).execute();
+}
+
 /** Marks a live reset token used and returns its user, in one statement so a token works once. */
 export async function consumePasswordReset(db: Db, tokenHash: string, now: string): Promise<string | undefined> {
   const row = await db

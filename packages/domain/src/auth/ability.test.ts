@@ -32,7 +32,7 @@ const ownRow = (shopId: string, subject: SubjectName) =>
  */
 const CRUD: Action[] = ['read', 'create', 'update', 'delete'];
 const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
-  admin: { Platform: ACTIONS, Shop: ['read', 'create', 'update', 'suspend'], Subscription: ['read'], AuditEvent: ['read'] },
+  admin: { Platform: ACTIONS, Shop: ['read', 'create', 'update', 'suspend'], Subscription: ['read'], AuditEvent: ['read'], Mailbox: ['read', 'delete'] },
   owner: {
     Shop: ['read', 'update'],
     ShopSettings: CRUD,
@@ -127,6 +127,20 @@ describe('row-level rules inside one shop', () => {
     expect(a.can('invite', asSubject('Member', { shopId: S }))).toBe(false);
     // The owner can still pay the platform to restore the shop.
     expect(a.can('update', asSubject('Subscription', { shopId: S }))).toBe(true);
+  });
+
+  it('a read-only shop moves no money: no job charge, top-up, ledger entry or refund, for any role', () => {
+    const payment = asSubject('Payment', { shopId: S, dealerId: D, customerUserId: ME });
+    const ledger = asSubject('Ledger', { shopId: S, dealerId: D });
+    for (const who of ['owner', 'tuner', 'dealer', 'customer'] as const) {
+      const a = defineAbilityFor({ ...actors[who], shopReadOnly: true });
+      for (const action of ['create', 'update', 'delete', 'refund'] as const) {
+        expect(a.can(action, payment)).toBe(false);
+        expect(a.can(action, ledger)).toBe(false);
+      }
+      // Reading what was paid stays open to whoever could read it before.
+      expect(a.can('read', payment)).toBe(defineAbilityFor(actors[who]).can('read', payment));
+    }
   });
 
   it('nobody signed in can do nothing', () => {

@@ -44,6 +44,8 @@ export const SUBJECTS = [
   'Ledger',
   'AuditEvent',
   'ShopSettings',
+  /** The local SMTP stand-in's mailbox (development and demo): it holds reset links, so only platform admins read it. */
+  'Mailbox',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -81,6 +83,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     can(['read', 'create', 'update', 'suspend'], 'Shop');
     can('read', 'Subscription');
     can('read', 'AuditEvent');
+    can(['read', 'delete'], 'Mailbox');
     // Platform admins never read a shop's jobs, files or logs without an audited support grant.
     return build();
   }
@@ -147,6 +150,9 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
     cannot(WRITE_ACTIONS, ['Member', 'Invitation', 'Dealer', 'Customer', 'Vehicle', 'Package', 'Job', 'Message', 'ShopSettings']);
     cannot('update', 'Shop');
+    // Nor does it move money: no charge for work it cannot do now (job checkout), no dealer top-up or ledger entry,
+    // no refund (docs/decisions/008). Only the owner's own payment to the platform (Subscription) stays open.
+    cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
   }
   return build();
 }

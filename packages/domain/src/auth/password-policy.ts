@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { nameSchema } from '../text/name-text.rules';
 
 /** NIST SP 800-63B asks for at least 8 characters and no composition rules; we ask for 10. */
 export const passwordSchema = z
@@ -14,13 +15,13 @@ export const emailSchema = z
 
 export const signInSchema = z.object({ email: emailSchema, password: z.string().min(1).max(200) });
 export const signUpSchema = z.object({
-  shopName: z.string().trim().min(2).max(80),
-  name: z.string().trim().min(1).max(80),
+  shopName: nameSchema(2, 80),
+  name: nameSchema(1, 80),
   email: emailSchema,
   password: passwordSchema,
 });
 export const acceptInvitationSchema = z.object({
-  name: z.string().trim().min(1).max(80),
+  name: nameSchema(1, 80),
   password: passwordSchema,
 });
 export const resetRequestSchema = z.object({ email: emailSchema });

@@ -1,21 +1,15 @@
 import { DomainError } from '../errors';
+import { hasUnsafeNameCharacter, UNSAFE_NAME_MESSAGE } from '../text/name-text.rules';
 
 const MAX_NAME_LENGTH = 255;
-// C0 controls, DEL and C1 controls: invisible, and some terminals and headers act on them.
-const hasControlCharacter = (text: string): boolean =>
-  [...text].some((char) => {
-    const code = char.charCodeAt(0);
-    return code < 0x20 || (code >= 0x7f && code <= 0x9f);
-  });
 
 /**
  * The file name to keep for an upload: directory parts (either slash) are stripped; a ".." part,
- * control characters, an empty name and names over 255 characters are refused.
+ * control and text-direction characters, an empty name and names over 255 characters are refused.
  */
 export function safeUploadName(name: string): string {
-  if (hasControlCharacter(name)) {
-    throw new DomainError('validation', 'The file name contains control characters.');
-  }
+  // A bidi override in a file name spoofs its extension ("stock\u202Enib.exe" shows as "stockexe.bin").
+  if (hasUnsafeNameCharacter(name)) throw new DomainError('validation', `The file name is refused. ${UNSAFE_NAME_MESSAGE}`);
   const parts = name.normalize('NFC').split(/[/\\]/);
   if (parts.some((part) => part.trim() === '..')) {
     throw new DomainError('validation', 'The file name must not contain "..".');

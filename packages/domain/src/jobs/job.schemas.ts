@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { moneyMinorSchema } from '../billing/money';
 import { tyreSizeSchema, vehicleInputSchema } from '../vehicles/vehicle.schemas';
+import { nameSchema } from '../text/name-text.rules';
 
 const id = (what: string) => z.string().trim().min(1, `Choose ${what}.`);
 const notes = z.string().trim().max(1000, 'Keep notes under 1000 characters.').default('');
@@ -15,7 +16,7 @@ export const jobCustomerSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('existing'), customerUserId: id('a customer') }),
   z.object({
     kind: z.literal('new'),
-    name: z.string().trim().min(1, "Enter the customer's name.").max(120),
+    name: nameSchema(1, 120, "Enter the customer's name."),
     email: z.email('Enter a valid email address.'),
   }),
 ]);
@@ -71,7 +72,7 @@ export type PackageModule = (typeof PACKAGE_MODULES)[number];
 
 export const packageInputSchema = z
   .object({
-    name: z.string().trim().min(1, 'Name the package.').max(80),
+    name: nameSchema(1, 80, 'Name the package.'),
     description: z.string().trim().max(2000).default(''),
     modules: z
       .array(z.enum(PACKAGE_MODULES))

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { isDomainError } from '../errors';
 import type { FuelSpec } from './fuel';
 import { parseTyreSize } from './tyre';
+import { nameSchema } from '../text/name-text.rules';
 import { checkVin, vinNeedsConfirmation } from './vin';
 
 export const ASPIRATIONS = [
@@ -104,11 +105,7 @@ export const vehicleInputSchema = z
       .int('Model year is a whole year.')
       .min(FIRST_VIN_MODEL_YEAR, `Model year is ${FIRST_VIN_MODEL_YEAR} or later.`)
       .max(new Date().getFullYear() + 2, 'Model year is at most two years ahead.'),
-    description: z
-      .string()
-      .trim()
-      .min(1, 'Describe the vehicle, e.g. make, model and trim.')
-      .max(200),
+    description: nameSchema(1, 200, 'Describe the vehicle, e.g. make, model and trim.'),
     engine: z.object({
       displacementL: z
         .number()
@@ -116,7 +113,7 @@ export const vehicleInputSchema = z
         .max(10, 'Displacement is at most 10 L.'),
       cylinders: z.number().int().min(1).max(16),
       aspiration: z.enum(ASPIRATIONS),
-      family: z.string().trim().min(1, 'Name the engine family, e.g. "2.0 turbo I4".').max(80),
+      family: nameSchema(1, 80, 'Name the engine family, e.g. "2.0 turbo I4".'),
     }),
     transmission: z.object({
       type: z.enum(TRANSMISSION_TYPES),

@@ -8,10 +8,11 @@ import { authorize, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
 import { createInvitation } from '../invitations/invitation.service';
+import { nameSchema } from '@revloop/domain/text';
 
 const createShopSchema = z.object({
-  name: z.string().trim().min(2).max(80),
-  ownerName: z.string().trim().min(1).max(80),
+  name: nameSchema(2, 80),
+  ownerName: nameSchema(1, 80),
   ownerEmail: emailSchema,
   currency: z.string().length(3).toUpperCase().optional(),
 });

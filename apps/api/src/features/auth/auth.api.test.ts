@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { generateToken, hashToken } from './session.service';
 import { createTestApp, linkFromMail, sessionCookieOf, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
 
 const DAY = 86_400_000;
@@ -123,6 +124,53 @@ describe('sign-in throttling', () => {
     expect((await attempt('192.0.2.10', 'revloop-demo')).status).toBe(200);
   });
 
+  it('checks at most the limit of a burst of 40 parallel guesses; the rest answer 429', async () => {
+    const burst = await Promise.all(Array.from({ length: 40 }, () => attempt('203.0.113.20', 'wrong-password')));
+    const statuses = burst.map((r) => r.status);
+    // The account+address limit is 5 failures per 15 minutes (DEFAULT_THROTTLE).
+    expect(statuses.filter((s) => s === 401).length).toBeLessThanOrEqual(5);
+    expect(statuses.filter((s) => s === 429).length).toBeGreaterThanOrEqual(35);
+    expect(statuses.every((s) => s === 401 || s === 429)).toBe(true);
+    // The real password is not tried either while the pair is blocked.
+    expect((await attempt('203.0.113.20', 'revloop-demo')).status).toBe(429);
+  });
+
+  it('does not count successful sign-ins against the address: an office of 40 signs in', async () => {
+    for (let i = 0; i < 40; i++) expect((await attempt('203.0.113.30', 'revloop-demo')).status).toBe(200);
+  });
+
+  const office = '203.0.113.40';
+  const guess = (email: string, password = 'wrong-password', cookie?: string) => {
+    const req = request(t.app).post('/api/auth/sign-in').set('X-Forwarded-For', office);
+    return (cookie ? req.set('Cookie', cookie) : req).send({ email, password });
+  };
+  /** 30 wrong passwords from the office address, 5 each on six accounts (so no account+address pair is over). */
+  const thirtyFailures = async () => {
+    for (const who of ['tuner@kestrel.test', 'tuner2@kestrel.test', 'dealer@kestrel.test', 'riley.moss@kestrel.test', 'casey.nguyen@kestrel.test', 'nobody@kestrel.test']) {
+      for (let i = 0; i < 5; i++) expect((await guess(who)).status).toBe(401);
+    }
+  };
+
+  it('30 failures from one address do not lock out an account that never failed there, from another browser', async () => {
+    await thirtyFailures();
+    // An account that failed from the office is blocked there now…
+    expect((await guess('tuner@kestrel.test', 'revloop-demo')).status).toBe(429);
+    // …but a colleague who never failed signs in from a fresh browser on the same address.
+    expect((await guess('owner@kestrel.test', 'revloop-demo')).status).toBe(200);
+  });
+
+  it('a browser that signed in before keeps its own budget for its account while the address is blocked', async () => {
+    const browser = await guess('tuner@kestrel.test', 'revloop-demo');
+    const device = ((browser.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => c.startsWith('revloop_device='))?.split(';')[0];
+    expect(device).toMatch(/^revloop_device=[\w-]+\.[\w-]+$/);
+    await thirtyFailures();
+    expect((await guess('tuner@kestrel.test', 'revloop-demo')).status).toBe(429);
+    expect((await guess('tuner@kestrel.test', 'revloop-demo', device)).status).toBe(200);
+    // A forged cookie, or one for another account, buys nothing.
+    expect((await guess('tuner@kestrel.test', 'revloop-demo', 'revloop_device=made-up.value')).status).toBe(429);
+    expect((await guess('tuner2@kestrel.test', 'revloop-demo', device)).status).toBe(429);
+  });
+
   it('lifts the block once the window has passed', async () => {
     for (let i = 0; i < 5; i++) await attempt('203.0.113.9', 'wrong-password');
     expect((await attempt('203.0.113.9', 'revloop-demo')).status).toBe(429);
@@ -157,5 +205,33 @@ describe('sign-up and password reset', () => {
     const reuse = await request(t.app).post('/api/auth/password-reset/confirm').send({ token, password: 'another-new-secret' });
     expect(reuse.status).toBe(400);
     await signIn(t.app, 'tuner2@kestrel.test', 'a-brand-new-secret');
+  });
+
+  const resetTokens = () =>
+    t.mailbox
+      .list()
+      .filter((m) => m.to.includes('tuner2@kestrel.test'))
+      .map((m) => new URL(m.text.match(new RegExp(`${TEST_ORIGIN}\\S+`))![0]).searchParams.get('token')!);
+  const confirm = (token: string, password: string) => request(t.app).post('/api/auth/password-reset/confirm').send({ token, password });
+
+  it('asking for a new reset link ends the ones sent before', async () => {
+    await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    const [first] = resetTokens();
+    await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    const newest = resetTokens().find((tok) => tok !== first)!;
+    expect((await confirm(first!, 'a-brand-new-secret')).status).toBe(400);
+    expect((await confirm(newest, 'a-brand-new-secret')).status).toBe(204);
+  });
+
+  it('using a reset link ends every other outstanding link of the account', async () => {
+    await request(t.app).post('/api/auth/password-reset').send({ email: 'tuner2@kestrel.test' });
+    const [first] = resetTokens();
+    // A second link issued while the first is out (e.g. two requests racing): the database holds both.
+    const second = generateToken();
+    await t.db.insertInto('password_resets').values({ token_hash: hashToken(second), user_id: (await t.db.selectFrom('users').select('id').where('email', '=', 'tuner2@kestrel.test').executeTakeFirstOrThrow()).id, created_at: t.clock.now().toISOString(), expires_at: new Date(t.clock.now().getTime() + 3_600_000).toISOString(), used_at: null }).execute();
+    expect((await confirm(first!, 'a-brand-new-secret')).status).toBe(204);
+    expect((await confirm(second, 'another-new-secret')).status).toBe(400);
+    const open = await t.db.selectFrom('password_resets').select('token_hash').where('used_at', 'is', null).execute();
+    expect(open).toEqual([]);
   });
 });

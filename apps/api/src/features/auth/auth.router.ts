@@ -4,12 +4,13 @@ import { DomainError } from '@revloop/domain';
 import { resetConfirmSchema, resetRequestSchema, signInSchema, signUpSchema } from '@revloop/domain/auth';
 import type { AppDeps } from '../../context';
 import { requireAuth } from '../../http/auth-context';
+import { readCookie } from '../../http/cookies';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
 import { passwordResetMail, welcomeMail } from '../mail/mail-templates';
 import { finishPasswordReset, signInShopId, signUpShop, startPasswordReset } from './auth.service';
 import { verifyPassword } from './password';
-import { clearSessionCookie, invalidateSession } from './session.service';
+import { clearSessionCookie, DEVICE_COOKIE, deviceCookie, invalidateSession } from './session.service';
 import { secureCookiesOf, startSession } from './start-session';
 
 export function createAuthRouter(deps: AppDeps): Router {
@@ -27,19 +28,18 @@ export function createAuthRouter(deps: AppDeps): Router {
 
   router.post('/sign-in', async (req, res) => {
     const input = parseInput(signInSchema, req.body);
-    const ip = req.ip ?? 'unknown';
-    const wait = throttle.retryAfter(input.email, ip);
+    const attempt = throttle.begin(input.email, req.ip ?? 'unknown', readCookie(req.headers.cookie, DEVICE_COOKIE));
+    const wait = attempt.retryAfter;
     if (wait > 0) {
       res.set('Retry-After', String(wait));
       throw new DomainError('rate_limited', `Too many sign-in attempts. Try again in ${wait} seconds.`, { retryAfter: wait });
     }
     const user = await findUserByEmail(db, input.email);
     const ok = await verifyPassword(user?.password_hash ?? null, input.password);
-    if (!user || !ok) {
-      throttle.recordFailure(input.email, ip);
-      throw new DomainError('unauthenticated', 'The e-mail or password is wrong.', { reason: 'invalid_credentials' });
-    }
-    throttle.recordSuccess(input.email, ip);
+    if (!user || !ok) throw new DomainError('unauthenticated', 'The e-mail or password is wrong.', { reason: 'invalid_credentials' });
+    attempt.succeeded();
+    // This browser now has its own sign-in budget for the account (docs/decisions/002).
+    res.append('Set-Cookie', deviceCookie(throttle.deviceToken(input.email), secure));
     const shopId = await signInShopId(db, user);
     await updateUser(db, user.id, { last_sign_in_at: clock.now().toISOString() });
     await startSession(deps, req, res, user.id, shopId, 200);

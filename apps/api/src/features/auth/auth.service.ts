@@ -1,5 +1,6 @@
 import {
   consumePasswordReset,
+  endPasswordResets,
   findSignInMembership,
   findUserByEmail,
   insertMembership,
@@ -55,18 +56,26 @@ export async function startPasswordReset(db: Db, email: string, now: Date): Prom
   if (!user || !user.password_hash) return null;
   const token = generateToken();
   const expiresAt = new Date(now.getTime() + RESET_TTL_MS);
-  await insertPasswordReset(db, {
-    token_hash: hashToken(token),
-    user_id: user.id,
-    created_at: now.toISOString(),
-    expires_at: expiresAt.toISOString(),
+  await db.transaction().execute(async (trx) => {
+    await endPasswordResets(trx, user.id, now.toISOString());
+    await insertPasswordReset(trx, {
+      token_hash: hashToken(token),
+      user_id: user.id,
+      created_at: now.toISOString(),
+      expires_at: expiresAt.toISOString(),
+    });
   });
   return { token, user, expiresAt };
 }
 
-/** Sets the new password and ends every session of the account. */
+/** Sets the new password and ends every session and every other reset link of the account. */
 export async function finishPasswordReset(db: Db, token: string, password: string, now: Date): Promise<string> {
-  const userId = await consumePasswordReset(db, hashToken(token), now.toISOString());
+  // One transaction, so two links of the same account used at once cannot both get through.
+  const userId = await db.transaction().execute(async (trx) => {
+    const owner = await consumePasswordReset(trx, hashToken(token), now.toISOString());
+    if (owner) await endPasswordResets(trx, owner, now.toISOString());
+    return owner;
+  });
   if (!userId) throw new DomainError('validation', 'This reset link is invalid, used or expired. Ask for a new one.');
   await updateUser(db, userId, { password_hash: await hashPassword(password) });
   await invalidateUserSessions(db, userId);

@@ -85,6 +85,13 @@ export function sessionCookie(token: string, expiresAt: number, secure: boolean)
   return parts.join('; ');
 }
 
+export const DEVICE_COOKIE = 'revloop_device';
+
+/** Marks a browser that signed in before; sent only to the auth routes, where the sign-in throttle reads it. */
+export function deviceCookie(value: string, secure: boolean): string {
+  return `${DEVICE_COOKIE}=${value}; Path=/api/auth; HttpOnly; SameSite=Lax; Max-Age=${180 * 86_400}${secure ? '; Secure' : ''}`;
+}
+
 export function clearSessionCookie(secure: boolean): string {
   return `${SESSION_COOKIE}=; Path=/; HttpOnly; SameSite=Lax; Max-Age=0${secure ? '; Secure' : ''}`;
 }

@@ -65,7 +65,8 @@ export async function jobPaymentsView(deps: AppDeps, auth: ShopAuth, jobId: stri
     paidMinor,
     refundedMinor,
     dueMinor: job.dealer_id ? 0 : Math.max(0, priceMinor - (paidMinor - refundedMinor)),
-    paidByDealer: debit && job.dealer_name ? { dealerName: job.dealer_name, amountMinor: -debit.amount_minor } : null,
+    // The wholesale amount is the dealer's business: only those who may read its ledger see it, never its customers.
+    paidByDealer: debit && job.dealer_name ? { dealerName: job.dealer_name, amountMinor: auth.ability.can('read', asSubject('Ledger', { shopId: job.shop_id, dealerId: job.dealer_id })) ? -debit.amount_minor : null } : null,
     payments: payments.map((p) => ({
       id: p.id,
       amountMinor: p.amount_minor,

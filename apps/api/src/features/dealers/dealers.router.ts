@@ -6,10 +6,11 @@ import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
+import { nameSchema } from '@revloop/domain/text';
 
 const dealerInputSchema = z.object({
-  name: z.string().trim().min(2).max(100),
-  contactName: z.string().trim().min(1).max(100),
+  name: nameSchema(2, 100),
+  contactName: nameSchema(1, 100),
   contactEmail: emailSchema,
   phone: z.string().trim().max(40).nullish(),
 });

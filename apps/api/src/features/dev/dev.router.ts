@@ -1,9 +1,19 @@
 import { Router } from 'express';
+import { DomainError } from '@revloop/domain';
 import type { Mailbox } from '../../fakes/smtp/smtp-fake';
 
-/** Development only: the local SMTP stand-in's mailbox, so invitation and reset links can be followed. */
+/**
+ * The local SMTP stand-in's mailbox, so invitation and reset links can be followed in development and the demo.
+ * It holds password-reset links, so only a signed-in platform admin reaches it; everyone else gets the same 404
+ * as a route that does not exist (docs/decisions/006).
+ */
 export function createDevRouter(mailbox: Mailbox): Router {
   const router = Router();
+  router.use('/mailbox', (req, _res, next) => {
+    const action = req.method === 'DELETE' ? 'delete' : 'read';
+    if (!req.auth?.ability.can(action, 'Mailbox')) return next(new DomainError('not_found', 'No such API route.'));
+    next();
+  });
   router.get('/mailbox', (_req, res) => {
     const mails = mailbox.list();
     res.json({ data: mails, meta: { total: mails.length } });

@@ -1,7 +1,7 @@
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import { DomainError } from '@revloop/domain';
 
-/** E-mailed download links live this long. */
+/** E-mailed download links live this long; a link claiming a later expiry is refused. */
 export const FILE_LINK_TTL_MS = 7 * 86_400_000;
 
 export interface FileLinkClaims {
@@ -31,6 +31,10 @@ export function verifyFileLink(secret: string, claims: FileLinkClaims, sig: stri
   const given = Buffer.from(sig, 'base64url');
   if (given.length !== expected.length || !timingSafeEqual(given, expected)) {
     throw new DomainError('forbidden', 'This download link is not valid. Sign in to download the file.');
+  }
+  // A leaked secret must not mint links for ever: nothing we issue runs past now + the lifetime.
+  if (claims.exp * 1000 > now.getTime() + FILE_LINK_TTL_MS) {
+    throw new DomainError('forbidden', 'This download link is not valid: its expiry lies beyond the 7-day link lifetime. Sign in to download the file.');
   }
   if (claims.exp * 1000 <= now.getTime()) {
     throw new DomainError('forbidden', 'This download link has expired (links last 7 days). Sign in to download the file.');

@@ -7,6 +7,7 @@ import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { SeededJob } from '../../../../../seeds/demo/jobs-scenario';
 import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
+import { signFileLink } from './file-links';
 
 let t: TestApp;
 beforeEach(async () => {
@@ -118,6 +119,9 @@ describe('upload', () => {
       ['text that is neither format', Buffer.from('hello, this is a letter\n'), 'letter.txt', { module: 'ECM', kind: 'read' }, 422, /neither/],
       ['a name with control characters', rawImage(), 'evil\u0007name.bin', { module: 'ECM', kind: 'read' }, 400, /control characters/],
       ['a name with an escape character', rawImage(), 'evil\u001bname.bin', { module: 'ECM', kind: 'read' }, 400, /control characters/],
+      // U+202E RIGHT-TO-LEFT OVERRIDE makes "stock\u202Enib.exe" display as "stockexe.bin" (Unicode UAX #9) [STD].
+      ['a name with a right-to-left override', rawImage(), 'stock\u202Enib.exe', { module: 'ECM', kind: 'read' }, 400, /text-direction/],
+      ['a name with a left-to-right isolate', rawImage(), 'stock\u2066.bin', { module: 'ECM', kind: 'read' }, 400, /text-direction/],
       ['a missing module', rawImage(), 'ok.bin', { kind: 'read' }, 400, /module/],
     ];
     it.each(cases)('%s', async (_label, body, name, fields, status, message) => {
@@ -220,6 +224,21 @@ describe('revisions and the job flow', () => {
     expect(timeline).toContain('Rev 1 (TCM) downloaded through an e-mailed link');
   });
 
+  it('the customer’s and the dealer’s timelines leave out revisions not sent yet, as their files list does', async () => {
+    for (const [dealerSide, viewerEmail] of [[false, null], [true, 'dealer@kestrel.test']] as const) {
+      const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2 && (j.dealerId !== null) === dealerSide);
+      const tuner = await tunerOf(job.id);
+      // One module of two: the revision waits as a draft, unseen by the customer side.
+      expect((await upload(tuner, job.id, rawImage(7), 'ecm-draft.bin', { module: 'ECM', kind: 'revision' })).status).toBe(201);
+      const viewer = await signIn(t.app, viewerEmail ?? (await emailOf(job.customerUserId)));
+      const uploads = async (agent: ReturnType<typeof request.agent>) =>
+        (await agent.get(`/api/jobs/${job.id}`)).body.data.timeline.filter((e: { text: string }) => /^Revision \d+ \(ECM\) uploaded/.test(e.text)).length;
+      expect((await viewer.get(`/api/jobs/${job.id}/files`)).body.data.filter((f: { kind: string; module: string; revisionNumber: number | null }) => f.kind === 'revision' && f.module === 'ECM' && f.revisionNumber === 1)).toEqual([]);
+      expect(await uploads(viewer)).toBe(0);
+      expect(await uploads(tuner)).toBe(1);
+    }
+  });
+
   it('a signed link stops working when expired or tampered with', async () => {
     const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2);
     const tuner = await tunerOf(job.id);
@@ -234,6 +253,15 @@ describe('revisions and the job flow', () => {
     expect((await request(t.app).get(tampered)).status).toBe(403);
     const laterExp = link.replace(/exp=\d+/, `exp=${Number(url.searchParams.get('exp')) + 86_400}`);
     expect((await request(t.app).get(laterExp)).status).toBe(403);
+    // Signed with the app's own key but dated 2099: refused, expiry is capped at the 7-day link lifetime.
+    const fileId = url.pathname.split('/')[3]!;
+    const shop = url.searchParams.get('shop')!;
+    const exp2099 = Math.floor(Date.parse('2099-01-01T00:00:00Z') / 1000);
+    const farSig = signFileLink(t.env.FILE_LINK_SECRET, { shopId: shop, fileId, exp: exp2099 });
+    expect((await request(t.app).get(`/api/files/${fileId}/download?shop=${shop}&exp=${exp2099}&sig=${farSig}`)).status).toBe(403);
+    // The development key that used to be a constant in the source signs nothing any more.
+    const oldKeySig = signFileLink('revloop-development-file-link-secret-not-for-production', { shopId: shop, fileId, exp: Number(url.searchParams.get('exp')) });
+    expect((await request(t.app).get(link.replace(`sig=${sig}`, `sig=${oldKeySig}`))).status).toBe(403);
     expect((await request(t.app).get(link)).status).toBe(200);
     t.clock.advance(7 * 86_400_000 + 1000);
     const expired = await request(t.app).get(link);

@@ -29,6 +29,7 @@ import {
   postJobMessage,
   takeJob,
 } from './job.service';
+import { timelineFor } from './timeline';
 
 const stateList = z
   .string()
@@ -63,14 +64,6 @@ function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobL
 
 const transitionSchema = z.object({ to: z.enum(JOB_STATES) });
 const assignSchema = z.object({ tunerId: z.string().min(1).nullable() });
-
-const TIMELINE_TEXT: Record<string, (d: Record<string, unknown>) => string> = {
-  'job.opened': () => 'Job opened',
-  'job.moved': (d) => `Moved from ${JOB_STATE_LABELS[d.from as JobState] ?? d.from} to ${JOB_STATE_LABELS[d.to as JobState] ?? d.to}`,
-  'job.assigned': (d) => (d.tunerId ? 'Tuner assigned' : 'Tuner unassigned'),
-  'job.taken': () => 'Taken by a tuner',
-  'job.log_request_changed': () => 'Log request changed',
-};
 
 /** Resolves when the response takes more data again, or when the client has gone. */
 function drained(res: Response): Promise<void> {
@@ -137,13 +130,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     const job = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'read', 'Job', jobSubject(job));
     const events = await listAuditEvents(db, auth.shop.id, { subjectType: 'Job', subjectId: job.id, limit: 500 });
-    const timeline = events
-      .map((e) => {
-        const details = JSON.parse(e.details) as Record<string, unknown>;
-        const text = TIMELINE_TEXT[e.action]?.(details) ?? (typeof details.text === 'string' ? details.text : e.action);
-        return { id: e.id, at: e.created_at, action: e.action, actor: e.actor_name, text };
-      })
-      .reverse();
+    const timeline = await timelineFor(db, auth, job, events);
     res.json({ data: { ...jobRowToJob(job, auth.actor, clock.now()), timeline } });
   });
 

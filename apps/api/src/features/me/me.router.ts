@@ -5,11 +5,12 @@ import type { AppDeps } from '../../context';
 import { loadAuthContext, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { toMe } from './me.service';
+import { nameSchema } from '@revloop/domain/text';
 
 const updateMeSchema = z.object({
-  name: z.string().trim().min(1).max(80).optional(),
+  name: nameSchema(1, 80).optional(),
   unitSystem: z.enum(['metric', 'imperial']).optional(),
-});
+}).refine((input) => input.name !== undefined || input.unitSystem !== undefined, 'Nothing to change: send "name" or "unitSystem".');
 
 export function createMeRouter({ db }: AppDeps): Router {
   const router = Router();

@@ -6,8 +6,9 @@ import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
+import { nameSchema } from '@revloop/domain/text';
 
-const patchSchema = z.object({ name: z.string().trim().min(2).max(80).optional(), settings: shopSettingsPatchSchema.optional() });
+const patchSchema = z.object({ name: nameSchema(2, 80).optional(), settings: shopSettingsPatchSchema.optional() });
 
 export function createShopRouter({ db, clock }: AppDeps): Router {
   const router = Router();

@@ -65,7 +65,7 @@ export function AppRoot() {
   }
   if (!me.data && unknownPath) {
     return (
-      <PublicFrame footer={<MailboxLink />}>
+      <PublicFrame>
         <Outlet />
       </PublicFrame>
     );

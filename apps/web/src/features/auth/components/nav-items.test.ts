@@ -41,6 +41,14 @@ describe('canOpen', () => {
   });
 });
 
+describe('the development mailbox', () => {
+  it('opens for a platform admin only (it holds reset links)', () => {
+    expect(canOpen('mailbox', defineAbilityFor(actor(null, { platformAdmin: true, shopId: null })), { role: 'platform_admin' })).toBe(true);
+    for (const role of ['owner', 'tuner', 'dealer', 'customer'] as const) expect(canOpen('mailbox', defineAbilityFor(actor(role)), { role })).toBe(false);
+    expect(canOpen('mailbox', defineAbilityFor(null), { role: null })).toBe(false);
+  });
+});
+
 describe('homePathFor', () => {
   it('sends admins to shops and everyone else to jobs', () => {
     expect(homePathFor(defineAbilityFor(actor(null, { platformAdmin: true, shopId: null })), { role: 'platform_admin' })).toBe('/admin/shops');

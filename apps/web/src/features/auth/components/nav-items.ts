@@ -19,6 +19,7 @@ export const screenAccess = {
   revenue: (ability: AppAbility) => ability.can('manage', 'Platform'),
   billing: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Subscription'),
   statement: (ability: AppAbility, viewer: Viewer) => viewer.role === 'dealer' && ability.can('read', 'Ledger'),
+  mailbox: (ability: AppAbility) => ability.can('read', 'Mailbox'),
 } satisfies Record<string, (ability: AppAbility, viewer: Viewer) => boolean>;
 
 export type Screen = keyof typeof screenAccess;

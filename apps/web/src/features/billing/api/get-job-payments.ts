@@ -28,8 +28,8 @@ export interface JobPayments {
   paidMinor: number;
   refundedMinor: number;
   dueMinor: number;
-  /** A dealer's customer: the dealer paid wholesale from their balance when the job was opened. */
-  paidByDealer: { dealerName: string; amountMinor: number } | null;
+  /** A dealer's customer: the dealer paid wholesale from their balance; the amount only for those who may read that ledger. */
+  paidByDealer: { dealerName: string; amountMinor: number | null } | null;
   payments: JobPayment[];
   canPay: boolean;
   canRefund: boolean;

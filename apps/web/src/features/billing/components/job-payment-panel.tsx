@@ -137,7 +137,9 @@ export function JobPaymentPanel({ jobId, job }: { jobId: string; job?: { state?:
       <div className="flex flex-col gap-4 text-sm">
         {p.paidByDealer ? (
           <p className="text-ink-700">
-            Paid wholesale by {p.paidByDealer.dealerName} from its balance ({money(p.paidByDealer.amountMinor)}).
+            {p.paidByDealer.amountMinor === null
+              ? `Paid by ${p.paidByDealer.dealerName}.`
+              : `Paid wholesale by ${p.paidByDealer.dealerName} from its balance (${money(p.paidByDealer.amountMinor)}).`}
           </p>
         ) : (
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
