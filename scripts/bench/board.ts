@@ -1,6 +1,7 @@
 // Board benchmark: one shop with 10,000 jobs and about 50,000 audit events, served by the real server in a child
 // process on loopback, loaded with autocannon. Measures the board list, the job page's requests, and /api/me while
 // the board is loaded. Run: npx tsx scripts/bench/board.ts [jobs]
+// With BENCH_CPU_PROF=<folder> the server writes a V8 CPU profile there when it stops (open it in Chrome DevTools).
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
@@ -122,7 +123,8 @@ function chunks<T>(items: T[], size: number): T[][] {
 }
 
 async function startServer(dataDir: string, port: number): Promise<ChildProcess> {
-  const proc = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'apps/api/src/server.ts')], {
+  const profile = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(process.env.BENCH_CPU_PROF)}`] : [];
+  const proc = spawn(process.execPath, [...profile, '--import', 'tsx', path.join(ROOT, 'apps/api/src/server.ts')], {
     cwd: ROOT,
     env: {
       PATH: process.env.PATH,
@@ -253,7 +255,8 @@ async function main(): Promise<void> {
     }
     process.exitCode = figures.every((f) => f.ok) ? 0 : 1;
   } finally {
-    server?.kill('SIGTERM');
+    // Waits for the exit, so a CPU profile is written before the data folder goes.
+    if (server && server.exitCode === null) await new Promise((resolve) => server!.once('exit', resolve).kill('SIGTERM'));
     fs.rmSync(dataDir, { recursive: true, force: true });
   }
 }
