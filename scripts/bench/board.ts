@@ -244,11 +244,13 @@ async function main(): Promise<void> {
     figures.push(report(`job page     ${pagePaths.length} requests per page view`, jobPage, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
 
     // /api/me from one signed-in browser while the board list is loaded at the target rate.
-    const [, me] = await Promise.all([
+    const [board, me] = await Promise.all([
       run({ url: base + BOARD_QUERY, headers, overallRate: TARGET_RPS }),
       run({ url: `${base}/api/me`, headers, connections: 1, overallRate: 20 }),
     ]);
-    figures.push(report(`/api/me      while the board list runs at ${TARGET_RPS} req/s`, me, { p99: TARGET_ME_P99_MS }));
+    // Both runs share the server's CPU: the figure per request is over the board's and /api/me's requests together.
+    const shared = { ...me, cpuMs: board.cpuMs, requests: { ...me.requests, total: me.requests.total + board.requests.total } };
+    figures.push(report(`/api/me      while the board list runs at ${TARGET_RPS} req/s`, shared, { p99: TARGET_ME_P99_MS }));
 
     for (const f of figures) {
       console.log(`${f.ok ? 'PASS' : 'FAIL'}  ${f.label}: ${Math.round(f.rps)} req/s, p99 ${f.p99} ms (target ${f.target})`);
