@@ -106,6 +106,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     // Everything the answer depends on besides the data: the viewer (scope, role, transitions) and the parsed query.
     const { userId, role, dealerId, shopReadOnly, platformAdmin } = auth.actor;
     const key = JSON.stringify([auth.shop.id, userId, role, dealerId, shopReadOnly, platformAdmin, q]);
+    // Read before the rows: an answer may be newer than its version tag, never older.
     const version = await jobListVersion(db, auth.shop.id);
     const entry =
       listCache.get(key, version, now.getTime()) ??
