@@ -11,7 +11,7 @@ import type {
 import type { CalibrationFileTable } from './files/calibration-file.table';
 import type { DatalogMappingTable, DatalogTable } from './datalogs/datalog.table';
 import type { DealerTable } from './dealers/dealer.table';
-import type { JobMessageTable, JobStateCountTable, JobTable } from './jobs/job.table';
+import type { JobListVersionTable, JobMessageTable, JobStateCountTable, JobTable } from './jobs/job.table';
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
@@ -33,6 +33,7 @@ export interface Database {
   packages: PackageTable;
   jobs: JobTable;
   job_state_counts: JobStateCountTable;
+  job_list_versions: JobListVersionTable;
   job_messages: JobMessageTable;
   notifications: NotificationTable;
   datalogs: DatalogTable;

@@ -1,6 +1,7 @@
 import type { Request, RequestHandler } from 'express';
 import {
   findMembershipOfUser,
+  findSessionContext,
   findShopById,
   findShopSubscription,
   findUserById,
@@ -17,9 +18,10 @@ import { readCookie } from './cookies';
 import type { Clock } from './clock';
 import {
   SESSION_COOKIE,
+  checkSession,
+  hashToken,
   invalidateSession,
   sessionCookie,
-  validateSessionToken,
   type SessionPolicy,
 } from '../features/auth/session.service';
 
@@ -63,15 +65,23 @@ export async function loadAuthContext(
 ): Promise<AuthContext | null> {
   const user = await findUserById(db, userId);
   if (!user) return null;
-  let membership: MembershipRow | null = null;
-  let shop: ShopRow | null = null;
-  if (shopId) {
-    membership = (await findMembershipOfUser(db, shopId, userId)) ?? null;
-    if (!membership || membership.status !== 'active') return null;
-    shop = (await findShopById(db, shopId)) ?? null;
-    if (!shop) return null;
-  }
-  const billing = shop ? await findShopSubscription(db, shop.id) : undefined;
+  const membership = shopId ? ((await findMembershipOfUser(db, shopId, userId)) ?? null) : null;
+  const shop = shopId && membership ? ((await findShopById(db, shopId)) ?? null) : null;
+  const billing = shop ? ((await findShopSubscription(db, shop.id)) ?? null) : null;
+  return authContextOf(sessionId, shopId, { user, membership, shop, billing });
+}
+
+/** The context of a user in a shop (or none): null when the shop session no longer has an active member or shop. */
+function authContextOf(
+  sessionId: string,
+  shopId: string | null,
+  rows: { user: UserRow; membership: MembershipRow | null; shop: ShopRow | null; billing: ShopSubscriptionRow | null },
+): AuthContext | null {
+  const { user } = rows;
+  const membership = shopId ? rows.membership : null;
+  const shop = shopId ? rows.shop : null;
+  if (shopId && (!membership || membership.status !== 'active' || !shop)) return null;
+  const billing = shop ? (rows.billing ?? undefined) : undefined;
   const actor = buildActor(user, membership, shop, billing);
   const readOnlyReason = !shop
     ? null
@@ -83,14 +93,16 @@ export async function loadAuthContext(
   return { sessionId, user, shop, membership, actor, readOnlyReason, ability: defineAbilityFor(actor) };
 }
 
-/** Reads the session cookie on every request; a renewed session gets a fresh cookie. */
+/** Reads the session cookie on every request (one joined query); a renewed session gets a fresh cookie. */
 export function sessionMiddleware(deps: { db: Db; clock: Clock; policy: SessionPolicy; secureCookies: boolean }): RequestHandler {
   return async (req, res, next) => {
     const token = readCookie(req.headers.cookie, SESSION_COOKIE);
     if (!token) return next();
-    const result = await validateSessionToken(deps.db, deps.policy, token, deps.clock.now());
+    const rows = await findSessionContext(deps.db, hashToken(token));
+    if (!rows) return next();
+    const result = await checkSession(deps.db, deps.policy, rows.session, deps.clock.now());
     if (!result) return next();
-    const auth = await loadAuthContext(deps.db, result.session.id, result.session.user_id, result.session.shop_id);
+    const auth = authContextOf(result.session.id, result.session.shop_id, rows);
     if (!auth) {
       await invalidateSession(deps.db, result.session.id);
       return next();

@@ -3,7 +3,7 @@ import { newId, nowIso } from '../ids';
 import { insertPackage } from '../packages/package.repository';
 import { twoShops } from '../testing/two-shops';
 import { insertVehicle } from '../vehicles/vehicle.repository';
-import { findJob, insertJob, listJobs, updateJob } from './job.repository';
+import { findJob, insertJob, jobListVersion, listJobs, updateJob } from './job.repository';
 
 async function jobIn(db: Awaited<ReturnType<typeof twoShops>>['db'], shopId: string, customerId: string, tunerId: string | null) {
   const at = nowIso();
@@ -54,5 +54,28 @@ describe('job repository', () => {
     const job = await jobIn(db, shopB, ownerB, null);
     expect(await updateJob(db, shopB, job.id, { state: 'on_bench' }, 'intake')).toBeUndefined();
     expect((await updateJob(db, shopB, job.id, { state: 'on_bench' }, 'ready'))?.state).toBe('on_bench');
+  });
+});
+
+describe('job list version', () => {
+  it('moves with every write a job list shows, only in the shops the write touches', async () => {
+    const { db, shopA, shopB, ownerA, ownerB } = await twoShops();
+    const versions = async () => [await jobListVersion(db, shopA), await jobListVersion(db, shopB)];
+    const job = await jobIn(db, shopB, ownerB, null);
+    const [a0, b0] = await versions();
+    await updateJob(db, shopB, job.id, { state: 'on_bench' });
+    const [a1, b1] = await versions();
+    expect([a1, b1]).toEqual([a0, b0! + 1]);
+    // Names shown on the list live in other tables: a rename moves the version of the shops it shows in.
+    await db.updateTable('packages').set({ name: 'Stage 2' }).where('id', '=', job.package_id).execute();
+    await db.updateTable('vehicles').set({ description: 'Test coupe, rebuilt' }).where('id', '=', job.vehicle_id).execute();
+    await db.updateTable('users').set({ name: 'B. Owner' }).where('id', '=', ownerB).execute();
+    expect(await versions()).toEqual([a0, b1! + 3]);
+    await db.updateTable('users').set({ name: 'A. Owner' }).where('id', '=', ownerA).execute();
+    expect(await versions()).toEqual([a0! + 1, b1! + 3]);
+    // A column no list shows leaves the version alone.
+    await db.updateTable('users').set({ last_sign_in_at: nowIso() }).where('id', '=', ownerB).execute();
+    await db.deleteFrom('jobs').where('id', '=', job.id).execute();
+    expect(await versions()).toEqual([a0! + 1, b1! + 4]);
   });
 });

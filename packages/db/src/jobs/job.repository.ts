@@ -185,6 +185,12 @@ export async function findJob(db: Db, shopId: string, id: string, scope: JobScop
   return withNames(filtered(db, shopId, scope)).where('jobs.id', '=', id).executeTakeFirst() as Promise<JobListRow | undefined>;
 }
 
+/** The shop's job list version: it changes with every write to a job or to a name a list shows (0 before any). */
+export async function jobListVersion(db: Db, shopId: string): Promise<number> {
+  const row = await db.selectFrom('job_list_versions').select('version').where('shop_id', '=', shopId).executeTakeFirst();
+  return row?.version ?? 0;
+}
+
 export async function nextJobNumber(db: Db, shopId: string): Promise<number> {
   const row = await db
     .selectFrom('jobs')

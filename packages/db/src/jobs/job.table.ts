@@ -48,3 +48,9 @@ export interface JobStateCountTable {
   state: JobState;
   n: number;
 }
+
+/** A per-shop counter bumped by triggers on every write a job list shows (migration 012): equal versions, equal lists. */
+export interface JobListVersionTable {
+  shop_id: string;
+  version: number;
+}

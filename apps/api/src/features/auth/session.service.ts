@@ -5,7 +5,6 @@ import {
   deleteSession,
   deleteUserSessions,
   extendSession,
-  findSession,
   insertSession,
   type Db,
   type SessionRow,
@@ -44,26 +43,23 @@ export async function createSession(
   return { token, session };
 }
 
-/** Returns the live session for a cookie token, sliding its idle expiry forward once half of it has passed. */
-export async function validateSessionToken(
+/** Ends an expired session, or slides a live one's idle expiry forward once half of it has passed. */
+export async function checkSession(
   db: Db,
   policy: SessionPolicy,
-  token: string,
+  session: SessionRow,
   now: Date,
 ): Promise<{ session: SessionRow; renewed: boolean } | null> {
-  const id = hashToken(token);
-  const session = await findSession(db, id);
-  if (!session) return null;
   const t = now.getTime();
   if (t >= session.expires_at || t >= session.absolute_expires_at) {
-    await deleteSession(db, id);
+    await deleteSession(db, session.id);
     return null;
   }
   const idleMs = policy.idleDays * DAY_MS;
   if (session.expires_at - t < idleMs / 2) {
     const expiresAt = Math.min(t + idleMs, session.absolute_expires_at);
     if (expiresAt > session.expires_at) {
-      await extendSession(db, id, expiresAt);
+      await extendSession(db, session.id, expiresAt);
       return { session: { ...session, expires_at: expiresAt }, renewed: true };
     }
   }

@@ -94,6 +94,23 @@ export function jobRowToJob(row: JobListRow, actor: Actor, now: Date) {
 }
 export type ApiJob = ReturnType<typeof jobRowToJob>;
 
+/**
+ * The first moment (epoch ms) at which `jobRowToJob` would answer differently for this row with nothing written:
+ * its rounded hours in state tick every six minutes and it turns stale once past its state's limit.
+ */
+export function jobAnswerChangesAt(row: Pick<JobRow, 'state' | 'state_changed_at'>, now: Date): number {
+  const changed = Date.parse(row.state_changed_at);
+  const tenths = (now.getTime() - changed) / 360_000;
+  // Math.round moves to the next tenth when the tenths pass the next half; a millisecond early stays on the safe side.
+  let at = changed + (Math.floor(tenths + 0.5) + 0.5) * 360_000 - 1;
+  const staleAfter = staleAfterHours(row.state);
+  if (staleAfter !== null) {
+    const staleAt = changed + staleAfter * 3_600_000;
+    if (staleAt >= now.getTime()) at = Math.min(at, staleAt);
+  }
+  return at;
+}
+
 /** Loads a job the signed-in user may see; anything else, in this shop or another, is a 404. */
 export async function loadJob(db: Db, auth: AuthContext & { shop: { id: string } }, jobId: string): Promise<JobListRow> {
   const row = await findJob(db, auth.shop.id, jobId, jobScopeFor(auth.actor));

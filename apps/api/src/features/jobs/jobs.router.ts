@@ -5,6 +5,7 @@ import {
   findJob,
   listAuditEvents,
   listJobMessages,
+  jobListVersion,
   listJobs,
   updateJob,
   type JobListFilter,
@@ -21,6 +22,7 @@ import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
 import {
   assignJob,
+  jobAnswerChangesAt,
   jobRowToJob,
   jobSubject,
   loadJob,
@@ -29,6 +31,7 @@ import {
   postJobMessage,
   takeJob,
 } from './job.service';
+import { JobListCache } from './job-list-cache';
 import { timelineFor } from './timeline';
 
 const stateList = z
@@ -81,22 +84,36 @@ function drained(res: Response): Promise<void> {
 export function createJobsRouter(deps: AppDeps): Router {
   const router = Router();
   const { db, clock } = deps;
+  const listCache = new JobListCache();
 
   router.get('/', async (req, res) => {
     const auth = requireShop(req);
     authorize(auth, 'read', 'Job');
     const q = parseInput(listQuerySchema, req.query);
-    const { rows, total } = await listJobs(db, auth.shop.id, jobScopeFor(auth.actor), filterFrom(q, auth), {
-      sort: q.sort,
-      direction: q.dir,
-      offset: (q.page - 1) * q.pageSize,
-      limit: q.pageSize,
-    });
     const now = clock.now();
-    res.json({
-      data: rows.map((r) => jobRowToJob(r, auth.actor, now)),
-      meta: { total, page: q.page, pageSize: q.pageSize, pageCount: Math.max(1, Math.ceil(total / q.pageSize)) },
-    });
+    // Everything the answer depends on besides the data: the viewer (scope, role, transitions) and the parsed query.
+    const { userId, role, dealerId, shopReadOnly, platformAdmin } = auth.actor;
+    const key = JSON.stringify([auth.shop.id, userId, role, dealerId, shopReadOnly, platformAdmin, q]);
+    // Read before the rows: an answer may be newer than its version tag, never older.
+    const version = await jobListVersion(db, auth.shop.id);
+    const entry =
+      listCache.get(key, version, now.getTime()) ??
+      (await (async () => {
+        const { rows, total } = await listJobs(db, auth.shop.id, jobScopeFor(auth.actor), filterFrom(q, auth), {
+          sort: q.sort,
+          direction: q.dir,
+          offset: (q.page - 1) * q.pageSize,
+          limit: q.pageSize,
+        });
+        const body = JSON.stringify({
+          data: rows.map((r) => jobRowToJob(r, auth.actor, now)),
+          meta: { total, page: q.page, pageSize: q.pageSize, pageCount: Math.max(1, Math.ceil(total / q.pageSize)) },
+        });
+        const until = rows.reduce((at, r) => Math.min(at, jobAnswerChangesAt(r, now)), Number.POSITIVE_INFINITY);
+        return listCache.set(key, version, now.getTime(), until, body);
+      })());
+    // Express answers 304 itself when the client sends this ETag back.
+    res.set('Content-Type', 'application/json; charset=utf-8').set('ETag', entry.etag).send(entry.body);
   });
 
   router.get('/export.csv', async (req, res) => {
