@@ -145,7 +145,7 @@ const VEHICLES: Array<Omit<VehicleInput, 'vin' | 'vinCheckDigitOverride'> & { vi
     revLimitRpm: 6700,
   },
   {
-    vinStem: '5RL4Q6PL?RK',
+    vinStem: '5RL4U6PL?RK',
     modelYear: 2019,
     description: 'Hot hatch, 1.6 turbo I4, 6-speed manual',
     engine: { displacementL: 1.6, cylinders: 4, aspiration: 'turbocharged', family: '1.6 turbo I4' },
