@@ -21,7 +21,7 @@ else
 fi
 echo "Building the web app…"
 npm run build -w @revloop/web --silent -- --logLevel warn
-node scripts/build-node.mjs
+node apps/api/scripts/build-node.mjs
 npx tsx apps/api/src/server.ts &
 server=$!
 trap 'kill "$server" 2>/dev/null' INT TERM EXIT

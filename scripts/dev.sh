@@ -5,7 +5,7 @@ cd "$(dirname "$0")/.."
 bash scripts/ensure-deps.sh
 export NODE_ENV=development PORT="${PORT:-8080}" DATA_DIR="${DATA_DIR:-./data}" APP_ORIGIN="${APP_ORIGIN:-http://localhost:5173}"
 [ -f "$DATA_DIR/revloop.db" ] || npx tsx seeds/reset-demo.ts
-node scripts/build-node.mjs
+node apps/api/scripts/build-node.mjs
 npx tsx watch apps/api/src/server.ts &
 api=$!
 trap 'kill "$api" 2>/dev/null' INT TERM EXIT

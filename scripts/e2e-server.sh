@@ -12,5 +12,5 @@ export SMTP_PORT=0
 export LOG_LEVEL=warn
 rm -rf "$DATA_DIR"
 npx tsx seeds/reset-demo.ts
-node scripts/build-node.mjs
+node apps/api/scripts/build-node.mjs
 exec npx tsx apps/api/src/server.ts

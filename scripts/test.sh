@@ -7,7 +7,7 @@ bash scripts/ensure-chromium.sh
 mkdir -p .tmp
 rm -f .tmp/vitest.json .tmp/playwright.json
 
-echo "== compile the CLI and datalog workers"; node scripts/build-node.mjs
+echo "== compile the CLI and datalog workers"; node apps/api/scripts/build-node.mjs
 echo "== typecheck"; npm run -s typecheck
 echo "== lint"; npm run -s lint
 echo "== unit and API tests"

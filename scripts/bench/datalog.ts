@@ -188,7 +188,7 @@ async function main(): Promise<void> {
       `logs: 1,000,000 rows × ${header.split(',').length} channels (${(statSync(large).size / 1e6).toFixed(1)} MB), 20,000 rows (${(statSync(small).size / 1e6).toFixed(1)} MB)`,
     );
     // Built once up front, so no run pays for a build.
-    execFileSync(process.execPath, [join(ROOT, 'scripts/build-node.mjs')], { stdio: 'inherit', cwd: ROOT });
+    execFileSync(process.execPath, [join(ROOT, 'apps/api/scripts/build-node.mjs')], { stdio: 'inherit', cwd: ROOT });
 
     const pandas = pandasReady();
     if (!pandas)

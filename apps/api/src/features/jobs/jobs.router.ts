@@ -14,7 +14,7 @@ import { DomainError } from '@revloop/domain';
 import { asSubject, jobScopeFor } from '@revloop/domain/auth';
 import { csvLine } from '@revloop/domain/csv';
 import { logRequestSchema } from '@revloop/domain/datalog';
-import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema, type JobState } from '@revloop/domain/jobs';
+import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';

@@ -16,7 +16,7 @@ export type AnalyzeMessage =
   | { type: 'done'; report: DatalogReport }
   | { type: 'error'; code: DomainErrorCode | null; message: string };
 
-// A plain .mjs entry: it runs the job compiled to JavaScript (scripts/build-node.mjs), under tsx, vitest or node.
+// A plain .mjs entry: it runs the job compiled to JavaScript (apps/api/scripts/build-node.mjs), under tsx, vitest or node.
 const WORKER_ENTRY = new URL('./analyze-file.worker.mjs', import.meta.url);
 
 /**

@@ -2,8 +2,8 @@
 // JavaScript with esbuild into apps/api/dist/node, so nothing compiles TypeScript at run time. Rebuilds only when a
 // source file (or the lock file) is newer than the last build; concurrent builds are safe (files are renamed in).
 //
-//   node scripts/build-node.mjs                 build when stale (npm test, demo and the e2e server call this)
-//   node scripts/build-node.mjs run NAME ARGS   build when stale, then run the entry NAME with ARGS (npm run analyze)
+//   node apps/api/scripts/build-node.mjs                 build when stale (npm test, demo and the e2e server call this)
+//   node apps/api/scripts/build-node.mjs run NAME ARGS   build when stale, then run the entry NAME with ARGS (npm run analyze)
 // Messages go to stderr only: `npm run -s analyze` prints nothing but the report on stdout.
 import {
   mkdirSync,
@@ -17,7 +17,7 @@ import {
 import { dirname, join, relative } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const root = join(dirname(fileURLToPath(import.meta.url)), '../../..');
 export const BUILD_DIR = join(root, 'apps/api/dist/node');
 const ENTRIES = {
   analyze: 'apps/api/src/cli/analyze.ts',
@@ -98,7 +98,7 @@ if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.a
     process.argv = [process.argv[0], builtPath(name), ...args];
     await import(pathToFileURL(builtPath(name)).href);
   } else if (command !== undefined) {
-    process.stderr.write('usage: node scripts/build-node.mjs [run NAME ARGS...]\n');
+    process.stderr.write('usage: node apps/api/scripts/build-node.mjs [run NAME ARGS...]\n');
     process.exit(2);
   }
 }
