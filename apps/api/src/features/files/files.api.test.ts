@@ -226,14 +226,15 @@ describe('revisions and the job flow', () => {
 
   it('the customer’s and the dealer’s timelines leave out revisions not sent yet, as their files list does', async () => {
     for (const [dealerSide, viewerEmail] of [[false, null], [true, 'dealer@kestrel.test']] as const) {
-      const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2 && (j.dealerId !== null) === dealerSide);
+      const job = kestrelJob('on_bench', (j) => j.modules.length === 2 && (j.dealerId !== null) === dealerSide);
       const tuner = await tunerOf(job.id);
-      // One module of two: the revision waits as a draft, unseen by the customer side.
-      expect((await upload(tuner, job.id, rawImage(7), 'ecm-draft.bin', { module: 'ECM', kind: 'revision' })).status).toBe(201);
       const viewer = await signIn(t.app, viewerEmail ?? (await emailOf(job.customerUserId)));
       const uploads = async (agent: ReturnType<typeof request.agent>) =>
-        (await agent.get(`/api/jobs/${job.id}`)).body.data.timeline.filter((e: { text: string }) => /^Revision \d+ \(ECM\) uploaded/.test(e.text)).length;
-      expect((await viewer.get(`/api/jobs/${job.id}/files`)).body.data.filter((f: { kind: string; module: string; revisionNumber: number | null }) => f.kind === 'revision' && f.module === 'ECM' && f.revisionNumber === 1)).toEqual([]);
+        (await agent.get(`/api/jobs/${job.id}`)).body.data.timeline.filter((e: { text: string }) => new RegExp(`^Revision ${job.round + 1} \\(ECM\\) uploaded`).test(e.text)).length;
+      expect(await uploads(tuner)).toBe(0);
+      // One module of two: the revision waits as a draft, unseen by the customer side.
+      expect((await upload(tuner, job.id, rawImage(7), 'ecm-draft.bin', { module: 'ECM', kind: 'revision' })).status).toBe(201);
+      expect((await viewer.get(`/api/jobs/${job.id}/files`)).body.data.filter((f: { kind: string; module: string; revisionNumber: number | null }) => f.kind === 'revision' && f.module === 'ECM' && f.revisionNumber === job.round + 1)).toEqual([]);
       expect(await uploads(viewer)).toBe(0);
       expect(await uploads(tuner)).toBe(1);
     }
