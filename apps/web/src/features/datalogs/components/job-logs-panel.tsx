@@ -134,8 +134,10 @@ function UploadForm({ jobId, job, requestShown }: { jobId: string; job: JobLogsP
   );
 }
 
-/** The job page's datalog panel: upload a log, see its checks at once, open the report. */
-/** `requestShown`: the page already shows the log request (the job page), so the upload form does not repeat it. */
+/**
+ * The job page's datalog panel: upload a log, see its checks at once, open the report.
+ * `requestShown`: the page already shows the log request (the job page), so the upload form does not repeat it.
+ */
 export function JobLogsPanel({ jobId, job, requestShown = false }: { jobId: string; job: JobLogsPanelJob; requestShown?: boolean }) {
   const ability = useAbility<AppAbility>();
   const logs = useJobDatalogs(jobId);
