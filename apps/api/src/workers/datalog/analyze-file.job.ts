@@ -8,9 +8,9 @@ const port = parentPort;
 if (port === null) throw new Error('analyze-file.job runs only as a worker thread.');
 const post = (message: AnalyzeMessage) => port.postMessage(message);
 
-// The job arrives as a message, not as workerData: the thread may have been started before there was a log.
-// One job per thread: the thread ends after it, so a 90 MB log's memory goes with it.
-port.once('message', ({ filePath, options }: AnalyzeJob) => {
+// Jobs arrive as messages, not as workerData: the thread may have been started before there was a log. The parent
+// keeps a thread for the next log after a small one and ends it after a large one (analyze-file.ts).
+port.on('message', ({ filePath, options }: AnalyzeJob) => {
   try {
     const report = readCsvFile(filePath, (log) =>
       analyzeDatalog(log, {

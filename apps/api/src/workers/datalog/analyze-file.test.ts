@@ -39,6 +39,16 @@ describe('analyzeFileInWorker', () => {
     await expect(analyzeFileInWorker(join(dir, 'missing.csv'))).rejects.toThrow(/ENOENT/);
   });
 
+  it('a thread kept warm after a small log serves the next ones with nothing left over from the last', async () => {
+    const other = join(dir, 'other.csv');
+    const otherText = generateLog({ pulls: [{ gears: [3] }], trimErrors: [{ rpm: [2000, 2500], map: [40, 50], trimPct: 6 }] }).text;
+    writeFileSync(other, otherText);
+    const expected = analyzeDatalog(new TextEncoder().encode(otherText), { vehicle: DEMO_VEHICLE });
+    // A refused file in between: the thread that answered it is reused too.
+    await expect(analyzeFileInWorker(join(dir, 'empty.csv'))).rejects.toThrow('The file is empty.');
+    for (let i = 0; i < 3; i++) expect(await analyzeFileInWorker(other, { vehicle: DEMO_VEHICLE })).toEqual(expected);
+  });
+
   it('works when the parent itself runs under tsx, as the API does', async () => {
     const root = resolve(import.meta.dirname, '../../../../..');
     const script = join(dir, 'under-tsx.mts');

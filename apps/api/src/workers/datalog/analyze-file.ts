@@ -1,3 +1,4 @@
+import { statSync } from 'node:fs';
 import os from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { DomainError, type DomainErrorCode } from '@revloop/domain';
@@ -25,10 +26,8 @@ const WORKER_ENTRY = new URL('./analyze-file.worker.mjs', import.meta.url);
  */
 let spare: { worker: Worker; drop: () => void } | undefined;
 
-/** Starts the spare thread unless one is waiting; the server calls it at start, each analysis after it ends. */
-export function warmAnalysisWorker(): void {
-  if (spare) return;
-  const worker = new Worker(WORKER_ENTRY);
+/** Makes `worker` the spare: it waits unreferenced, so it never keeps the process alive. */
+function keepAsSpare(worker: Worker): void {
   worker.unref();
   const drop = () => {
     if (spare?.worker === worker) spare = undefined;
@@ -36,6 +35,25 @@ export function warmAnalysisWorker(): void {
   worker.on('error', drop);
   worker.on('exit', drop);
   spare = { worker, drop };
+}
+
+/** Starts the spare thread unless one is waiting; the server calls it at start, each analysis after it ends. */
+export function warmAnalysisWorker(): void {
+  if (!spare) keepAsSpare(new Worker(WORKER_ENTRY));
+}
+
+/**
+ * Logs below this size leave their thread as the spare, its compiled code still hot, so the next log of a busy shop
+ * skips the cold start; after a larger log the thread ends and its memory goes with it.
+ */
+const REUSE_BELOW_BYTES = 16 * 1024 * 1024;
+
+function release(worker: Worker, fileBytes: number): void {
+  worker.removeAllListeners('message');
+  worker.removeAllListeners('error');
+  worker.removeAllListeners('exit');
+  if (spare || fileBytes >= REUSE_BELOW_BYTES) void worker.terminate();
+  else keepAsSpare(worker);
 }
 
 function takeWorker(): Worker {
@@ -75,11 +93,13 @@ export function analyzeFileInWorker(
   options: WorkerAnalyzeOptions = {},
   onProgress?: (fraction: number) => void,
 ): Promise<DatalogReport> {
-  return withSlot(() => runWorker(filePath, options, onProgress)).finally(warmAnalysisWorker);
+  const fileBytes = statSync(filePath, { throwIfNoEntry: false })?.size ?? Infinity;
+  return withSlot(() => runWorker(filePath, fileBytes, options, onProgress)).finally(warmAnalysisWorker);
 }
 
 function runWorker(
   filePath: string,
+  fileBytes: number,
   options: WorkerAnalyzeOptions,
   onProgress?: (fraction: number) => void,
 ): Promise<DatalogReport> {
@@ -93,11 +113,16 @@ function runWorker(
       settled = true;
       fn();
     };
+    // The thread answered (a report or a refusal of the file): it is healthy and may serve the next log.
+    const answered = (fn: () => void) => {
+      if (!settled) release(worker, fileBytes);
+      settle(fn);
+    };
     worker.on('message', (message: AnalyzeMessage) => {
       if (message.type === 'progress') onProgress?.(message.fraction);
-      else if (message.type === 'done') settle(() => resolve(message.report));
+      else if (message.type === 'done') answered(() => resolve(message.report));
       else
-        settle(() =>
+        answered(() =>
           reject(
             message.code === null
               ? new Error(message.message)
