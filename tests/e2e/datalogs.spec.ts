@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Locator, type Page } from '@playwright/test';
-import { generateLog } from '@revloop/domain/datalog/testing';
+import { KNOCKING_DRIVE, generateLog } from '@revloop/domain/datalog/testing';
 import { signIn } from './support';
 
 /** The first job in this state that the signed-in user can see, through the same API the app uses. */
@@ -73,21 +73,14 @@ test('the tuner states a column unit and the AFR scale, and the log is checked a
 });
 
 // A drive with one full-throttle pull and a knock burst in it, so the chart has a pull to shade and knock to mark.
-const KNOCKING_DRIVE = generateLog({
-  rateHz: 10,
-  warmupS: 320,
-  cruiseS: 90,
-  pulls: [{ gears: [3] }],
-  knock: [{ pull: 0, atFraction: 0.5, peakDeg: 4 }],
-  gearChannel: true,
-}).text;
+const KNOCKING_LOG = generateLog(KNOCKING_DRIVE).text;
 
 /** Uploads the knocking drive to the last job in log review (which already has a log) and waits until it is read. */
 async function openKnockingLog(page: Page): Promise<string> {
   const res = await page.request.get('/api/jobs?state=log_review&sort=number&dir=desc');
   const job = (await res.json()).data[0];
   const upload = await page.request.post(`/api/jobs/${job.id}/datalogs`, {
-    multipart: { file: { name: 'pull-with-knock.csv', mimeType: 'text/csv', buffer: Buffer.from(KNOCKING_DRIVE) } },
+    multipart: { file: { name: 'pull-with-knock.csv', mimeType: 'text/csv', buffer: Buffer.from(KNOCKING_LOG) } },
   });
   expect(upload.status()).toBe(202);
   const id: string = (await upload.json()).data.id;

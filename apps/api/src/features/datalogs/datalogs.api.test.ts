@@ -3,7 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CANONICAL_CHANNELS } from '@revloop/domain/datalog';
-import { generateLog } from '@revloop/domain/datalog/testing';
+import { KNOCKING_DRIVE, generateLog } from '@revloop/domain/datalog/testing';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 
 type Agent = Awaited<ReturnType<typeof signIn>>;
@@ -19,15 +19,7 @@ afterAll(async () => {
   fs.rmSync(scratch, { recursive: true, force: true });
 });
 
-/** A short generated drive: warm-up past the requested five minutes, one pull, a knock burst. */
-const drive = generateLog({
-  rateHz: 10,
-  warmupS: 320,
-  cruiseS: 90,
-  pulls: [{ gears: [3] }],
-  knock: [{ pull: 0, atFraction: 0.5, peakDeg: 4 }],
-  gearChannel: true,
-}).text;
+const drive = generateLog(KNOCKING_DRIVE).text;
 
 const customerJob = (state: string) =>
   t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.state === state && j.customerUserId === t.ids.kestrel.customerIds[0] && j.dealerId === null)!;

@@ -461,3 +461,13 @@ export function generateLog(options: GenerateLogOptions = {}): GeneratedLog {
     text += next.value;
   }
 }
+
+/** A short drive for tests: warm-up past five minutes, one full-throttle pull in third gear with a knock burst in it. */
+export const KNOCKING_DRIVE: Readonly<GenerateLogOptions> = {
+  rateHz: 10,
+  warmupS: 320,
+  cruiseS: 90,
+  pulls: [{ gears: [3] }],
+  knock: [{ pull: 0, atFraction: 0.5, peakDeg: 4 }],
+  gearChannel: true,
+};
