@@ -1,4 +1,4 @@
-// One-way imports: web → domain (and the API over HTTP); api → db/domain; db → domain; domain → nothing with I/O.
+// One-way imports: web → contract/domain (and the API over HTTP); api → contract/db/domain/stand-ins; contract → domain; db → domain; domain → nothing with I/O.
 import fs from 'node:fs';
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
@@ -37,10 +37,12 @@ const featureNames = fs
 
 // Zones are folders resolved from this file, so the rules bite however deep a relative path climbs.
 const ZONES = [
-  { target: 'packages/domain', from: ['packages/db', 'apps', 'seeds', 'scripts'], message: 'packages/domain imports nothing outside itself.' },
-  { target: 'packages/db', from: ['apps', 'seeds', 'scripts'], message: 'packages/db imports only packages/domain.' },
+  { target: 'packages/domain', from: ['packages/db', 'packages/contract', 'packages/stand-ins', 'apps', 'seeds', 'scripts'], message: 'packages/domain imports nothing outside itself.' },
+  { target: 'packages/contract', from: ['packages/db', 'packages/stand-ins', 'apps', 'seeds', 'scripts'], message: 'packages/contract imports only packages/domain.' },
+  { target: 'packages/stand-ins', from: ['packages/db', 'packages/domain', 'packages/contract', 'apps', 'seeds', 'scripts'], message: 'packages/stand-ins imitate hosted services and know nothing of Revloop.' },
+  { target: 'packages/db', from: ['apps', 'seeds', 'scripts', 'packages/contract', 'packages/stand-ins'], message: 'packages/db imports only packages/domain.' },
   { target: 'apps/api', from: ['apps/web', 'scripts'], message: 'apps/api imports only packages/db and packages/domain.' },
-  { target: 'apps/web', from: ['apps/api', 'packages/db', 'seeds', 'scripts'], message: 'apps/web imports only packages/domain; it reaches the API over /api.' },
+  { target: 'apps/web', from: ['apps/api', 'packages/db', 'packages/stand-ins', 'seeds', 'scripts'], message: 'apps/web imports only packages/contract and packages/domain; it reaches the API over /api.' },
   {
     target: ['apps/web/src/components', 'apps/web/src/lib', 'apps/web/src/config'],
     from: ['apps/web/src/features', 'apps/web/src/app'],

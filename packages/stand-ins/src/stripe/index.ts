@@ -1,0 +1,1 @@
+// Filled when the payment stand-in moves here from apps/api/src/fakes.
