@@ -1,7 +1,8 @@
 import express, { Router, type Response } from 'express';
-import { formatAmount, payCheckoutSession } from './stripe-fake.billing';
-import type { FakeCheckoutSession } from './stripe-fake.objects';
-import type { FakeState } from './stripe-fake.state';
+import { payCheckoutSession } from './checkout-sessions';
+import { formatAmount } from './money';
+import type { FakeCheckoutSession } from './objects';
+import type { FakeState } from './state';
 
 const PAYING_CARD = '4242 4242 4242 4242';
 const DECLINING_CARD = '4000 0000 0000 0002';
@@ -34,7 +35,7 @@ function page(title: string, body: string): string {
 </style>
 </head>
 <body>
-<p class="notice"><strong>Local test payment page.</strong> This is Revloop's development stand-in for a hosted payment page. No real card is charged and no money moves.</p>
+<p class="notice"><strong>Local test payment page.</strong> This is a development stand-in for a hosted payment page. No real card is charged and no money moves.</p>
 ${body}
 </body>
 </html>`;

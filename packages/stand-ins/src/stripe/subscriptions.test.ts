@@ -1,6 +1,6 @@
 import type Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createMonthlyPrice, startHarness, type Harness } from './stripe-fake.test-support';
+import { createMonthlyPrice, startHarness, type Harness } from './test-support';
 
 const DAY = 86_400;
 /** A fixed wall clock on the 31st, so only advanceTime moves fake time and month ends get clamped. */

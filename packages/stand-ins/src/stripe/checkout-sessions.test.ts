@@ -1,6 +1,6 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, WEBHOOK_SECRET, type Harness } from './stripe-fake.test-support';
+import { startHarness, WEBHOOK_SECRET, type Harness } from './test-support';
 
 let h: Harness;
 beforeAll(async () => {
