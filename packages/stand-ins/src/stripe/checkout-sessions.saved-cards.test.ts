@@ -119,6 +119,10 @@ describe('stand-in: Checkout in payment mode with a manual-capture hold', () => 
       payment_intent_data: { capture_method: 'manual', metadata: { rental: 'r_3' } },
       success_url: 'http://127.0.0.1:5173/rentals/3',
     });
+    const page = await h.http().get(`/checkout/${session.id}`);
+    expect(page.text).toContain('Authorise a hold');
+    expect(page.text).toContain('Held on your card');
+    expect(page.text).toContain('250.00 USD');
     expect((await h.submitCheckout(session.id)).status).toBe(303);
 
     const done = await h.stripe.checkout.sessions.retrieve(session.id, { expand: ['payment_intent'] });
