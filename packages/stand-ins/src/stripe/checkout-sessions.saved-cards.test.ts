@@ -1,16 +1,8 @@
 import type Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, WEBHOOK_SECRET, type Harness } from './test-support';
+import { describe, expect, it } from 'vitest';
+import { useHarness, WEBHOOK_SECRET } from './test-support';
 
-let h: Harness;
-beforeAll(async () => {
-  h = await startHarness();
-});
-afterAll(() => h.close());
-beforeEach(() => {
-  h.fake.control.reset();
-  h.receiver.received.length = 0;
-});
+const h = useHarness();
 
 /** Saves a card through Checkout in setup mode, as a booking made weeks ahead would. */
 async function saveCard(card?: string) {

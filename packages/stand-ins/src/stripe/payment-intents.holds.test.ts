@@ -1,6 +1,6 @@
 import Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, WEBHOOK_SECRET, type Harness } from './test-support';
+import { describe, expect, it } from 'vitest';
+import { startHarness, useHarness, WEBHOOK_SECRET } from './test-support';
 
 const HOUR = 3600;
 const DAY = 24 * HOUR;
@@ -9,15 +9,9 @@ const DAY = 24 * HOUR;
 const CUSTOMER_INITIATED_HOLD = 7 * DAY;
 const VISA_MERCHANT_INITIATED_HOLD = 4 * DAY + 18 * HOUR;
 
-let h: Harness;
-beforeAll(async () => {
-  h = await startHarness();
-});
-afterAll(() => h.close());
-beforeEach(() => {
-  h.fake.control.reset();
-  h.receiver.received.length = 0;
-});
+// A fixed wall clock, so only the test clock moves time and the hold windows can be checked to the second.
+const WALL_MS = Date.UTC(2026, 11, 2, 12);
+const h = useHarness({ now: () => WALL_MS });
 
 /** A 250.00 USD deposit held on a test Visa card, the customer present. */
 async function placeHold(amount = 25_000) {
@@ -175,7 +169,7 @@ describe('stand-in: a hold lapses on the test clock', () => {
   });
 
   it('treats a hold as lapsed when the wall clock passed its window, without a test-clock step', async () => {
-    let wallMs = Date.UTC(2026, 11, 2, 12);
+    let wallMs = WALL_MS;
     const own = await startHarness({ now: () => wallMs });
     try {
       const customer = await own.stripe.customers.create({ email: 'renter@owner.test' });
