@@ -1,26 +1,12 @@
 import type Stripe from 'stripe';
 import { describe, expect, it } from 'vitest';
-import { useHarness, WEBHOOK_SECRET } from './test-support';
+import { saveCardThroughCheckout, useHarness, WEBHOOK_SECRET } from './test-support';
 
 const h = useHarness();
 
-/** Saves a card through Checkout in setup mode, as a booking made weeks ahead would. */
-async function saveCard(card?: string) {
-  const customer = await h.stripe.customers.create({ email: 'renter@owner.test' });
-  const session = await h.stripe.checkout.sessions.create({
-    mode: 'setup',
-    customer: customer.id,
-    currency: 'usd',
-    setup_intent_data: { metadata: { booking: 'bk_7' } },
-    success_url: 'http://127.0.0.1:5173/bookings/7?session={CHECKOUT_SESSION_ID}',
-  });
-  const submitted = await h.submitCheckout(session.id, 'pay', card);
-  return { customer, session, submitted };
-}
-
 describe('stand-in: Checkout in setup mode', () => {
   it('saves a card: a succeeded SetupIntent, a PaymentMethod attached to the customer, and checkout.session.completed', async () => {
-    const { customer, session, submitted } = await saveCard();
+    const { customer, session, submitted } = await saveCardThroughCheckout(h);
     expect(session).toMatchObject({ mode: 'setup', status: 'open', payment_status: 'no_payment_required', amount_total: null });
     expect(submitted.status).toBe(303);
 
@@ -43,7 +29,7 @@ describe('stand-in: Checkout in setup mode', () => {
   });
 
   it('saves nothing when the card is declined', async () => {
-    const { customer, submitted } = await saveCard('4000 0000 0000 0002');
+    const { customer, submitted } = await saveCardThroughCheckout(h, '4000 0000 0000 0002');
     expect(submitted.status).toBe(402);
     expect((await h.stripe.customers.listPaymentMethods(customer.id)).data).toEqual([]);
   });
@@ -58,8 +44,7 @@ describe('stand-in: Checkout in setup mode', () => {
 
 describe('stand-in: off-session charge of a saved card', () => {
   it('charges the saved card with off_session and confirm, and delivers payment_intent.succeeded', async () => {
-    const { customer } = await saveCard();
-    const [card] = (await h.stripe.customers.listPaymentMethods(customer.id)).data;
+    const { customer, card } = await saveCardThroughCheckout(h);
     const intent = await h.stripe.paymentIntents.create({
       amount: 4_500,
       currency: 'usd',
@@ -75,8 +60,7 @@ describe('stand-in: off-session charge of a saved card', () => {
   });
 
   it('answers a declined off-session charge with a 402 card error naming the intent', async () => {
-    const { customer } = await saveCard();
-    const [card] = (await h.stripe.customers.listPaymentMethods(customer.id)).data;
+    const { customer, card } = await saveCardThroughCheckout(h);
     h.fake.control.failNextPayment(customer.id);
     const err = await h.stripe.paymentIntents
       .create({ amount: 4_500, currency: 'usd', customer: customer.id, payment_method: card!.id, off_session: true, confirm: true })
@@ -87,8 +71,7 @@ describe('stand-in: off-session charge of a saved card', () => {
   });
 
   it("refuses another customer's saved card and off_session without confirm", async () => {
-    const { customer } = await saveCard();
-    const [card] = (await h.stripe.customers.listPaymentMethods(customer.id)).data;
+    const { customer, card } = await saveCardThroughCheckout(h);
     const stranger = await h.stripe.customers.create({ email: 'someone@else.test' });
     const foreign = await h.stripe.paymentIntents
       .create({ amount: 100, currency: 'usd', customer: stranger.id, payment_method: card!.id, off_session: true, confirm: true })

@@ -1,6 +1,6 @@
 import Stripe from 'stripe';
 import { describe, expect, it } from 'vitest';
-import { startHarness, useHarness, WEBHOOK_SECRET } from './test-support';
+import { saveCardThroughCheckout, startHarness, useHarness, WEBHOOK_SECRET } from './test-support';
 
 const HOUR = 3600;
 const DAY = 24 * HOUR;
@@ -148,10 +148,7 @@ describe('stand-in: a hold lapses on the test clock', () => {
   });
 
   it('gives a merchant-initiated hold on a saved Visa 4 days 18 hours [3P]', async () => {
-    const customer = await h.stripe.customers.create({ email: 'renter@owner.test' });
-    const session = await h.stripe.checkout.sessions.create({ mode: 'setup', customer: customer.id, currency: 'usd', success_url: 'http://127.0.0.1:5173/done' });
-    await h.submitCheckout(session.id);
-    const [card] = (await h.stripe.customers.listPaymentMethods(customer.id)).data;
+    const { customer, card } = await saveCardThroughCheckout(h);
     const intent = await h.stripe.paymentIntents.create({
       amount: 25_000,
       currency: 'usd',

@@ -100,3 +100,18 @@ export async function createMonthlyPrice(stripe: Stripe, unitAmount = 4900) {
   const product = await stripe.products.create({ name: 'Shop plan', metadata: { plan: 'pro' } });
   return stripe.prices.create({ product: product.id, unit_amount: unitAmount, currency: 'usd', recurring: { interval: 'month' } });
 }
+
+/** Saves a test card for a new customer through Checkout in setup mode, as a booking made ahead would. */
+export async function saveCardThroughCheckout(h: Harness, card?: string) {
+  const customer = await h.stripe.customers.create({ email: 'renter@owner.test' });
+  const session = await h.stripe.checkout.sessions.create({
+    mode: 'setup',
+    customer: customer.id,
+    currency: 'usd',
+    setup_intent_data: { metadata: { booking: 'bk_7' } },
+    success_url: 'http://127.0.0.1:5173/bookings/7?session={CHECKOUT_SESSION_ID}',
+  });
+  const submitted = await h.submitCheckout(session.id, 'pay', card);
+  const [saved] = (await h.stripe.customers.listPaymentMethods(customer.id)).data;
+  return { customer, session, submitted, card: saved };
+}
