@@ -7,6 +7,7 @@ export default defineConfig({
       { test: { name: 'domain', root: 'packages/domain', include: ['src/**/*.test.ts'], environment: 'node' } },
       { test: { name: 'db', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node' } },
       { test: { name: 'api', root: 'apps/api', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 30000 } },
+      { test: { name: 'stand-ins', root: 'packages/stand-ins', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000 } },
       { test: { name: 'web', root: 'apps/web', include: ['src/**/*.test.{ts,tsx}'], environment: 'node' } },
       // Checks of the repository's own tooling, such as the import rules in eslint.config.js.
       { test: { name: 'tooling', root: '.', include: ['scripts/**/*.test.ts'], environment: 'node' } },

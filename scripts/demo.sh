@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# npm run demo: install, reset and seed the demo, build the web app, start the app with its local fakes.
+# npm run demo: install, reset and seed the demo, build the web app, start the app with its local stand-ins (packages/stand-ins).
 # npm start (demo.sh --keep): the same, but serve the data folder as it is and seed only when it is empty.
 set -euo pipefail
 cd "$(dirname "$0")/.."

@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# npm run dev: the API with its local fakes on :8080 (data kept between runs) and Vite's hot reload on :5173.
+# npm run dev: the API with its local stand-ins (packages/stand-ins) on :8080 (data kept between runs) and Vite's hot reload on :5173.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-deps.sh

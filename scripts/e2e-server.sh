@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# The app as the browser tests see it: built web app, fresh demo data in .tmp, local fakes on free ports.
+# The app as the browser tests see it: built web app, fresh demo data in .tmp, local stand-ins (packages/stand-ins) on free ports.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 export NODE_ENV=development

@@ -1,7 +1,7 @@
 import type { Logger } from 'pino';
 import type { Db } from '@revloop/db';
 import type { Env } from './env';
-import type { Mailbox } from './fakes/smtp/smtp-fake';
+import type { Mailbox } from '@revloop/stand-ins/smtp';
 import type { SignInThrottle } from './features/auth/sign-in-throttle';
 import type { Mailer } from './features/mail/mailer';
 import type { Clock } from './http/clock';

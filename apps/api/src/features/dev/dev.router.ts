@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { DomainError } from '@revloop/domain';
-import type { Mailbox } from '../../fakes/smtp/smtp-fake';
+import type { Mailbox } from '@revloop/stand-ins/smtp';
 
 /**
  * The local SMTP stand-in's mailbox, so invitation and reset links can be followed in development and the demo.

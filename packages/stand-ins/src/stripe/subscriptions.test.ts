@@ -1,21 +1,13 @@
 import type Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createMonthlyPrice, startHarness, type Harness } from './stripe-fake.test-support';
+import { describe, expect, it } from 'vitest';
+import { createMonthlyPrice, startHarness, useHarness } from './test-support';
 
 const DAY = 86_400;
 /** A fixed wall clock on the 31st, so only advanceTime moves fake time and month ends get clamped. */
 const JAN_31_2030 = Date.UTC(2030, 0, 31, 12);
 const at = (month: number, day: number) => Date.UTC(2030, month, day, 12) / 1000;
 
-let h: Harness;
-beforeAll(async () => {
-  h = await startHarness({ now: () => JAN_31_2030 });
-});
-afterAll(() => h.close());
-beforeEach(() => {
-  h.fake.control.reset();
-  h.receiver.received.length = 0;
-});
+const h = useHarness({ now: () => JAN_31_2030 });
 
 async function subscribe(options: { trialDays?: number; quantity?: number } = {}) {
   const price = await createMonthlyPrice(h.stripe);

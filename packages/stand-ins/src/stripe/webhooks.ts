@@ -1,5 +1,5 @@
 import { createHmac } from 'node:crypto';
-import type { FakeEvent } from './stripe-fake.objects';
+import type { FakeEvent } from './objects';
 
 export interface WebhookDelivery {
   eventId: string;

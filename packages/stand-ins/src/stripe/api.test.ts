@@ -1,13 +1,8 @@
 import Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, type Harness } from './stripe-fake.test-support';
+import { describe, expect, it } from 'vitest';
+import { useHarness } from './test-support';
 
-let h: Harness;
-beforeAll(async () => {
-  h = await startHarness();
-});
-afterAll(() => h.close());
-beforeEach(() => h.fake.control.reset());
+const h = useHarness();
 
 describe('stripe fake: catalogue and customers', () => {
   it('creates, retrieves, updates and lists customers by email', async () => {

@@ -1,5 +1,5 @@
-import { invalidRequest, missingParam } from './stripe-fake.errors';
-import type { Metadata } from './stripe-fake.objects';
+import { invalidRequest, missingParam } from './errors';
+import type { Metadata } from './objects';
 
 /** A form-decoded Stripe request body or query: nested objects and arrays of strings. */
 export type Params = Record<string, unknown>;

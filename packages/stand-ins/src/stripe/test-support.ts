@@ -2,6 +2,7 @@ import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
 import request from 'supertest';
+import { afterAll, beforeAll, beforeEach } from 'vitest';
 import { startStripeFake, type StripeFakeOptions } from './index';
 
 export const WEBHOOK_SECRET = 'whsec_test_revloop_fake';
@@ -73,7 +74,44 @@ export async function startHarness(options: Partial<StripeFakeOptions> = {}) {
 
 export type Harness = Awaited<ReturnType<typeof startHarness>>;
 
+/**
+ * One harness per test file, reset with its received webhooks cleared before each test. The returned object
+ * forwards to the harness started in `beforeAll`, so tests can hold it from the top of the file.
+ */
+export function useHarness(options: Partial<StripeFakeOptions> = {}): Harness {
+  let current: Harness | undefined;
+  beforeAll(async () => {
+    current = await startHarness(options);
+  });
+  afterAll(() => current?.close());
+  beforeEach(() => {
+    current?.fake.control.reset();
+    if (current) current.receiver.received.length = 0;
+  });
+  return new Proxy({} as Harness, {
+    get: (_target, key) => {
+      if (!current) throw new Error('the stand-in harness starts in beforeAll');
+      return Reflect.get(current, key);
+    },
+  });
+}
+
 export async function createMonthlyPrice(stripe: Stripe, unitAmount = 4900) {
   const product = await stripe.products.create({ name: 'Shop plan', metadata: { plan: 'pro' } });
   return stripe.prices.create({ product: product.id, unit_amount: unitAmount, currency: 'usd', recurring: { interval: 'month' } });
+}
+
+/** Saves a test card for a new customer through Checkout in setup mode, as a booking made ahead would. */
+export async function saveCardThroughCheckout(h: Harness, card?: string) {
+  const customer = await h.stripe.customers.create({ email: 'renter@owner.test' });
+  const session = await h.stripe.checkout.sessions.create({
+    mode: 'setup',
+    customer: customer.id,
+    currency: 'usd',
+    setup_intent_data: { metadata: { booking: 'bk_7' } },
+    success_url: 'http://127.0.0.1:5173/bookings/7?session={CHECKOUT_SESSION_ID}',
+  });
+  const submitted = await h.submitCheckout(session.id, 'pay', card);
+  const [saved] = (await h.stripe.customers.listPaymentMethods(customer.id)).data;
+  return { customer, session, submitted, card: saved };
 }

@@ -1,8 +1,8 @@
 import express, { Router } from 'express';
-import { advanceTime } from './stripe-fake.billing';
-import { invalidRequest, noSuch } from './stripe-fake.errors';
-import type { FakeState } from './stripe-fake.state';
-import type { WebhookDelivery, WebhookDispatcher } from './stripe-fake.webhooks';
+import { advanceTime } from './test-clocks';
+import { invalidRequest, noSuch } from './errors';
+import type { FakeState } from './state';
+import type { WebhookDelivery, WebhookDispatcher } from './webhooks';
 
 /** Test-only levers that real Stripe does not have (or has only in its dashboard and test clocks). */
 export interface StripeFakeControl {

@@ -173,6 +173,20 @@ export interface FakeCard {
   last4: string;
 }
 
+/** A card decline: the API error code, the issuer's decline code and the message shown to the payer. */
+export interface Decline {
+  code: string;
+  declineCode: string;
+  message: string;
+}
+
+export type FakePaymentMethod = Pick<Stripe.PaymentMethod, 'id' | 'object' | 'created' | 'livemode' | 'type'> & {
+  billing_details: { address: null; email: string | null; name: string | null; phone: null };
+  card: FakeCard;
+  customer: string | null;
+  metadata: Metadata;
+};
+
 export type FakeCharge = Pick<
   Stripe.Charge,
   | 'id'
@@ -199,7 +213,8 @@ export type FakeCharge = Pick<
   customer: string | null;
   payment_intent: string;
   payment_method: string;
-  payment_method_details: { type: 'card'; card: FakeCard };
+  /** `capture_before` is set on an uncaptured authorisation: the moment the hold lapses. */
+  payment_method_details: { type: 'card'; card: FakeCard & { capture_before?: number } };
   outcome: { network_status: string; reason: string | null; seller_message: string; type: 'authorized' | 'issuer_declined' };
 };
 
@@ -322,6 +337,7 @@ export interface FakeSetupIntent {
   livemode: false;
   metadata: Metadata;
   payment_method: string;
+  payment_method_types: ['card'];
   status: 'succeeded';
   usage: 'off_session';
 }
@@ -338,6 +354,7 @@ export type FakeObject =
   | FakeRefund
   | FakeSubscription
   | FakeInvoice
+  | FakePaymentMethod
   | FakeSetupIntent;
 
 export interface FakeEvent {

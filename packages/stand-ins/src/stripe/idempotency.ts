@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
-import { StripeFakeError } from './stripe-fake.errors';
-import type { FakeState } from './stripe-fake.state';
+import { StripeFakeError } from './errors';
+import type { FakeState } from './state';
 
 const KEY_LIFETIME_SECONDS = 24 * 60 * 60;
 

@@ -1,7 +1,7 @@
 import { AsyncLocalStorage } from 'node:async_hooks';
 import { randomBytes } from 'node:crypto';
 import Stripe from 'stripe';
-import { invalidRequest, noSuch } from './stripe-fake.errors';
+import { invalidRequest, noSuch } from './errors';
 import type {
   FakeCard,
   FakeCharge,
@@ -9,18 +9,20 @@ import type {
   FakeCustomer,
   FakeEvent,
   FakeEventType,
+  Decline,
   FakeInvoice,
   FakeLineItem,
   FakeObject,
   FakePaymentIntent,
+  FakePaymentMethod,
   FakePrice,
   FakeProduct,
   FakeRefund,
   FakeSetupIntent,
   FakeSubscription,
   ListObject,
-} from './stripe-fake.objects';
-import { stringList, type Params } from './stripe-fake.params';
+} from './objects';
+import { stringList, type Params } from './params';
 
 const ALPHABET = '0123456789ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz';
 
@@ -45,6 +47,8 @@ export interface SessionExtras {
   subscriptionMetadata: Record<string, string>;
   paymentIntentMetadata: Record<string, string>;
   paymentIntentDescription: string | null;
+  paymentIntentCaptureMethod: 'automatic_async' | 'manual';
+  setupIntentMetadata: Record<string, string>;
 }
 
 export interface SubscriptionExtras {
@@ -81,6 +85,9 @@ export class FakeState {
   subscriptionExtras = new Map<string, SubscriptionExtras>();
   invoices = new Map<string, FakeInvoice>();
   setupIntents = new Map<string, FakeSetupIntent>();
+  paymentMethods = new Map<string, FakePaymentMethod>();
+  /** Payment methods made from a declining test card: every charge on them fails this way. */
+  paymentMethodDeclines = new Map<string, Decline>();
   events = new Map<string, FakeEvent>();
   /** The card a customer last paid with; renewals charge it. */
   cardsOnFile = new Map<string, { paymentMethod: string; card: FakeCard }>();
@@ -138,6 +145,7 @@ export class FakeState {
       this.subscriptions,
       this.invoices,
       this.setupIntents,
+      this.paymentMethods,
     ];
     for (const map of maps) {
       const found = map.get(id);
@@ -204,3 +212,12 @@ function expandPath(state: FakeState, obj: Record<string, unknown>, parts: strin
   const next = obj[head];
   if (rest.length > 0 && typeof next === 'object' && next !== null) expandPath(state, next as Record<string, unknown>, rest, extra);
 }
+/** Previous values of the top-level fields that changed, as Stripe sends in `*.updated` events. */
+export function changedFields<T extends object>(before: T, after: T): Record<string, unknown> {
+  const prev: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(before)) {
+    if (JSON.stringify(value) !== JSON.stringify((after as Record<string, unknown>)[key])) prev[key] = value;
+  }
+  return prev;
+}
+

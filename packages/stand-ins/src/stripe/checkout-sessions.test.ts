@@ -1,16 +1,8 @@
 import Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, WEBHOOK_SECRET, type Harness } from './stripe-fake.test-support';
+import { describe, expect, it } from 'vitest';
+import { useHarness, WEBHOOK_SECRET } from './test-support';
 
-let h: Harness;
-beforeAll(async () => {
-  h = await startHarness();
-});
-afterAll(() => h.close());
-beforeEach(() => {
-  h.fake.control.reset();
-  h.receiver.received.length = 0;
-});
+const h = useHarness();
 
 async function paymentSession(extra: Partial<Stripe.Checkout.SessionCreateParams> = {}) {
   const product = await h.stripe.products.create({ name: 'Stage 2 calibration' });

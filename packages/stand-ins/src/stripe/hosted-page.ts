@@ -1,7 +1,8 @@
 import express, { Router, type Response } from 'express';
-import { formatAmount, payCheckoutSession } from './stripe-fake.billing';
-import type { FakeCheckoutSession } from './stripe-fake.objects';
-import type { FakeState } from './stripe-fake.state';
+import { payCheckoutSession } from './checkout-sessions';
+import { formatAmount } from './money';
+import type { FakeCheckoutSession } from './objects';
+import type { FakeState } from './state';
 
 const PAYING_CARD = '4242 4242 4242 4242';
 const DECLINING_CARD = '4000 0000 0000 0002';
@@ -34,7 +35,7 @@ function page(title: string, body: string): string {
 </style>
 </head>
 <body>
-<p class="notice"><strong>Local test payment page.</strong> This is Revloop's development stand-in for a hosted payment page. No real card is charged and no money moves.</p>
+<p class="notice"><strong>Local test payment page.</strong> This is a development stand-in for a hosted payment page. No real card is charged and no money moves.</p>
 ${body}
 </body>
 </html>`;
@@ -49,14 +50,20 @@ function summary(state: FakeState, session: FakeCheckoutSession): string {
     })
     .join('\n');
   const trial = extras?.trialPeriodDays ? `<p>Includes a ${extras.trialPeriodDays}-day free trial; the first charge comes when it ends.</p>` : '';
-  const total = session.amount_total !== null && session.currency ? `<tr class="total"><td>Due today</td><td class="amount">${formatAmount(session.amount_total, session.currency)}</td></tr>` : '';
+  const hold = extras?.paymentIntentCaptureMethod === 'manual';
+  const total =
+    session.amount_total !== null && session.currency
+      ? `<tr class="total"><td>${hold ? 'Held on your card' : 'Due today'}</td><td class="amount">${formatAmount(session.amount_total, session.currency)}</td></tr>`
+      : '';
+  const holdNote = hold ? '<p>This amount is held on your card, not charged. The shop takes only what it needs and the rest is released.</p>' : '';
   const who = session.customer_email ?? (session.customer ? state.customers.get(session.customer)?.email : null);
-  return `${who ? `<p>Paying as ${escapeHtml(who)}</p>` : ''}<table>${rows}${total}</table>${trial}`;
+  return `${who ? `<p>Paying as ${escapeHtml(who)}</p>` : ''}<table>${rows}${total}</table>${trial}${holdNote}`;
 }
 
 function checkoutForm(state: FakeState, session: FakeCheckoutSession, error?: string, card = PAYING_CARD): string {
   const cancel = session.cancel_url ? `<p><a href="${escapeHtml(session.cancel_url)}">Cancel and go back</a></p>` : '';
-  const heading = session.mode === 'setup' ? 'Save a card' : 'Pay';
+  const hold = state.sessionExtras.get(session.id)?.paymentIntentCaptureMethod === 'manual';
+  const [heading, button] = session.mode === 'setup' ? ['Save a card', 'Save card'] : hold ? ['Authorise a hold', 'Authorise'] : ['Pay', 'Pay'];
   return page(
     heading,
     `<h1>${heading}</h1>
@@ -67,7 +74,7 @@ ${error ? `<p class="error" role="alert">${escapeHtml(error)}</p>` : ''}
   <input id="card" name="card" inputmode="numeric" autocomplete="off" value="${escapeHtml(card)}">
   <p class="hint">${PAYING_CARD} pays; ${DECLINING_CARD} is declined. Any expiry date and CVC.</p>
   <div class="actions">
-    <button type="submit" name="action" value="pay">${session.mode === 'setup' ? 'Save card' : 'Pay'}</button>
+    <button type="submit" name="action" value="pay">${button}</button>
     <button type="submit" name="action" value="decline">Decline</button>
   </div>
 </form>
