@@ -20,9 +20,13 @@ const file = (name: string, content: string) => {
   return path;
 };
 
-async function analyzeBuilt(...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+async function analyzeBuilt(
+  ...args: string[]
+): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
-    const { stdout, stderr } = await run(process.execPath, [builtPath('analyze'), ...args], { maxBuffer: 1 << 26 });
+    const { stdout, stderr } = await run(process.execPath, [builtPath('analyze'), ...args], {
+      maxBuffer: 1 << 26,
+    });
     return { code: 0, stdout, stderr };
   } catch (error) {
     const e = error as { code: number; stdout: string; stderr: string };
@@ -41,14 +45,22 @@ describe('analyze CLI start-up', () => {
   });
 
   it('uses a valid vehicle file for gears', async () => {
-    const { code, stdout } = await analyzeBuilt(log, '--vehicle', file('car.json', JSON.stringify(DEMO_VEHICLE)));
+    const { code, stdout } = await analyzeBuilt(
+      log,
+      '--vehicle',
+      file('car.json', JSON.stringify(DEMO_VEHICLE)),
+    );
     expect(code).toBe(0);
     const report = JSON.parse(stdout) as { wot: { pulls: { gears: number[] }[] } };
     expect(report.wot.pulls[0]?.gears).toEqual([2, 3]);
   });
 
   it('exits 2 with one line for a vehicle file that does not fit the schema', async () => {
-    const { code, stdout, stderr } = await analyzeBuilt(log, '--vehicle', file('bad.json', '{"gearRatios":[]}'));
+    const { code, stdout, stderr } = await analyzeBuilt(
+      log,
+      '--vehicle',
+      file('bad.json', '{"gearRatios":[]}'),
+    );
     expect(code).toBe(2);
     expect(stdout).toBe('');
     expect(stderr).toMatch(/^analyze: vehicle file ".*bad\.json" needs \{ gearRatios/);
