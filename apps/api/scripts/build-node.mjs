@@ -21,10 +21,39 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '../../..');
 export const BUILD_DIR = join(root, 'apps/api/dist/node');
 const ENTRIES = {
   analyze: 'apps/api/src/cli/analyze.ts',
+  // Loaded by the CLI only for --vehicle (see LAZY), so the CLI starts without zod.
+  'analyze-vehicle': 'apps/api/src/cli/vehicle-file.ts',
   'analyze-file.job': 'apps/api/src/workers/datalog/analyze-file.job.ts',
   'datalog-series.job': 'apps/api/src/features/datalogs/datalog-series.job.ts',
 };
 const MANIFEST = join(BUILD_DIR, 'inputs.json');
+/** Dynamic imports kept out of a bundle: source specifier → the built entry it loads at run time. */
+const LAZY = { './vehicle-file': './analyze-vehicle.mjs' };
+const DOMAIN_SRC = join(root, 'packages/domain/src/');
+const SKIP = Symbol('resolved by esbuild');
+
+/**
+ * The domain has no module-level side effects (no I/O, only declarations), so a module none of whose exports is
+ * used is left out: importing a barrel such as '@revloop/domain' no longer brings in zod schemas and CASL rules.
+ */
+const startUpTrim = {
+  name: 'start-up-trim',
+  setup(build) {
+    build.onResolve({ filter: /.*/ }, async (args) => {
+      if (args.pluginData === SKIP) return undefined;
+      if (args.kind === 'dynamic-import' && args.path in LAZY)
+        return { path: LAZY[args.path], external: true };
+      const resolved = await build.resolve(args.path, {
+        kind: args.kind,
+        importer: args.importer,
+        resolveDir: args.resolveDir,
+        pluginData: SKIP,
+      });
+      if (resolved.errors.length > 0 || !resolved.path.startsWith(DOMAIN_SRC)) return resolved;
+      return { ...resolved, sideEffects: false };
+    });
+  },
+};
 
 /** Path of a built entry (a key of ENTRIES). */
 export const builtPath = (name) => join(BUILD_DIR, `${name}.mjs`);
@@ -64,6 +93,7 @@ async function build() {
       minifyWhitespace: true,
       minifySyntax: true,
       metafile: true,
+      plugins: [startUpTrim],
       logLevel: 'warning',
     });
     for (const name of Object.keys(ENTRIES))

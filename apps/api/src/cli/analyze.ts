@@ -6,7 +6,6 @@ import { parseArgs } from 'node:util';
 import {
   AFR_SCALES,
   analyzeDatalog,
-  datalogVehicleSchema,
   type AfrScale,
   type AnalyzeOptions,
 } from '@revloop/domain/datalog';
@@ -57,7 +56,7 @@ function oneOf<T extends string>(flag: string, value: string, allowed: readonly 
   return value as T;
 }
 
-function parseVehicle(path: string): AnalyzeOptions['vehicle'] {
+async function parseVehicle(path: string): Promise<AnalyzeOptions['vehicle']> {
   let json: unknown;
   try {
     json = JSON.parse(readInput(path, 'vehicle file').toString('utf8'));
@@ -65,16 +64,17 @@ function parseVehicle(path: string): AnalyzeOptions['vehicle'] {
     if (error instanceof UsageError) throw error;
     throw new UsageError(`vehicle file "${path}" is not valid JSON`);
   }
-  const parsed = datalogVehicleSchema.safeParse(json);
-  if (!parsed.success) {
+  const { parseVehicleJson } = await import('./vehicle-file');
+  const vehicle = parseVehicleJson(json);
+  if (vehicle === undefined) {
     throw new UsageError(
       `vehicle file "${path}" needs { gearRatios: number[], finalDrive: number, tyreSize: "245/40R20" }`,
     );
   }
-  return parsed.data;
+  return vehicle;
 }
 
-function main(argv: string[]): number {
+async function main(argv: string[]): Promise<number> {
   try {
     const { values, positionals } = parseArgs({
       args: argv,
@@ -99,7 +99,7 @@ function main(argv: string[]): number {
     const trimAxis = values['trim-axis'];
     if (trimAxis !== undefined) options.trimAxis = oneOf('trim-axis', trimAxis, TRIM_AXES);
     if (values.fuel !== undefined) options.fuel = parseFuelOption(values.fuel);
-    if (values.vehicle !== undefined) options.vehicle = parseVehicle(values.vehicle);
+    if (values.vehicle !== undefined) options.vehicle = await parseVehicle(values.vehicle);
     // Read in pieces, so a 90 MB log never sits in memory whole.
     const report = readCsvFile(
       file,
@@ -119,4 +119,4 @@ function main(argv: string[]): number {
   }
 }
 
-process.exitCode = main(process.argv.slice(2));
+process.exitCode = await main(process.argv.slice(2));
