@@ -95,7 +95,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/notifications', createNotificationsRouter(deps));
   api.use(createFilesRouter(deps));
   api.use(createDatalogsRouter(deps));
-  api.use(createBillingRouter(deps));
+  api.use('/billing', createBillingRouter(deps));
   if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
   api.use((_req, _res, next) => next(new DomainError('not_found', 'No such API route.')));
   app.use('/api', api);

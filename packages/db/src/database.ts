@@ -12,6 +12,7 @@ import type { CalibrationFileTable } from './files/calibration-file.table';
 import type { DatalogMappingTable, DatalogTable } from './datalogs/datalog.table';
 import type { DealerTable } from './dealers/dealer.table';
 import type { JobListVersionTable, JobMessageTable, JobStateCountTable, JobTable } from './jobs/job.table';
+import type { MailOutboxTable } from './mail/mail-outbox.table';
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
@@ -36,6 +37,7 @@ export interface Database {
   job_list_versions: JobListVersionTable;
   job_messages: JobMessageTable;
   notifications: NotificationTable;
+  mail_outbox: MailOutboxTable;
   datalogs: DatalogTable;
   datalog_mappings: DatalogMappingTable;
   calibration_files: CalibrationFileTable;

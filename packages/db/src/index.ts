@@ -1,4 +1,5 @@
 export * from './client';
+export * from './transaction';
 export * from './database';
 export * from './ids';
 export * from './migrate';
@@ -22,6 +23,8 @@ export * from './jobs/job.table';
 export * from './jobs/job.repository';
 export * from './notifications/notification.table';
 export * from './notifications/notification.repository';
+export * from './mail/mail-outbox.table';
+export * from './mail/mail-outbox.repository';
 export * from './files/calibration-file.table';
 export * from './files/calibration-file.repository';
 export * from './datalogs/datalog.table';

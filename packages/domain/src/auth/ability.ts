@@ -6,11 +6,15 @@ import {
   type MongoAbility,
   type MongoQuery,
 } from '@casl/ability';
+import { OPEN_STATES } from '../jobs/job-states';
 import type { Actor } from './roles';
 
 /**
  * The one definition of who may do what. The API checks it on every route; the web hides what it forbids.
  * Row-level conditions use the same column names as the API objects (camelCase).
+ * Job moves: the action is `transition`, its field the target state and its conditions may name the job's current
+ * `state`, checked as `ability.can('transition', jobMoveSubject(facts), to)` (jobs/job-moves.ts). The state machine
+ * says which moves exist and what they need; these rules say who may make them.
  */
 export type Action =
   | 'manage'
@@ -78,6 +82,15 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   const { can, cannot, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
   if (!actor) return build();
 
+  if (actor.system) {
+    // Automatic moves only: a stock read makes a job ready, a full revision set goes to the customer, a log starts
+    // the review, a payment releases its hold (resume, wherever the job was held from).
+    if (!actor.shopId) return build();
+    can('transition', 'Job', ['ready', 'with_customer', 'log_review'], { shopId: actor.shopId });
+    can('transition', 'Job', [...OPEN_STATES], { shopId: actor.shopId, state: 'on_hold' });
+    return build();
+  }
+
   if (actor.platformAdmin) {
     can('manage', 'Platform');
     can(['read', 'create', 'update', 'suspend'], 'Shop');
@@ -111,19 +124,25 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       );
       can('refund', 'Payment', inShop);
       break;
-    case 'tuner':
+    case 'tuner': {
+      // A tuner works on jobs assigned to them or not yet assigned.
+      const inReach = { shopId, assignedTunerId: { $in: [me, null] } };
       can('read', 'Member', inShop);
       can('read', 'Dealer', inShop);
       can(['read', 'create', 'update'], ['Customer', 'Vehicle'], inShop);
       can('create', 'Job', inShop);
-      can(['read', 'update', 'transition', 'upload', 'upload_revision', 'download'], 'Job', {
-        shopId,
-        assignedTunerId: { $in: [me, null] },
-      });
+      can(['read', 'update', 'upload', 'upload_revision', 'download'], 'Job', inReach);
       can('take', 'Job', { shopId, assignedTunerId: null });
+      // Shop steps for any tuner with the job in reach; the bench steps (send, revise again, dialed in) only for
+      // the tuner it is assigned to.
+      can('transition', 'Job', ['ready', 'log_review', 'on_hold'], inReach);
+      can('transition', 'Job', 'on_bench', { ...inReach, state: 'ready' });
+      can('transition', 'Job', [...OPEN_STATES], { ...inReach, state: 'on_hold' });
+      can('transition', 'Job', ['on_bench', 'with_customer', 'dialed_in'], { shopId, assignedTunerId: me });
       can(['read', 'create'], 'Message', inShop);
       can('read', 'Payment', inShop);
       break;
+    }
     case 'dealer': {
       const dealerId = actor.dealerId;
       if (!dealerId) break;
@@ -131,6 +150,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       can('read', 'Dealer', { shopId, id: dealerId });
       can(['read', 'create', 'update'], ['Customer', 'Vehicle'], ofDealer);
       can(['read', 'create', 'upload', 'download'], 'Job', ofDealer);
+      can('transition', 'Job', 'log_review', { ...ofDealer, state: 'with_customer' });
+      can('transition', 'Job', 'cancelled', { ...ofDealer, state: 'intake' });
       can(['read', 'create'], 'Message', ofDealer);
       can('read', 'Ledger', ofDealer);
       can(['read', 'create'], 'Payment', ofDealer);
@@ -140,6 +161,9 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       const mine = { shopId, customerUserId: me };
       can(['read', 'create', 'update'], 'Vehicle', { shopId, ownerUserId: me });
       can(['read', 'create', 'upload', 'download'], 'Job', mine);
+      // The customer sends their log in and may withdraw a job nobody has started.
+      can('transition', 'Job', 'log_review', { ...mine, state: 'with_customer' });
+      can('transition', 'Job', 'cancelled', { ...mine, state: 'intake' });
       can(['read', 'create'], 'Message', mine);
       can(['read', 'create'], 'Payment', mine);
       break;

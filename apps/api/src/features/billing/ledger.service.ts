@@ -4,6 +4,7 @@ import {
   findDealer,
   findShopById,
   findUserById,
+  listDealers,
   listLedgerEntries,
   listMembers,
   type Db,
@@ -92,4 +93,17 @@ export function ledgerCsv(ledger: Awaited<ReturnType<typeof dealerLedger>>): str
     ['Date', 'Entry', 'Job', 'Description', `Amount (${ledger.currency})`, `Balance (${ledger.currency})`],
     ledger.entries.map((e) => [e.createdAt, e.kindLabel, e.jobNumber, e.memo, amount(e.amountMinor), amount(e.balanceAfterMinor)]),
   );
+}
+
+/** Every dealer of the shop with its prepaid balance. */
+export async function dealerBalances(deps: Pick<AppDeps, 'db'>, shop: { id: string; currency: string }) {
+  const data = [];
+  for (const d of await listDealers(deps.db, shop.id)) data.push({ id: d.id, name: d.name, balanceMinor: await dealerBalance(deps.db, shop.id, d.id), currency: shop.currency });
+  return data;
+}
+
+/** A dealer's statement as a CSV download: its file name and text. */
+export async function dealerStatementCsv(deps: AppDeps, auth: ShopAuth, dealerId: string) {
+  const ledger = await dealerLedger(deps, auth, dealerId);
+  return { fileName: `statement-${ledger.dealer.name.toLowerCase().replace(/[^a-z0-9]+/g, '-')}.csv`, csv: ledgerCsv(ledger) };
 }
