@@ -1,4 +1,4 @@
-import request from 'supertest';
+import type request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { asSubject, defineAbilityFor, type Actor } from '@revloop/domain/auth';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
