@@ -115,30 +115,17 @@ describe('the files API agrees with the File abilities', () => {
       const tunerEmail =
         members.find((m) => m.actor.userId === row.assigned_tuner_id)?.email ??
         'owner@kestrel.test';
-      // One module of two: the revision stays a draft the customer side may not see yet.
-      expect(
-        (
-          await upload(
-            await signIn(t.app, tunerEmail),
-            job!.id,
-            rawImage(dealerSide ? 11 : 12),
-            'ecm-draft.bin',
-            { module: 'ECM', kind: 'revision' },
-          )
-        ).status,
-      ).toBe(201);
       const customerEmail = members.find((m) => m.actor.userId === job!.customerUserId)!.email;
-      expect(
+      const uploadAs = async (email: string, seed: number, kind: string) =>
         (
-          await upload(
-            await signIn(t.app, customerEmail),
-            job!.id,
-            rawImage(dealerSide ? 21 : 22),
-            'mine.bin',
-            { module: 'ECM', kind: 're_read' },
-          )
-        ).status,
-      ).toBe(201);
+          await upload(await signIn(t.app, email), job!.id, rawImage(seed), `${kind}.bin`, {
+            module: 'ECM',
+            kind,
+          })
+        ).status;
+      // One module of two: the revision stays a draft the customer side may not see yet.
+      expect(await uploadAs(tunerEmail, dealerSide ? 11 : 12, 'revision')).toBe(201);
+      expect(await uploadAs(customerEmail, dealerSide ? 21 : 22, 're_read')).toBe(201);
 
       let hidden = 0;
       for (const { email, actor } of members) {
