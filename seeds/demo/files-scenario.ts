@@ -13,7 +13,7 @@ import {
   type MemoryImage,
 } from '@revloop/domain/calibration';
 import { recordAudit } from '../../apps/api/src/features/audit/audit.service';
-import { fileLabel } from '../../apps/api/src/features/files/file.service';
+import { fileLabel } from '../../apps/api/src/features/files/file.presenter';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
 
 // Invented images only: the same vehicle model starts from the same stock calibration, and every revision is a few

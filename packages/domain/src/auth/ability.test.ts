@@ -48,6 +48,7 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Subscription: CRUD,
     AuditEvent: ['read'],
     Job: ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
+    File: ['read'],
   },
   tuner: {
     Shop: ['read'],
@@ -57,6 +58,7 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Customer: ['read', 'create', 'update'],
     Vehicle: ['read', 'create', 'update'],
     Job: ['read', 'create', 'update', 'transition', 'upload', 'upload_revision', 'download'],
+    File: ['read'],
     Message: ['read', 'create'],
     Payment: ['read'],
   },

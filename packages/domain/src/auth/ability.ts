@@ -30,7 +30,9 @@ export type Action =
   | 'upload'
   | 'upload_revision'
   | 'download'
-  | 'refund';
+  | 'refund'
+  /** Compare a calibration file with the job's revisions (File only). */
+  | 'verify';
 
 export const SUBJECTS = [
   'Platform',
@@ -42,6 +44,8 @@ export const SUBJECTS = [
   'Vehicle',
   'Package',
   'Job',
+  /** A calibration file of a job, as `fileSubject` describes it. */
+  'File',
   'Message',
   'Payment',
   'Subscription',
@@ -170,6 +174,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     }
   }
 
+  defineFileRules(can, actor, shopId);
+
   if (actor.shopReadOnly) {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
     cannot(WRITE_ACTIONS, ['Member', 'Invitation', 'Dealer', 'Customer', 'Vehicle', 'Package', 'Job', 'Message', 'ShopSettings']);
@@ -179,6 +185,44 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
   }
   return build();
+}
+
+/**
+ * A calibration file as the File rules see it: its job's scope fields, plus whether it has reached the customer side
+ * (`sent`: anything but a revision, or a revision whose round has started) and who uploaded it.
+ */
+export interface FileSubject {
+  shopId: string;
+  assignedTunerId: string | null;
+  dealerId: string | null;
+  customerUserId: string;
+  kind: 'read' | 'revision' | 're_read';
+  sent: boolean;
+  uploadedByUserId: string;
+}
+
+/**
+ * Who sees which file. The shop side sees every file of a job it may read and checks files against the revisions;
+ * the dealer sees its customers' files once sent; the customer sees revisions once sent, and their own uploads.
+ * Reading and checking write nothing, so a read-only shop keeps both.
+ */
+function defineFileRules(can: AbilityBuilder<AppAbility>['can'], actor: Actor, shopId: string): void {
+  const me = actor.userId;
+  switch (actor.role) {
+    case 'owner':
+      can(['read', 'verify'], 'File', { shopId });
+      break;
+    case 'tuner':
+      can(['read', 'verify'], 'File', { shopId, assignedTunerId: { $in: [me, null] } });
+      break;
+    case 'dealer':
+      if (actor.dealerId) can('read', 'File', { shopId, dealerId: actor.dealerId, sent: true });
+      break;
+    case 'customer':
+      can('read', 'File', { shopId, customerUserId: me, sent: true, kind: 'revision' });
+      can('read', 'File', { shopId, customerUserId: me, sent: true, uploadedByUserId: me });
+      break;
+  }
 }
 
 /** Row scope for list queries: the SQL twin of the Job conditions above, so lists and checks agree. */
