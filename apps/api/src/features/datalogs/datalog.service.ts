@@ -11,6 +11,7 @@ import {
   type JobListRow,
   type ShopRow,
 } from '@revloop/db';
+import type { Datalog } from '@revloop/contract';
 import { DomainError, isDomainError } from '@revloop/domain';
 import {
   datalogMappingInputSchema,
@@ -202,7 +203,7 @@ export function datalogAnalyzerOf(deps: AppDeps): DatalogAnalyzer {
 }
 
 /** API shape of a log; `progress` from this process while it runs. */
-export function datalogRowToDatalog(row: DatalogListRow, progress: number | undefined) {
+export function datalogRowToDatalog(row: DatalogListRow, progress: number | undefined): Datalog {
   const report = row.report ? (JSON.parse(row.report) as DatalogReport) : null;
   return {
     id: row.id,

@@ -16,6 +16,7 @@ import {
   type Db,
   type JobListRow,
 } from '@revloop/db';
+import type { CalibrationFile } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { asSubject } from '@revloop/domain/auth';
 import {
@@ -38,9 +39,6 @@ import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';
 import { fileLinkQuery } from './file-links';
 
 type ShopAuth = AuthContext & { shop: { id: string; settings: string; name: string } };
-
-export const MODULES = ['ECM', 'TCM', 'other'] as const satisfies readonly CalibrationModule[];
-export const KINDS = ['read', 'revision', 're_read'] as const satisfies readonly CalibrationFileKind[];
 
 const FORMAT_LABELS: Record<CalibrationFormat, string> = { raw: 'Raw binary', intel_hex: 'Intel HEX', srec: 'Motorola S-record' };
 const KIND_LABELS: Record<CalibrationFileKind, string> = { read: 'Read', revision: 'Revision', re_read: 'Re-read' };
@@ -70,7 +68,7 @@ export function downloadNameOf(row: CalibrationFileRow, job: JobListRow): string
   });
 }
 
-export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow) {
+export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow): CalibrationFile {
   return {
     id: row.id,
     jobId: row.job_id,

@@ -1,4 +1,5 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
+import { fileDiffQuerySchema as diffQuerySchema, uploadJobFileFieldsSchema as uploadFieldsSchema } from '@revloop/contract';
 import { findCalibrationFile, findJob, type CalibrationFileRow, type JobListRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { diffImages, hexView, pageDiffRanges } from '@revloop/domain/calibration';
@@ -11,8 +12,6 @@ import { singleFileUpload } from '../../storage/upload';
 import { jobSubject, loadJob } from '../jobs/job.service';
 import { verifyFileLink } from './file-links';
 import {
-  KINDS,
-  MODULES,
   fileAbilities,
   fileRowToApi,
   imageOf,
@@ -23,19 +22,6 @@ import {
   verifyFile,
   downloadNameOf,
 } from './file.service';
-
-const uploadFieldsSchema = z.object({
-  module: z.enum(MODULES, 'Choose the module: ECM, TCM or other.'),
-  // "re-read" is how people write it; the API stores re_read.
-  kind: z.preprocess((v) => (v === 're-read' ? 're_read' : v), z.enum(KINDS, 'Choose the kind: read, revision or re-read.')),
-  notes: z.string().trim().max(2000, 'Keep the notes under 2000 characters.').default(''),
-});
-
-const diffQuerySchema = z.object({
-  gap: z.coerce.number().int().min(0).max(4096).default(16),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
-});
 
 const ADDRESS = '(0x[0-9a-f]+|\\d+)';
 const hexQuerySchema = z.object({

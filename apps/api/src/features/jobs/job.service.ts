@@ -18,6 +18,7 @@ import {
   type JobListRow,
   type JobRow,
 } from '@revloop/db';
+import type { Job } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { jobScopeFor, type Actor } from '@revloop/domain/auth';
 import {
@@ -63,7 +64,7 @@ export const jobSubject = (row: JobRow) => ({
 const audienceOf = (actor: Actor) => (actor.role === 'customer' ? 'customer' : actor.role === 'dealer' ? 'dealer' : 'shop');
 
 /** API shape of a job for this viewer: what it is, where it stands, and what they can do next. */
-export function jobRowToJob(row: JobListRow, actor: Actor, now: Date) {
+export function jobRowToJob(row: JobListRow, actor: Actor, now: Date): Job {
   const facts = factsOf(row);
   const hoursInState = (now.getTime() - Date.parse(row.state_changed_at)) / 3_600_000;
   const staleAfter = staleAfterHours(row.state);
@@ -80,8 +81,8 @@ export function jobRowToJob(row: JobListRow, actor: Actor, now: Date) {
     package: { id: row.package_id, name: row.package_name },
     tuner: row.assigned_tuner_id ? { id: row.assigned_tuner_id, name: row.tuner_name } : null,
     goals: row.goals,
-    specialRequests: JSON.parse(row.special_requests) as unknown,
-    logRequest: JSON.parse(row.log_request) as unknown,
+    specialRequests: JSON.parse(row.special_requests) as Job['specialRequests'],
+    logRequest: JSON.parse(row.log_request) as Job['logRequest'],
     facts: { hasStockRead: facts.hasStockRead, hasRevisionForRound: facts.hasRevisionForRound, hasLogForRound: facts.hasLogForRound },
     stateChangedAt: row.state_changed_at,
     hoursInState: Math.max(0, Math.round(hoursInState * 10) / 10),
