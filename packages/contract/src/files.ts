@@ -16,6 +16,7 @@ export const CALIBRATION_FORMATS = ['raw', 'intel_hex', 'srec'] as const satisfi
 // Leaf shapes the domain computes: parsed here, and the compiler holds them to the domain's types.
 export const addressRangeSchema = z.object({ start: z.number(), end: z.number() }) satisfies z.ZodType<AddressRange>;
 export const diffRangeSchema = z.object({ start: z.number(), end: z.number(), changedBytes: z.number() }) satisfies z.ZodType<DiffRange>;
+export type { DiffRange };
 export const hexRowSchema = z.object({
   address: z.number(),
   left: z.array(z.number().nullable()),
