@@ -16,7 +16,8 @@ import type { DatalogReport } from '@revloop/domain/datalog';
 import { generateLogChunks } from '@revloop/domain/datalog/testing';
 import { createTestApp, signIn } from '../../apps/api/src/testing/test-app';
 import { warmAnalysisWorker } from '../../apps/api/src/workers/datalog/analyze-file';
-import { processingPollMs, type Datalog } from '../../apps/web/src/features/datalogs/api/get-datalog';
+import type { Datalog } from '@revloop/contract';
+import { processingPollMs } from '../../apps/web/src/features/datalogs/api/get-datalog';
 
 const ROOT = resolve(import.meta.dirname, '../..');
 const PANDAS_SCRIPT = join(ROOT, 'scripts/bench/datalog_pandas.py');

@@ -1,2 +1,8 @@
 // The API's request and response shapes as zod schemas: the API validates and presents with them, the web types its calls with them.
-export {};
+export * from './envelope';
+export * from './jobs';
+export * from './files';
+export * from './datalogs';
+export * from './billing';
+export * from './members';
+export * from './me';

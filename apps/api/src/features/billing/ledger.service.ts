@@ -9,6 +9,7 @@ import {
   listMembers,
   type Db,
 } from '@revloop/db';
+import type { DealerLedger } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { asSubject } from '@revloop/domain/auth';
 import { LEDGER_KIND_LABELS, assertBalanceCovers, crossesLowBalance, formatMoney } from '@revloop/domain/billing';
@@ -62,7 +63,7 @@ export async function afterDealerDebit(deps: AppDeps, shopId: string, debit: Dea
 }
 
 /** `GET /api/dealers/:id/ledger`: the statement with its running balance, for the dealer or the owner. */
-export async function dealerLedger(deps: AppDeps, auth: ShopAuth, dealerId: string) {
+export async function dealerLedger(deps: AppDeps, auth: ShopAuth, dealerId: string): Promise<DealerLedger> {
   const dealer = await findDealer(deps.db, auth.shop.id, dealerId);
   if (!dealer) throw new DomainError('not_found', 'Dealer not found.');
   authorizeRow(auth, 'read', 'Ledger', { shopId: dealer.shop_id, dealerId: dealer.id }, 'Dealer not found.');

@@ -22,6 +22,7 @@ import {
   type JobListRow,
   type PaymentRow,
 } from '@revloop/db';
+import type { JobPayments } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { asSubject, systemActorFor } from '@revloop/domain/auth';
 import { assertRefundable, formatMoney, type RefundInput } from '@revloop/domain/billing';
@@ -48,7 +49,7 @@ async function netPaid(db: Db, shopId: string, jobId: string) {
 }
 
 /** `GET /api/billing/jobs/:id/payments`: the price, what was paid and refunded, and who may pay or refund. */
-export async function jobPaymentsView(deps: AppDeps, auth: ShopAuth, jobId: string) {
+export async function jobPaymentsView(deps: AppDeps, auth: ShopAuth, jobId: string): Promise<JobPayments> {
   const job = await loadJob(deps.db, auth, jobId);
   authorizeRow(auth, 'read', 'Payment', jobPaymentSubject(job), 'Job not found.');
   const pkg = await findPackage(deps.db, auth.shop.id, job.package_id);

@@ -17,6 +17,7 @@ import {
   type Db,
   type ShopSubscriptionRow,
 } from '@revloop/db';
+import type { Subscription } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings } from '@revloop/domain/shops';
 import {
@@ -272,7 +273,7 @@ export async function changePlan(deps: AppDeps, shopId: string, planId: PlanId, 
 }
 
 /** `GET /api/billing/subscription`: plan, seats, usage, status, invoices and the plans on offer. */
-export async function subscriptionView(deps: AppDeps, shopId: string) {
+export async function subscriptionView(deps: AppDeps, shopId: string): Promise<Subscription> {
   await applyBillingDeadlines(deps, shopId);
   const row = (await findShopSubscription(deps.db, shopId))!;
   const now = deps.clock.now();

@@ -1,9 +1,10 @@
+import type { Datalog } from '@revloop/contract';
 import type { DatalogListRow, JobListRow } from '@revloop/db';
 import { CANONICAL_CHANNELS, CHANNEL_INFO, UNIT_CHOICES, type DatalogReport, type HeaderMapping } from '@revloop/domain/datalog';
 import type { StoredMapping } from './datalog-mapping';
 
 /** API shape of a log; `progress` from this process while it runs. */
-export function datalogRowToDatalog(row: DatalogListRow, progress: number | undefined) {
+export function datalogRowToDatalog(row: DatalogListRow, progress: number | undefined): Datalog {
   const report = row.report ? (JSON.parse(row.report) as DatalogReport) : null;
   return {
     id: row.id,

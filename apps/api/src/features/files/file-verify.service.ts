@@ -1,44 +1,17 @@
-import { findRevisionsWithImage, listJobFiles, type CalibrationFileKind, type CalibrationFileRow, type CalibrationModule, type JobListRow } from '@revloop/db';
+import type { Verification } from '@revloop/contract';
+import { findRevisionsWithImage, listJobFiles, type CalibrationFileRow, type JobListRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { asSubject } from '@revloop/domain/auth';
-import { diffImages, imagesEqual, type DiffRange } from '@revloop/domain/calibration';
+import { diffImages, imagesEqual } from '@revloop/domain/calibration';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { imageOf } from './file-image';
 import { fileLabel } from './file.presenter';
 import { fileSubject, loadFile } from './file.service';
 
-export interface ForeignMatch {
-  fileId: string;
-  jobId: string;
-  jobNumber: number;
-  module: CalibrationModule;
-  revisionNumber: number | null;
-}
-
-export interface Verification {
-  fileId: string;
-  kind: CalibrationFileKind;
-  module: CalibrationModule;
-  /**
-   * matches: equals the revision believed on the car (or, before any revision, the read);
-   * matches_older: equals an older revision of the job; differs: equals none, compared with the believed one;
-   * no_reference: nothing to compare with; not_compared: reads and revisions are only checked for foreign matches.
-   */
-  status: 'matches' | 'matches_older' | 'differs' | 'no_reference' | 'not_compared';
-  matchesRevision: number | null;
-  /** The file the shop believes is on the car (latest revision sent for the module, else the read). */
-  believed: { fileId: string; label: string; revisionNumber: number | null } | null;
-  changedBytes: number;
-  changedShare: number;
-  ranges: DiffRange[];
-  totalRanges: number;
-  warning: boolean;
-  message: string;
-  foreignMatch: boolean;
-  foreignMatches: ForeignMatch[];
-  foreignMessage: string | null;
-}
+// What a check answers is the contract's shape (one authority for it).
+export type { Verification } from '@revloop/contract';
+type ForeignMatch = Verification['foreignMatches'][number];
 
 const MAX_VERIFY_RANGES = 50;
 

@@ -1,3 +1,4 @@
+import type { CalibrationFile } from '@revloop/contract';
 import type { CalibrationFileKind, CalibrationFileListRow, CalibrationFileRow, JobListRow } from '@revloop/db';
 import { formatCrc32, revisionDownloadName, type AddressRange, type CalibrationFormat } from '@revloop/domain/calibration';
 
@@ -29,7 +30,7 @@ export function downloadNameOf(row: CalibrationFileRow, job: JobListRow): string
   });
 }
 
-export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow) {
+export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow): CalibrationFile {
   return {
     id: row.id,
     jobId: row.job_id,
@@ -54,4 +55,4 @@ export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow) {
     createdAt: row.created_at,
   };
 }
-export type ApiCalibrationFile = ReturnType<typeof fileRowToApi>;
+export type ApiCalibrationFile = CalibrationFile;

@@ -1,3 +1,4 @@
+import type { Job } from '@revloop/contract';
 import type { JobListRow, JobMessageListRow, JobRow } from '@revloop/db';
 import type { Actor, AppAbility } from '@revloop/domain/auth';
 import { JOB_STATE_LABELS, availableTransitions, nextStep, staleAfterHours, type JobFacts } from '@revloop/domain/jobs';
@@ -27,7 +28,7 @@ export const jobSubject = (row: JobRow) => ({
 const audienceOf = (actor: Actor) => (actor.role === 'customer' ? 'customer' : actor.role === 'dealer' ? 'dealer' : 'shop');
 
 /** API shape of a job for this viewer: what it is, where it stands, and what they can do next. */
-export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: AppAbility }, now: Date) {
+export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: AppAbility }, now: Date): Job {
   const facts = factsOf(row);
   const hoursInState = (now.getTime() - Date.parse(row.state_changed_at)) / 3_600_000;
   const staleAfter = staleAfterHours(row.state);
@@ -44,8 +45,8 @@ export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: Ap
     package: { id: row.package_id, name: row.package_name },
     tuner: row.assigned_tuner_id ? { id: row.assigned_tuner_id, name: row.tuner_name } : null,
     goals: row.goals,
-    specialRequests: JSON.parse(row.special_requests) as unknown,
-    logRequest: JSON.parse(row.log_request) as unknown,
+    specialRequests: JSON.parse(row.special_requests) as Job['specialRequests'],
+    logRequest: JSON.parse(row.log_request) as Job['logRequest'],
     facts: { hasStockRead: facts.hasStockRead, hasRevisionForRound: facts.hasRevisionForRound, hasLogForRound: facts.hasLogForRound },
     stateChangedAt: row.state_changed_at,
     hoursInState: Math.max(0, Math.round(hoursInState * 10) / 10),
@@ -57,7 +58,7 @@ export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: Ap
     updatedAt: row.updated_at,
   };
 }
-export type ApiJob = ReturnType<typeof jobRowToJob>;
+export type ApiJob = Job;
 
 /**
  * The first moment (epoch ms) at which `jobRowToJob` would answer differently for this row with nothing written:

@@ -1,10 +1,11 @@
 import { Router, type Response } from 'express';
-import { JOB_SORTS, eachJobBatch, jobListVersion, listJobs, type JobListFilter } from '@revloop/db';
+import { eachJobBatch, jobListVersion, listJobs, type JobListFilter } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { asSubject, jobScopeFor } from '@revloop/domain/auth';
 import { csvLine } from '@revloop/domain/csv';
 import { logRequestSchema } from '@revloop/domain/datalog';
 import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema } from '@revloop/domain/jobs';
+import { jobListQuerySchema as listQuerySchema } from '@revloop/contract';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
@@ -16,26 +17,6 @@ import { loadJob } from './job-lookup.service';
 import { jobMessages, postJobMessage } from './job-messages.service';
 import { timelineFor } from './job-timeline.service';
 import { assignJob, changeLogRequest, moveJob, takeJob } from './job-workflow.service';
-
-const stateList = z
-  .string()
-  .transform((s) => s.split(',').filter(Boolean))
-  .pipe(z.array(z.enum(JOB_STATES)));
-
-const listQuerySchema = z.object({
-  state: stateList.optional(),
-  open: z.enum(['true', 'false']).optional(),
-  tuner: z.string().min(1).optional(),
-  dealer: z.string().min(1).optional(),
-  package: z.string().min(1).optional(),
-  customer: z.string().min(1).optional(),
-  q: z.string().trim().max(100).optional(),
-  mine: z.enum(['true', 'false']).optional(),
-  sort: z.enum(JOB_SORTS).default('updated'),
-  dir: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
-});
 
 function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobListFilter {
   return {

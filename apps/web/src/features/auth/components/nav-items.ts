@@ -1,6 +1,6 @@
+import type { Me } from '@revloop/contract';
 import type { AppAbility } from '@revloop/domain/auth';
 import { paths } from '../../../config/paths';
-import type { Me } from '../api/get-me';
 
 type Viewer = Pick<Me, 'role'>;
 

@@ -10,6 +10,7 @@ import {
   type SortingState,
   type Updater,
 } from '@tanstack/react-table';
+import { type Job, JOB_SORT_KEYS, type JobSortKey } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { buttonClasses } from '../../../components/ui/button';
 import { Select } from '../../../components/ui/select';
@@ -20,7 +21,7 @@ import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { getJobsExportHref } from '../api/export-jobs';
-import { JOB_SORT_KEYS, useJobs, type Job, type JobSortKey } from '../api/get-jobs';
+import { useJobs } from '../api/get-jobs';
 import { formatTimeInState } from './job-format';
 import { PAGE_SIZES, tableParams, type JobsScreenState } from './job-list-params';
 import { JobStateBadge, StaleBadge } from './job-state-badge';
