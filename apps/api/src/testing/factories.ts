@@ -78,10 +78,10 @@ export async function createUser(t: TestApp, fields: { email?: string; name?: st
 export const createPlatformAdmin = (t: TestApp, fields: { email?: string; name?: string } = {}) => createUser(t, { ...fields, platformAdmin: true });
 
 /** A shop and its owner, as sign-up leaves it. */
-export async function createShop(t: TestApp, fields: { name?: string; currency?: string; ownerEmail?: string } = {}): Promise<TestShop> {
+export async function createShop(t: TestApp, fields: { name?: string; currency?: string; ownerEmail?: string; ownerName?: string } = {}): Promise<TestShop> {
   const n = next();
   const shop = await insertShop(t.db, { id: newId(), name: fields.name ?? `Shop ${n}`, currency: fields.currency ?? 'USD', created_at: now(t) });
-  const owner = await addMember(t, shop.id, 'owner', { email: fields.ownerEmail ?? `owner${n}@factory.test` });
+  const owner = await addMember(t, shop.id, 'owner', { email: fields.ownerEmail ?? `owner${n}@factory.test`, ...(fields.ownerName && { name: fields.ownerName }) });
   return { id: shop.id, name: shop.name, currency: shop.currency, owner };
 }
 
