@@ -59,7 +59,7 @@ let template: Promise<MigratedTemplate> | undefined;
  * database; tests add the rows they need with ./factories. The blob store is shared within the process: it is
  * content-addressed, so a test's uploads never change what another reads.
  */
-function migratedTemplate(): Promise<MigratedTemplate> {
+export function migratedTemplate(): Promise<MigratedTemplate> {
   template ??= (async () => {
     const db = createDb(':memory:');
     await migrateToLatest(db);
@@ -73,9 +73,9 @@ function migratedTemplate(): Promise<MigratedTemplate> {
 }
 
 /** The whole API on an empty migrated in-memory database, a fake clock and a live local SMTP mailbox. */
-export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean } = {}): Promise<TestApp> {
+export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean; database?: Buffer } = {}): Promise<TestApp> {
   const { snapshot, dataDir } = await migratedTemplate();
-  const db = createDb(snapshot);
+  const db = createDb(options.database ?? snapshot);
   const clock = new FakeClock();
   const blobs = new BlobStore(dataDir);
   const smtp = await startSmtpFake();
