@@ -8,8 +8,7 @@ import {
 } from '@revloop/db';
 import { sql } from 'kysely';
 import type { ShopRole } from '@revloop/domain/auth';
-import { hashPassword } from '../../apps/api/src/features/auth/password';
-import type { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { hashPassword, type BlobStore } from '@revloop/api';
 import { seedBilling } from './billing-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';

@@ -26,13 +26,14 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, expectTypeOf, it } from 'vitest';
 import type { z } from 'zod';
 import type { Verification as ApiVerification } from './features/files/file-verify.service';
-import { createTestApp, signIn, type TestApp } from './testing/test-app';
+import { createDemoTestApp } from './testing/demo-fixture';
+import { signIn } from './testing/test-app';
 
 // Every answer below is what the web reads; each must parse with the contract schema the web is typed by.
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 let owner: Awaited<ReturnType<typeof signIn>>;
 beforeAll(async () => {
-  t = await createTestApp();
+  t = await createDemoTestApp();
   owner = await signIn(t.app, 'owner@kestrel.test');
 });
 afterAll(async () => {

@@ -1,16 +1,17 @@
 import { findJob, inTransaction, listAuditEvents, listQueuedMails } from '@revloop/db';
 import { SYSTEM_ACTOR_NAME, defineAbilityFor, systemActorFor } from '@revloop/domain/auth';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
+import { createDemoTestApp } from '../../testing/demo-fixture';
+import { signIn } from '../../testing/test-app';
 import { drainMailOutbox } from '../mail/mail-outbox.service';
 import { transitionJob } from './job-workflow.service';
 
 // One writer of job state: the move, its audit event, its in-app notices and its queued e-mail commit or roll
 // back together, and mail goes out only after the commit.
 
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 beforeEach(async () => {
-  t = await createTestApp();
+  t = await createDemoTestApp();
 });
 afterEach(async () => {
   await t.close();
@@ -103,7 +104,7 @@ describe('the job workflow', () => {
       if (shown.status === 404) continue;
       const offered = (shown.body.data.transitions as Array<{ to: string }>).map((x) => x.to);
       for (const to of ['ready', 'on_bench', 'log_review', 'dialed_in', 'on_hold', 'cancelled']) {
-        const probe = await createTestApp();
+        const probe = await createDemoTestApp();
         try {
           const again = await signIn(probe.app, email);
           await probe.db.updateTable('jobs').set({ has_log_for_round: 1 }).where('id', '=', job.id).execute();
