@@ -17,6 +17,7 @@ import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
+import type { PublicSignUpTable } from './shops/public-sign-up.table';
 import type { ShopTable } from './shops/shop.table';
 import type { MembershipTable, PasswordResetTable, UserTable } from './users/user.table';
 
@@ -46,4 +47,5 @@ export interface Database {
   payments: PaymentTable;
   payment_refunds: PaymentRefundTable;
   ledger_entries: LedgerEntryTable;
+  public_sign_ups: PublicSignUpTable;
 }
