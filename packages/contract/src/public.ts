@@ -47,12 +47,15 @@ export const publicShopSchema = z.strictObject({
 });
 export type PublicShop = z.infer<typeof publicShopSchema>;
 
-/** `POST /api/public/shops/:slug/start`: the customer's account and the job's intake, sent together. */
+/**
+ * `POST /api/public/shops/:slug/start`: the customer's account and the job's intake, sent together. The vehicle keeps
+ * the intake's `{kind: 'new', vehicle}` shape (a new customer has none on file), so the intake's vehicle fields serve both forms.
+ */
 export const publicStartSchema = jobIntakeSchema.omit({ customer: true, vehicle: true }).extend({
   name: nameSchema(1, 80, 'Enter your name.'),
   email: emailSchema,
   password: passwordSchema,
-  vehicle: vehicleInputSchema,
+  vehicle: z.object({ kind: z.literal('new'), vehicle: vehicleInputSchema }),
 });
 export type PublicStartInput = z.infer<typeof publicStartSchema>;
 export type PublicStartFormValues = z.input<typeof publicStartSchema>;

@@ -18,7 +18,7 @@ const counts = async (shopId: string) => ({
   jobs: Number((await t.db.selectFrom('jobs').select((e) => e.fn.countAll().as('n')).where('shop_id', '=', shopId).executeTakeFirstOrThrow()).n),
 });
 
-async function firstPackageId(slug = KESTREL.slug): Promise<string> {
+async function firstPackageId(slug: string = KESTREL.slug): Promise<string> {
   const res = await request(t.app).get(`/api/public/shops/${slug}`);
   return res.body.data.packages[0].id as string;
 }
@@ -27,7 +27,7 @@ const startBody = (packageId: string, email = 'new.driver@example.test') => ({
   name: 'Riley Novak',
   email,
   password: 'a-long-enough-password',
-  vehicle: TEST_VEHICLE,
+  vehicle: { kind: 'new', vehicle: TEST_VEHICLE },
   packageId,
   goals: 'More midrange on 93 octane, stock turbo.',
   cautionsAccepted: true,

@@ -111,7 +111,7 @@ export async function finishStartTune(deps: AppDeps, token: string): Promise<{ s
   const auth = await loadAuthContext(db, session.id, userId, shop.id);
   if (!auth?.shop) throw invalidLink();
   authorize(auth, 'create', 'Job');
-  const job = await openJob(deps, { ...auth, shop: auth.shop }, { ...intake, customer: { kind: 'existing', customerUserId: userId }, vehicle: { kind: 'new', vehicle: intake.vehicle } });
+  const job = await openJob(deps, { ...auth, shop: auth.shop }, { ...intake, customer: { kind: 'existing', customerUserId: userId }, vehicle: intake.vehicle });
   return { sessionToken, expiresAt: session.expires_at, jobId: job.id };
 }
 
