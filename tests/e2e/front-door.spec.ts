@@ -99,3 +99,34 @@ test('a page turned off answers "no page here"; the owner turns it back on', asy
   await page.goto('/s/harbor-dyno');
   await expect(page.getByRole('heading', { level: 1, name: 'Harbor Dyno & Tune' })).toBeVisible();
 });
+
+for (const viewport of VIEWPORTS) {
+  test(`a new shop sees the first-run checklist on its board; each step links to its page (${viewport.width} px)`, async ({ page }) => {
+    await page.setViewportSize({ width: viewport.width, height: viewport.height });
+    await page.goto('/sign-up');
+    await page.getByLabel('Shop name').fill(`Bench Co ${viewport.name}`);
+    await page.getByLabel('Your name').fill('Ari Vale');
+    await page.getByLabel('E-mail').fill(`ari.${viewport.name}.${Date.now()}@bench.test`);
+    await page.getByLabel('Password').fill('long-enough-pass');
+    await page.getByRole('button', { name: 'Create shop' }).click();
+    const checklist = page.locator('section').filter({ has: page.getByRole('heading', { name: 'Set up your shop' }) });
+    await expect(checklist.getByText('0 of 5 done.')).toBeVisible();
+    await expect(checklist.getByRole('listitem')).toHaveCount(5);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewport.width);
+    await page.screenshot({ path: `.tmp/front-door-${viewport.name}-checklist.png`, fullPage: true });
+
+    // Set the public page from the step's link; back on the board the step has ticked itself.
+    await checklist.getByRole('link', { name: /Share the public page link/ }).click();
+    const publicPage = page.locator('section').filter({ has: page.getByRole('heading', { name: 'Public page' }) });
+    await publicPage.getByLabel('Page address').fill(`bench-co-${viewport.name}`);
+    await publicPage.getByLabel('Public page on').check();
+    await publicPage.getByRole('button', { name: 'Save public page' }).click();
+    await expect(publicPage.getByText('Your page is on at')).toBeVisible();
+    await page.goto('/jobs');
+    await expect(checklist.getByText('1 of 5 done.')).toBeVisible();
+    await expect(checklist.getByRole('link', { name: new RegExp(`/s/bench-co-${viewport.name}$`) })).toBeVisible();
+    await expect(page.getByText('No packages yet')).toHaveCount(0);
+    await checklist.getByRole('link', { name: /Add a package/ }).click();
+    await expect(page.getByText('No packages yet')).toBeVisible();
+  });
+}
