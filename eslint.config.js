@@ -27,6 +27,8 @@ const SHARED_FEATURE_MODULES = [
   'vehicles/api/get-vehicles.ts',
   'datalogs/components/progress-bar.tsx',
   'jobs/components/intake-errors.ts',
+  'jobs/components/cautions.tsx',
+  'jobs/components/intake-vehicle-fields.tsx',
   'vehicles/components/rolling-circumference-form.tsx',
   'vehicles/components/vehicle-units.ts',
 ];

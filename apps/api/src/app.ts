@@ -22,6 +22,7 @@ import { createMembersRouter } from './features/members/members.router';
 import { createCustomersRouter } from './features/customers/customers.router';
 import { createJobsRouter } from './features/jobs/jobs.router';
 import { createNotificationsRouter } from './features/notifications/notifications.router';
+import { createPublicRouter } from './features/public/public.router';
 import { createPackagesRouter } from './features/packages/packages.router';
 import { createShopRouter } from './features/shop/shop.router';
 import { createVehiclesRouter } from './features/vehicles/vehicles.router';
@@ -79,8 +80,9 @@ export function createApp(deps: AppDeps): Express {
     legacyHeaders: false,
     handler: (_req, _res, next) => next(new DomainError('rate_limited', 'Too many requests from this address. Try again later.')),
   });
-  api.use(['/auth/sign-up', '/auth/password-reset'], accountLimiter);
+  api.use(['/auth/sign-up', '/auth/password-reset', '/public/shops/:slug/start', '/public/shops/:slug/verify'], accountLimiter);
   api.use('/auth', createAuthRouter(deps));
+  api.use('/public', createPublicRouter(deps));
   api.use('/me', createMeRouter(deps));
   api.use('/invitations', createInvitationsRouter(deps));
   api.use('/members', createMembersRouter(deps));

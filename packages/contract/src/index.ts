@@ -6,3 +6,4 @@ export * from './datalogs';
 export * from './billing';
 export * from './members';
 export * from './me';
+export * from './public';

@@ -18,6 +18,7 @@ import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
+import type { PublicSignUpTable } from './shops/public-sign-up.table';
 import type { ShopTable } from './shops/shop.table';
 import type { MembershipTable, PasswordResetTable, UserTable } from './users/user.table';
 
@@ -48,4 +49,5 @@ export interface Database {
   payments: PaymentTable;
   payment_refunds: PaymentRefundTable;
   ledger_entries: LedgerEntryTable;
+  public_sign_ups: PublicSignUpTable;
 }

@@ -5,6 +5,8 @@ export * from './ids';
 export * from './migrate';
 export * from './shops/shop.table';
 export * from './shops/shop.repository';
+export * from './shops/public-sign-up.table';
+export * from './shops/public-sign-up.repository';
 export * from './users/user.table';
 export * from './users/user.repository';
 export * from './sessions/session.table';

@@ -8,6 +8,7 @@ import * as billing from './migrations/2026-12-02-005-billing';
 import * as boardIndexes from './migrations/2026-12-02-006-board-indexes';
 import * as vehicleRollingCircumference from './migrations/2026-12-02-007-vehicle-rolling-circumference';
 import * as mailOutbox from './migrations/2026-12-02-008-mail-outbox';
+import * as publicPages from './migrations/2026-12-02-009-public-pages';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
@@ -20,6 +21,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-006-board-indexes': boardIndexes,
   '2026-12-02-007-vehicle-rolling-circumference': vehicleRollingCircumference,
   '2026-12-02-008-mail-outbox': mailOutbox,
+  '2026-12-02-009-public-pages': publicPages,
   '2026-12-02-012-job-list-versions': jobListVersions,
 };
 

@@ -22,6 +22,8 @@ export const router = createBrowserRouter([
           { path: paths.auth.forgotPassword.path, lazy: screen(() => import('./routes/auth/forgot-password'), (m) => m.ForgotPasswordRoute) },
           { path: paths.auth.resetPassword.path, lazy: screen(() => import('./routes/auth/reset-password'), (m) => m.ResetPasswordRoute) },
           { path: paths.auth.invitation.path, lazy: screen(() => import('./routes/auth/invitation'), (m) => m.InvitationRoute) },
+          { path: paths.publicShop.path, lazy: screen(() => import('./routes/public/shop-page'), (m) => m.PublicShopRoute) },
+          { path: paths.publicVerify.path, lazy: screen(() => import('./routes/public/verify'), (m) => m.PublicVerifyRoute) },
         ],
       },
       {

@@ -44,6 +44,8 @@ export const paths = {
     myStatement: { path: '/billing/statement', getHref: () => '/billing/statement' },
     statement: { path: '/billing/statement/:dealerId', getHref: (dealerId: string) => `/billing/statement/${encodeURIComponent(dealerId)}` },
   },
+  publicShop: { path: '/s/:slug', getHref: (slug: string) => `/s/${encodeURIComponent(slug)}` },
+  publicVerify: { path: '/s/:slug/verify', getHref: (slug: string, token: string) => `/s/${encodeURIComponent(slug)}/verify?token=${encodeURIComponent(token)}` },
   dev: {
     mailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
   },

@@ -42,7 +42,7 @@ export function CustomersTable({ customers }: { customers: Customer[] }) {
         getRowId={(customer) => customer.id}
         globalFilter={filter}
         initialSorting={[{ id: 'name', desc: false }]}
-        emptyMessage={filter ? 'No customer matches the filter.' : 'No customers yet: open a job for a new customer to add one.'}
+        emptyMessage={filter ? 'No customer matches the filter.' : 'No customers yet: open a job for a new customer, or share your public page so customers sign up themselves.'}
       />
     </div>
   );

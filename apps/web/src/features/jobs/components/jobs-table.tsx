@@ -96,6 +96,7 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
   if (jobs.isError) return <Banner tone="bad">{errorMessage(jobs.error)}</Banner>;
   const meta = jobs.data?.meta;
 
+  const filtered = Boolean(state.q || state.tuner || state.dealer || state.package || state.customer || state.mine || state.state);
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
@@ -112,7 +113,7 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
         dense
         minWidthClass="min-w-[56rem]"
         caption={`Jobs, sorted by ${state.sort.replace('_', ' ')} ${state.dir === 'asc' ? 'ascending' : 'descending'}`}
-        emptyMessage={jobs.isPending ? 'Loading…' : 'No job matches the filters.'}
+        emptyMessage={jobs.isPending ? 'Loading…' : filtered ? 'No job matches the filters.' : 'No jobs yet: open one with "Open a job", or share your public page so customers start a tune themselves.'}
       />
       <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
         <label className="flex items-center gap-2 whitespace-nowrap">
