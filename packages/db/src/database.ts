@@ -15,6 +15,7 @@ import type { JobListVersionTable, JobMessageTable, JobStateCountTable, JobTable
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
+import type { DatalogCheckTable } from './reports/reports.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
 import type { ShopTable } from './shops/shop.table';
@@ -38,6 +39,7 @@ export interface Database {
   notifications: NotificationTable;
   datalogs: DatalogTable;
   datalog_mappings: DatalogMappingTable;
+  datalog_checks: DatalogCheckTable;
   calibration_files: CalibrationFileTable;
   shop_subscriptions: ShopSubscriptionTable;
   subscription_changes: SubscriptionChangeTable;
