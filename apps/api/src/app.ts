@@ -23,6 +23,7 @@ import { createCustomersRouter } from './features/customers/customers.router';
 import { createJobsRouter } from './features/jobs/jobs.router';
 import { createNotificationsRouter } from './features/notifications/notifications.router';
 import { createPackagesRouter } from './features/packages/packages.router';
+import { createReportsRouter } from './features/reports/reports.router';
 import { createShopRouter } from './features/shop/shop.router';
 import { createVehiclesRouter } from './features/vehicles/vehicles.router';
 import { sessionMiddleware } from './http/auth-context';
@@ -92,6 +93,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/vehicles', createVehiclesRouter(deps));
   api.use('/packages', createPackagesRouter(deps));
   api.use('/customers', createCustomersRouter(deps));
+  api.use('/reports', createReportsRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
   api.use(createFilesRouter(deps));
   api.use(createDatalogsRouter(deps));
