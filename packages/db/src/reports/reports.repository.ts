@@ -254,24 +254,21 @@ export async function revenueByMonth(db: Db, shopId: string, months: ReportBucke
   return result.rows.map((r) => toRevenueRow(r, r.key ?? ''));
 }
 
-/** Revenue per package the money was for, largest net first. */
-export async function revenueByPackage(db: Db, shopId: string, range: ReportRange): Promise<RevenueRow[]> {
-  const result = await sql<MoneySumRow>`
-    with money as (${moneyRows(shopId, range)})
-    select m.package_id as key, pk.name as label, ${moneySums}
-    from money m left join packages pk on pk.id = m.package_id and pk.shop_id = ${shopId}
-    group by m.package_id order by net desc, label`.execute(db);
-  return result.rows.map((r) => toRevenueRow(r, 'No package'));
-}
+/** How revenue splits other than by month: the money's column, the table that names it, and the name of "none". */
+const SPLITS = {
+  package: { column: 'package_id', table: 'packages', name: 'name', none: 'No package' },
+  dealer: { column: 'dealer_id', table: 'dealers', name: 'name', none: 'Retail customers (no dealer)' },
+} as const;
 
-/** Revenue per dealer; customers who buy from the shop directly are one row with no dealer. */
-export async function revenueByDealer(db: Db, shopId: string, range: ReportRange): Promise<RevenueRow[]> {
+/** Revenue per package the money was for, or per dealer (customers who buy directly are one row with no dealer); largest net first. */
+export async function revenueBy(db: Db, shopId: string, range: ReportRange, split: keyof typeof SPLITS): Promise<RevenueRow[]> {
+  const { column, table, name, none } = SPLITS[split];
   const result = await sql<MoneySumRow>`
     with money as (${moneyRows(shopId, range)})
-    select m.dealer_id as key, d.name as label, ${moneySums}
-    from money m left join dealers d on d.id = m.dealer_id and d.shop_id = ${shopId}
-    group by m.dealer_id order by net desc, label`.execute(db);
-  return result.rows.map((r) => toRevenueRow(r, 'Retail customers (no dealer)'));
+    select m.${sql.raw(column)} as key, n.${sql.raw(name)} as label, ${moneySums}
+    from money m left join ${sql.table(table)} n on n.id = m.${sql.raw(column)} and n.shop_id = ${shopId}
+    group by m.${sql.raw(column)} order by net desc, label`.execute(db);
+  return result.rows.map((r) => toRevenueRow(r, none));
 }
 
 export interface LogQualityRow {

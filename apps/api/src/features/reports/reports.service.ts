@@ -1,8 +1,7 @@
 import {
   logQualityReport,
-  revenueByDealer,
+  revenueBy,
   revenueByMonth,
-  revenueByPackage,
   roundsReport,
   tunerLoadReport,
   turnaroundReport,
@@ -82,9 +81,7 @@ export async function revenue(db: Db, shop: ShopRow, query: ReportQuery, by: Rev
   const rows: RevenueRow[] =
     by === 'month'
       ? await revenueByMonth(db, shop.id, monthsIn(query.from, query.to, timeZone))
-      : by === 'package'
-        ? await revenueByPackage(db, shop.id, range)
-        : await revenueByDealer(db, shop.id, range);
+      : await revenueBy(db, shop.id, range, by);
   const sum = (pick: (r: RevenueRow) => number) => rows.reduce((total, r) => total + pick(r), 0);
   const totals = { paymentsMinor: sum((r) => r.paymentsMinor), refundsMinor: sum((r) => r.refundsMinor), dealerDebitsMinor: sum((r) => r.dealerDebitsMinor), netMinor: sum((r) => r.netMinor) };
   const currency = shop.currency.toUpperCase();

@@ -8,14 +8,21 @@ import { RequireScreen } from './require-screen';
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
 /** The range lives in the address (?from&to), so a report can be bookmarked or sent; the last four months otherwise. */
-function useReportRange(): [ReportRange, (range: ReportRange) => void] {
+function useReportRange(): [ReportRange, (patch: Partial<ReportRange>) => void] {
   const [params, setParams] = useSearchParams();
   const fallback = defaultReportRange();
   const read = (key: 'from' | 'to') => {
     const value = params.get(key);
     return value && DAY.test(value) ? value : fallback[key];
   };
-  return [{ from: read('from'), to: read('to') }, (range) => setParams({ from: range.from, to: range.to }, { replace: true })];
+  // A functional update: the router applies navigations in a transition, so a second change right after the first
+  // must build on the address as it is by then, not on this render's range.
+  const update = (patch: Partial<ReportRange>) =>
+    setParams(
+      (current) => ({ from: patch.from ?? current.get('from') ?? fallback.from, to: patch.to ?? current.get('to') ?? fallback.to }),
+      { replace: true },
+    );
+  return [{ from: read('from'), to: read('to') }, update];
 }
 
 function ReportsScreen() {

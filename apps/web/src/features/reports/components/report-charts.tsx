@@ -77,9 +77,11 @@ export function WeeklyJobsChart({ report }: { report: WeeklyJobsReport }) {
 }
 
 export function TunerLoadChart({ report }: { report: TunerLoadReport }) {
+  // Only the plotted fields: recharts copies a row's fields onto its bar, and a `role` field there is an invalid ARIA role.
+  const data = report.rows.map((r) => ({ name: r.name, openJobs: r.openJobs, dialedIn: r.dialedIn }));
   return (
     <ChartFrame label="Load per tuner" minWidthPx={Math.max(320, report.rows.length * 110)} summary={report.rows.map((r) => `${r.name}: ${r.openJobs} open, ${r.dialedIn} dialed in`).join('; ')}>
-      <BarChart data={report.rows} margin={{ top: 8, right: 16, bottom: 8, left: 16 }}>
+      <BarChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 16 }}>
         <CartesianGrid strokeDasharray="3 3" stroke="var(--color-ink-200)" />
         <XAxis dataKey="name" tick={TICK} height={48} interval={0} label={{ ...AXIS_LABEL, value: 'Tuner', position: 'insideBottom' }} />
         <YAxis tick={TICK} width={56} allowDecimals={false} label={{ ...AXIS_LABEL, value: 'Jobs (count)', angle: -90, position: 'insideLeft' }} />

@@ -17,16 +17,16 @@ export function defaultReportRange(today: Date = new Date()): ReportRange {
 }
 
 /** Two native date fields; each change applies at once (the reports refetch), a backwards range says so. */
-export function ReportRangeForm({ range, onChange }: { range: ReportRange; onChange: (range: ReportRange) => void }) {
+export function ReportRangeForm({ range, onChange }: { range: ReportRange; onChange: (patch: Partial<ReportRange>) => void }) {
   const id = useId();
   const backwards = range.from > range.to;
   return (
     <form className="flex flex-wrap items-end gap-4" onSubmit={(e) => e.preventDefault()} aria-label="Report dates">
       <Field id={`${id}-from`} label="From" hint="First day, in the shop's time zone">
-        {(a11y) => <Input type="date" {...a11y} value={range.from} max={range.to} required onChange={(e) => e.target.value && onChange({ ...range, from: e.target.value })} />}
+        {(a11y) => <Input type="date" {...a11y} value={range.from} max={range.to} required onChange={(e) => e.target.value && onChange({ from: e.target.value })} />}
       </Field>
       <Field id={`${id}-to`} label="To" error={backwards ? 'The end date must not be before the start date.' : undefined} hint="Last day, included">
-        {(a11y) => <Input type="date" {...a11y} value={range.to} min={range.from} required onChange={(e) => e.target.value && onChange({ ...range, to: e.target.value })} />}
+        {(a11y) => <Input type="date" {...a11y} value={range.to} min={range.from} required onChange={(e) => e.target.value && onChange({ to: e.target.value })} />}
       </Field>
     </form>
   );
