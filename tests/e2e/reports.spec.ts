@@ -58,6 +58,7 @@ test('the owner sees every report with charts and tables, changes the dates and 
 
   // A range with no work in it: each card says so in words instead of drawing an empty chart.
   await page.getByLabel('From', { exact: true }).fill('2020-01-01');
+  await expect(page.getByLabel('From', { exact: true })).toHaveValue('2020-01-01');
   await page.getByLabel('To', { exact: true }).fill('2020-01-31');
   await expect(page).toHaveURL(/from=2020-01-01&to=2020-01-31/);
   await expect(page.getByText('No job moved in these days.')).toBeVisible();

@@ -1,3 +1,4 @@
+import { useEffect, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { PageHeader } from '../../../components/layout/page-header';
 import { LogQualityPanel, RevenuePanel, RoundsPanel, TunerLoadPanel, TurnaroundPanel, WeeklyJobsPanel } from '../../../features/reports/components/report-panels';
@@ -7,22 +8,25 @@ import { RequireScreen } from './require-screen';
 
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
-/** The range lives in the address (?from&to), so a report can be bookmarked or sent; the last four months otherwise. */
+/**
+ * The range lives in the address (?from&to), so a report can be bookmarked or sent; the last four months otherwise.
+ * The page keeps it in state and writes the address after: the router applies navigations in a transition, so two
+ * quick changes read from the address would lose the first.
+ */
 function useReportRange(): [ReportRange, (patch: Partial<ReportRange>) => void] {
   const [params, setParams] = useSearchParams();
-  const fallback = defaultReportRange();
-  const read = (key: 'from' | 'to') => {
-    const value = params.get(key);
-    return value && DAY.test(value) ? value : fallback[key];
-  };
-  // A functional update: the router applies navigations in a transition, so a second change right after the first
-  // must build on the address as it is by then, not on this render's range.
-  const update = (patch: Partial<ReportRange>) =>
-    setParams(
-      (current) => ({ from: patch.from ?? current.get('from') ?? fallback.from, to: patch.to ?? current.get('to') ?? fallback.to }),
-      { replace: true },
-    );
-  return [{ from: read('from'), to: read('to') }, update];
+  const [range, setRange] = useState<ReportRange>(() => {
+    const fallback = defaultReportRange();
+    const read = (key: 'from' | 'to') => {
+      const value = params.get(key);
+      return value && DAY.test(value) ? value : fallback[key];
+    };
+    return { from: read('from'), to: read('to') };
+  });
+  useEffect(() => {
+    setParams({ from: range.from, to: range.to }, { replace: true });
+  }, [range.from, range.to, setParams]);
+  return [range, (patch) => setRange((current) => ({ ...current, ...patch }))];
 }
 
 function ReportsScreen() {
