@@ -5,6 +5,8 @@ import { sql, type Kysely } from 'kysely';
 export async function up(db: Kysely<any>): Promise<void> {
   // Job moves (turnaround, rounds, dialed-in counts, review times) by kind and time, never the shop's whole history.
   await db.schema.createIndex('audit_events_shop_action_created').on('audit_events').columns(['shop_id', 'action', 'created_at']).execute();
+  // A job's moves and opening alone, in time order: the stint a move ends is found by one seek for the event before it.
+  await sql`create index audit_events_job_moves on audit_events (shop_id, subject_id, created_at) where action in ('job.opened', 'job.moved')`.execute(db);
   // Revenue: payments by the time they landed, refunds and dealer ledger entries by the time they were written.
   await db.schema.createIndex('payments_shop_paid').on('payments').columns(['shop_id', 'paid_at']).execute();
   await db.schema.createIndex('payment_refunds_shop_created').on('payment_refunds').columns(['shop_id', 'created_at']).execute();
@@ -41,7 +43,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 export async function down(db: Kysely<any>): Promise<void> {
   for (const trigger of ['datalogs_checks_insert', 'datalogs_checks_update']) await sql`drop trigger ${sql.raw(trigger)}`.execute(db);
   await db.schema.dropTable('datalog_checks').execute();
-  for (const name of ['audit_events_shop_action_created', 'payments_shop_paid', 'payment_refunds_shop_created', 'ledger_entries_shop_created']) {
+  for (const name of ['audit_events_shop_action_created', 'audit_events_job_moves', 'payments_shop_paid', 'payment_refunds_shop_created', 'ledger_entries_shop_created']) {
     await db.schema.dropIndex(name).execute();
   }
 }

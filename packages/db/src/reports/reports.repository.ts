@@ -61,9 +61,9 @@ function stintsQuery(db: Db, shopId: string, range: ReportRange) {
         .selectFrom('audit_events as p')
         .select((p) => p.fn.max('p.created_at').as('t'))
         .whereRef('p.shop_id', '=', 'm.shop_id')
-        .where('p.subject_type', '=', 'Job')
         .whereRef('p.subject_id', '=', 'm.subject_id')
-        .where('p.action', 'in', ['job.opened', 'job.moved'])
+        // Literal, not bound: only then may SQLite answer from the partial index of job moves (migration 010).
+        .where(sql<boolean>`p.action in ('job.opened', 'job.moved')`)
         .whereRef('p.created_at', '<', 'm.created_at')})) * 24`.as('hours'),
     ])
     .where('m.shop_id', '=', shopId)
