@@ -24,6 +24,7 @@ import { createJobsRouter } from './features/jobs/jobs.router';
 import { createNotificationsRouter } from './features/notifications/notifications.router';
 import { createPublicRouter } from './features/public/public.router';
 import { createPackagesRouter } from './features/packages/packages.router';
+import { createReportsRouter } from './features/reports/reports.router';
 import { createShopRouter } from './features/shop/shop.router';
 import { createVehiclesRouter } from './features/vehicles/vehicles.router';
 import { sessionMiddleware } from './http/auth-context';
@@ -94,6 +95,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/vehicles', createVehiclesRouter(deps));
   api.use('/packages', createPackagesRouter(deps));
   api.use('/customers', createCustomersRouter(deps));
+  api.use('/reports', createReportsRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
   api.use('/files', createFilesRouter(deps));
   api.use('/jobs/:jobId/files', createJobFilesRouter(deps));

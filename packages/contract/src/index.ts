@@ -7,3 +7,4 @@ export * from './billing';
 export * from './members';
 export * from './me';
 export * from './public';
+export * from './reports';

@@ -16,6 +16,7 @@ import type { MailOutboxTable } from './mail/mail-outbox.table';
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
+import type { DatalogCheckTable } from './reports/reports.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
 import type { PublicSignUpTable } from './shops/public-sign-up.table';
@@ -41,6 +42,7 @@ export interface Database {
   mail_outbox: MailOutboxTable;
   datalogs: DatalogTable;
   datalog_mappings: DatalogMappingTable;
+  datalog_checks: DatalogCheckTable;
   calibration_files: CalibrationFileTable;
   shop_subscriptions: ShopSubscriptionTable;
   subscription_changes: SubscriptionChangeTable;

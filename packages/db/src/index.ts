@@ -37,3 +37,5 @@ export * from './billing/stripe-event.repository';
 export * from './billing/payment.repository';
 export * from './billing/ledger.repository';
 export * from './recovery/recovery.repository';
+export * from './reports/reports.table';
+export * from './reports/reports.repository';

@@ -6,7 +6,7 @@ import { seedDemo, type DemoIds } from '../../../../seeds/demo/seed-demo';
 // eslint-disable-next-line import-x/no-restricted-paths -- transitional, as above.
 export type { SeededJob } from '../../../../seeds/demo/jobs-scenario';
 // eslint-disable-next-line import-x/no-restricted-paths -- transitional, as above.
-export { DEMO_PASSWORD } from '../../../../seeds/demo/people';
+export { DEMO_PASSWORD, KESTREL } from '../../../../seeds/demo/people';
 export { seedDemo, type DemoIds };
 import { hashPassword } from '../features/auth/password';
 import { BlobStore } from '../storage/blob-store';

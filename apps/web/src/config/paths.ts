@@ -23,6 +23,7 @@ export const paths = {
   vehicle: { path: '/vehicles/:vehicleId', getHref: (vehicleId: string) => `/vehicles/${encodeURIComponent(vehicleId)}` },
   customers: { path: '/customers', getHref: () => '/customers' },
   team: { path: '/team', getHref: () => '/team' },
+  reports: { path: '/reports', getHref: () => '/reports' },
   dealers: {
     list: { path: '/dealers', getHref: () => '/dealers' },
     detail: { path: '/dealers/:dealerId', getHref: (dealerId: string) => `/dealers/${encodeURIComponent(dealerId)}` },

@@ -47,6 +47,7 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Ledger: CRUD,
     Subscription: CRUD,
     AuditEvent: ['read'],
+    Report: ['read'],
     Job: ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
     File: ['read'],
   },

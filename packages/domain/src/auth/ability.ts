@@ -54,6 +54,8 @@ export const SUBJECTS = [
   'ShopSettings',
   /** The local SMTP stand-in's mailbox (development and demo): it holds reset links, so only platform admins read it. */
   'Mailbox',
+  /** The shop's reports: turnaround, rounds, tuner load, revenue and log quality (owner only). */
+  'Report',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -175,6 +177,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   }
 
   defineFileRules(can, actor, shopId);
+  // Reports: how the shop is doing (money, each tuner's load) is the owner's view alone; reading stays open when read-only.
+  if (actor.role === 'owner') can('read', 'Report', inShop);
 
   if (actor.shopReadOnly) {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.

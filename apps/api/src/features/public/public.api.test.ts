@@ -1,12 +1,12 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { KESTREL } from '../../../../../seeds/demo/people';
-import { createTestApp, linkFromMail, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
+import { createDemoTestApp, KESTREL } from '../../testing/demo-fixture';
+import { linkFromMail, signIn, TEST_ORIGIN } from '../../testing/test-app';
 import { TEST_VEHICLE } from '../../testing/test-vehicle';
 
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 beforeEach(async () => {
-  t = await createTestApp();
+  t = await createDemoTestApp();
 });
 afterEach(async () => {
   await t.close();

@@ -23,7 +23,7 @@ import { hashPassword } from '../auth/password';
 import { createSession, generateToken, hashToken } from '../auth/session.service';
 import { sessionPolicyOf } from '../auth/start-session';
 import { assertJobRoom } from '../billing/plan-limits.service';
-import { openJob } from '../jobs/job.service';
+import { openJob } from '../jobs/job-intake.service';
 import { startTuneMail } from './public.mails';
 
 const SIGN_UP_TTL_MS = 24 * 60 * 60_000;
