@@ -26,7 +26,10 @@ export type Action =
   | 'upload'
   | 'upload_revision'
   | 'download'
-  | 'refund';
+  | 'refund'
+  /** Rentals: pick a kit and dates for a job (staff); agree to the rental terms (the job's customer or dealer). */
+  | 'book'
+  | 'agree';
 
 export const SUBJECTS = [
   'Platform',
@@ -46,6 +49,9 @@ export const SUBJECTS = [
   'ShopSettings',
   /** The local SMTP stand-in's mailbox (development and demo): it holds reset links, so only platform admins read it. */
   'Mailbox',
+  /** Flashing kits the shop rents out, and their rentals (issue 14). */
+  'Kit',
+  'Rental',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -146,6 +152,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     }
   }
 
+  defineRentalRules(actor, shopId, can, cannot);
+
   if (actor.shopReadOnly) {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
     cannot(WRITE_ACTIONS, ['Member', 'Invitation', 'Dealer', 'Customer', 'Vehicle', 'Package', 'Job', 'Message', 'ShopSettings']);
@@ -155,6 +163,34 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
   }
   return build();
+}
+
+type RuleFn = AbilityBuilder<AppAbility>['can'];
+
+/**
+ * Kits and rentals. Rental objects carry the job's `customerUserId` and `dealerId`. Customers and dealers see every
+ * kit's busy days (the calendar shows them no other rental: they may not read it), ask for a rental on their jobs
+ * and agree to its terms; staff book; the owner manages kits. Which move each role makes is in the rental machine.
+ */
+function defineRentalRules(actor: Actor, shopId: string, can: RuleFn, cannot: RuleFn): void {
+  const inShop = { shopId };
+  can('read', 'Kit', inShop);
+  switch (actor.role) {
+    case 'owner':
+      can(['create', 'update'], 'Kit', inShop);
+      can(['read', 'create', 'book', 'transition', 'update'], 'Rental', inShop);
+      break;
+    case 'tuner':
+      can(['read', 'create', 'book', 'transition'], 'Rental', inShop);
+      break;
+    case 'dealer':
+      if (actor.dealerId) can(['read', 'create', 'transition', 'agree'], 'Rental', { shopId, dealerId: actor.dealerId });
+      break;
+    case 'customer':
+      can(['read', 'create', 'transition', 'agree'], 'Rental', { shopId, customerUserId: actor.userId });
+      break;
+  }
+  if (actor.shopReadOnly) cannot(['create', 'update', 'book', 'transition', 'agree'], ['Kit', 'Rental']);
 }
 
 /** Row scope for list queries: the SQL twin of the Job conditions above, so lists and checks agree. */

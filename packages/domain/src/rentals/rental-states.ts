@@ -56,3 +56,9 @@ export type RentalEntryKind = (typeof RENTAL_ENTRY_KINDS)[number];
 /** Where the deposit stands: nothing yet, card saved for a later hold, held on the card, released or captured. */
 export const DEPOSIT_STATUSES = ['none', 'card_saved', 'held', 'released', 'captured', 'lapsed'] as const;
 export type DepositStatus = (typeof DEPOSIT_STATUSES)[number];
+
+/** The shop's rental settings with their defaults filled in (shop settings keep them optional). */
+export const rentalSettings = (settings: { rentalShippingDays?: number; rentalOverdueReminderLimit?: number }) => ({
+  shippingDays: settings.rentalShippingDays ?? 2,
+  overdueReminderLimit: settings.rentalOverdueReminderLimit ?? 5,
+});
