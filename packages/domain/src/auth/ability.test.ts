@@ -48,6 +48,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Subscription: CRUD,
     AuditEvent: ['read'],
     Job: ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
+    Kit: ['read', 'create', 'update'],
+    Rental: ['read', 'create', 'update', 'transition'],
   },
   tuner: {
     Shop: ['read'],
@@ -59,6 +61,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Job: ['read', 'create', 'update', 'transition', 'upload', 'upload_revision', 'download'],
     Message: ['read', 'create'],
     Payment: ['read'],
+    Kit: ['read'],
+    Rental: ['read', 'create', 'transition'],
   },
   dealer: {
     Shop: ['read'],
@@ -70,6 +74,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Message: ['read', 'create'],
     Ledger: ['read'],
     Payment: ['read', 'create'],
+    Kit: ['read'],
+    Rental: ['read', 'create', 'transition'],
   },
   customer: {
     Shop: ['read'],
@@ -78,6 +84,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Job: ['read', 'create', 'upload', 'download'],
     Message: ['read', 'create'],
     Payment: ['read', 'create'],
+    Kit: ['read'],
+    Rental: ['read', 'create', 'transition'],
   },
 };
 
