@@ -14,6 +14,7 @@ import type { DealerTable } from './dealers/dealer.table';
 import type { JobListVersionTable, JobMessageTable, JobStateCountTable, JobTable } from './jobs/job.table';
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
+import type { KitTable, RentalEntryTable, RentalReminderTable, RentalTable } from './rentals/rental.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
@@ -46,4 +47,8 @@ export interface Database {
   payments: PaymentTable;
   payment_refunds: PaymentRefundTable;
   ledger_entries: LedgerEntryTable;
+  kits: KitTable;
+  rentals: RentalTable;
+  rental_entries: RentalEntryTable;
+  rental_reminders: RentalReminderTable;
 }

@@ -32,3 +32,5 @@ export * from './billing/stripe-event.repository';
 export * from './billing/payment.repository';
 export * from './billing/ledger.repository';
 export * from './recovery/recovery.repository';
+export * from './rentals/rental.table';
+export * from './rentals/rental.repository';

@@ -7,6 +7,7 @@ import * as datalogs from './migrations/2026-12-02-004-datalogs';
 import * as billing from './migrations/2026-12-02-005-billing';
 import * as boardIndexes from './migrations/2026-12-02-006-board-indexes';
 import * as vehicleRollingCircumference from './migrations/2026-12-02-007-vehicle-rolling-circumference';
+import * as rentals from './migrations/2026-12-02-011-rentals';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
@@ -18,6 +19,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-005-billing': billing,
   '2026-12-02-006-board-indexes': boardIndexes,
   '2026-12-02-007-vehicle-rolling-circumference': vehicleRollingCircumference,
+  '2026-12-02-011-rentals': rentals,
   '2026-12-02-012-job-list-versions': jobListVersions,
 };
 

@@ -193,6 +193,17 @@ function defineRentalRules(actor: Actor, shopId: string, can: RuleFn, cannot: Ru
   if (actor.shopReadOnly) cannot(['create', 'update', 'book', 'transition', 'agree'], ['Kit', 'Rental']);
 }
 
+/** Row scope for rental lists: the SQL twin of the Rental conditions above. */
+export type RentalScopeKind = { kind: 'none' } | { kind: 'shop' } | { kind: 'dealer'; dealerId: string } | { kind: 'customer'; userId: string };
+
+export function rentalScopeFor(actor: Actor): RentalScopeKind {
+  if (actor.platformAdmin || !actor.shopId) return { kind: 'none' };
+  if (actor.role === 'owner' || actor.role === 'tuner') return { kind: 'shop' };
+  if (actor.role === 'dealer') return actor.dealerId ? { kind: 'dealer', dealerId: actor.dealerId } : { kind: 'none' };
+  if (actor.role === 'customer') return { kind: 'customer', userId: actor.userId };
+  return { kind: 'none' };
+}
+
 /** Row scope for list queries: the SQL twin of the Job conditions above, so lists and checks agree. */
 export type JobScope =
   | { kind: 'none' }
