@@ -21,6 +21,8 @@ import { createMeRouter } from './features/me/me.router';
 import { createMembersRouter } from './features/members/members.router';
 import { createCustomersRouter } from './features/customers/customers.router';
 import { createJobsRouter } from './features/jobs/jobs.router';
+import { createKitsRouter } from './features/kits/kits.router';
+import { createRentalsRouter } from './features/rentals/rentals.router';
 import { createNotificationsRouter } from './features/notifications/notifications.router';
 import { createPackagesRouter } from './features/packages/packages.router';
 import { createShopRouter } from './features/shop/shop.router';
@@ -93,6 +95,8 @@ export function createApp(deps: AppDeps): Express {
   api.use('/packages', createPackagesRouter(deps));
   api.use('/customers', createCustomersRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
+  api.use('/kits', createKitsRouter(deps));
+  api.use('/rentals', createRentalsRouter(deps));
   api.use(createFilesRouter(deps));
   api.use(createDatalogsRouter(deps));
   api.use(createBillingRouter(deps));
