@@ -43,7 +43,8 @@ export const factsOf = (row: RentalRow): RentalFacts => ({
   customerUserId: row.customer_user_id,
   dealerId: row.dealer_id,
   termsAccepted: row.terms_accepted_at !== null,
-  feePaid: row.fee_paid_at !== null,
+  // A kit rented at no fee has nothing to pay before it ships.
+  feePaid: row.fee_paid_at !== null || row.fee_minor === 0,
   depositDue: row.deposit_minor > 0,
   cardSaved: row.payment_method_id !== null,
 });
