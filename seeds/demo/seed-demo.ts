@@ -12,6 +12,7 @@ import { hashPassword } from '../../apps/api/src/features/auth/password';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
 import { seedBilling } from './billing-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
+import { seedRentals } from './rentals-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
 export interface SeededShop {
@@ -127,6 +128,7 @@ export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise
   ];
   await leaveAFewUnread(db, now);
   await seedBilling(db, now, { kestrel, harbor }, jobs);
+  await seedRentals(db, now, kestrel, jobs);
   return { adminId, kestrel, harbor, jobs };
 }
 

@@ -12,7 +12,7 @@ export function createKitsRouter(deps: AppDeps): Router {
   router.get('/', async (req, res) => {
     const auth = requireShop(req);
     authorize(auth, 'read', 'Kit');
-    const rows = await listKits(deps.db, auth.shop.id, { includeRetired: auth.ability.can('update', 'Kit') });
+    const rows = await listKits(deps.db, auth.shop.id, { includeRetired: auth.ability.can('book', 'Rental') });
     res.json({ data: rows.map((r) => presentKit(r, auth.shop.currency)), meta: { total: rows.length } });
   });
 

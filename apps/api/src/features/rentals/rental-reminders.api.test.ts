@@ -71,7 +71,8 @@ describe('rental reminders and late days on the shop’s days', () => {
       await sweep();
     }
     expect(mails('customer@kestrel.test', /overdue/)).toHaveLength(LIMIT);
-    expect(mails('owner@kestrel.test', /Overdue kit/)).toHaveLength(4);
+    // The demo has an overdue kit of its own: count this job's only.
+    expect(mails('owner@kestrel.test', new RegExp(`Overdue kit on job ${job.number}$`))).toHaveLength(4);
     const overview = await owner.get(`/api/kits/overview?from=${today}&to=${addDays(due, 4)}`);
     expect(overview.status).toBe(200);
     expect(overview.body.data.overdue.map((r: { id: string }) => r.id)).toContain(id);
