@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MERCHANT_HOLD_MS, addDays, localDay } from '@revloop/domain/rentals';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 import { runRentalSweep } from './rental-notices';
+import { jobKitOutBlock } from './rental-records';
 
 let t: TestApp;
 type Agent = Awaited<ReturnType<typeof signIn>>;
@@ -203,5 +204,16 @@ describe('a rental from request to close', () => {
     expect(kit.history.map((h: { action: string }) => h.action)).toEqual(expect.arrayContaining(['rental.booked', 'rental.shipped', 'rental.returned', 'rental.closed']));
     const timeline = await owner.get(`/api/audit?subjectType=Job&subjectId=${job.id}`);
     expect(JSON.stringify(timeline.body)).toContain('rental.shipped');
+  });
+});
+
+describe('dialed-in guard for a job whose kit is out', () => {
+  it('blocks while the kit is away unless the owner overrides', async () => {
+    const away = (await owner.get('/api/rentals?state=with_customer')).body.data[0];
+    expect(away).toBeDefined();
+    const as = (role: 'owner' | 'tuner') => ({ shop: { id: t.ids.kestrel.shopId }, actor: { userId: 'u', platformAdmin: false, shopId: t.ids.kestrel.shopId, role, dealerId: null, shopReadOnly: false } }) as unknown as Parameters<typeof jobKitOutBlock>[1];
+    expect(await jobKitOutBlock(t.db, as('tuner'), away.jobId, false)).toMatch(/still out/);
+    expect(await jobKitOutBlock(t.db, as('tuner'), away.jobId, true)).toMatch(/Only the owner/);
+    expect(await jobKitOutBlock(t.db, as('owner'), away.jobId, true)).toBeNull();
   });
 });
