@@ -21,6 +21,8 @@ import { createMeRouter } from './features/me/me.router';
 import { createMembersRouter } from './features/members/members.router';
 import { createCustomersRouter } from './features/customers/customers.router';
 import { createJobsRouter } from './features/jobs/jobs.router';
+import { createKitsRouter } from './features/kits/kits.router';
+import { createRentalsRouter } from './features/rentals/rentals.router';
 import { createNotificationsRouter } from './features/notifications/notifications.router';
 import { createPublicRouter } from './features/public/public.router';
 import { createPackagesRouter } from './features/packages/packages.router';
@@ -97,6 +99,8 @@ export function createApp(deps: AppDeps): Express {
   api.use('/customers', createCustomersRouter(deps));
   api.use('/reports', createReportsRouter(deps));
   api.use('/notifications', createNotificationsRouter(deps));
+  api.use('/kits', createKitsRouter(deps));
+  api.use('/rentals', createRentalsRouter(deps));
   api.use('/files', createFilesRouter(deps));
   api.use('/jobs/:jobId/files', createJobFilesRouter(deps));
   api.use('/datalogs', createDatalogsRouter(deps));

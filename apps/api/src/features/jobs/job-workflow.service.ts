@@ -1,8 +1,9 @@
-import { findJob, findMembershipOfUser, inTransaction, updateJob, type Db, type JobListRow } from '@revloop/db';
+import { findJob, findMembershipOfUser, inTransaction, listRentals, updateJob, type Db, type JobListRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { systemActorFor, type Actor, type AppAbility } from '@revloop/domain/auth';
 import type { LogRequest } from '@revloop/domain/datalog';
 import { applyTransition, assertTransition, type JobFacts, type JobState } from '@revloop/domain/jobs';
+import { kitOutBlock } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
@@ -34,12 +35,18 @@ export async function transitionJob(
   job: JobListRow,
   to: JobState,
   mover: Mover,
-  options: { extraEmailLines?: string[]; auditText?: string } = {},
+  options: { extraEmailLines?: string[]; auditText?: string; kitOutOverride?: boolean } = {},
 ): Promise<JobListRow> {
   const { clock } = deps;
   const { actor } = mover;
   const facts = factsOf(job);
   assertTransition(facts, actor, to, mover.ability);
+  if (to === 'dialed_in') {
+    // A rented kit still away from the shop holds the job open unless the owner says otherwise.
+    const rentals = await listRentals(trx, job.shop_id, { kind: 'shop' }, { jobId: job.id });
+    const blocked = kitOutBlock(rentals.map((r) => r.state), actor, options.kitOutOverride ?? false);
+    if (blocked) throw new DomainError('invalid_transition', blocked);
+  }
   const next = applyTransition(facts, to, actor);
   const at = clock.now().toISOString();
   const updated = await updateJob(
@@ -88,7 +95,7 @@ export async function moveJob(
   auth: ShopAuth,
   jobId: string,
   to: JobState,
-  options: { bySystem?: boolean; extraEmailLines?: string[] } = {},
+  options: { bySystem?: boolean; extraEmailLines?: string[]; kitOutOverride?: boolean } = {},
 ): Promise<JobListRow> {
   const mover: Mover = options.bySystem
     ? { actor: systemActorFor(auth.shop.id), causedBy: auth.user.id }

@@ -29,7 +29,7 @@ function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobL
   };
 }
 
-const transitionSchema = z.object({ to: z.enum(JOB_STATES) });
+const transitionSchema = z.object({ to: z.enum(JOB_STATES), kitOutOverride: z.boolean().optional() });
 const assignSchema = z.object({ tunerId: z.string().min(1).nullable() });
 
 /** Resolves when the response takes more data again, or when the client has gone. */
@@ -116,8 +116,8 @@ export function createJobsRouter(deps: AppDeps): Router {
 
   router.post('/:id/transitions', async (req, res) => {
     const auth = requireShop(req);
-    const { to } = parseInput(transitionSchema, req.body);
-    const job = await moveJob(deps, auth, req.params.id, to);
+    const { to, kitOutOverride } = parseInput(transitionSchema, req.body);
+    const job = await moveJob(deps, auth, req.params.id, to, { kitOutOverride: kitOutOverride ?? false });
     res.json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 
