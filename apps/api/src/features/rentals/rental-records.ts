@@ -1,6 +1,6 @@
-import { findRental, insertRentalEntry, listRentals, newId, type Db, type RentalListRow, type RentalRow } from '@revloop/db';
+import { findRental, insertRentalEntry, newId, type Db, type RentalListRow, type RentalRow } from '@revloop/db';
 import { rentalScopeFor } from '@revloop/domain/auth';
-import { kitOutBlock, rentalSettings, type RentalEntryKind } from '@revloop/domain/rentals';
+import { rentalSettings, type RentalEntryKind } from '@revloop/domain/rentals';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
@@ -41,11 +41,3 @@ export async function auditRental(db: Db, row: Pick<RentalRow, 'shop_id' | 'id' 
 }
 
 
-/**
- * The dialed-in guard for a job (issue 14): null when the job may be marked dialed in, else why not. For the job
- * workflow to call before `log_review → dialed_in`, passing the owner's `kitOutOverride` flag from the move.
- */
-export async function jobKitOutBlock(db: Db, auth: AuthContext & { shop: { id: string } }, jobId: string, kitOutOverride: boolean): Promise<string | null> {
-  const rentals = await listRentals(db, auth.shop.id, { kind: 'shop' }, { jobId });
-  return kitOutBlock(rentals.map((r) => r.state), auth.actor, kitOutOverride);
-}
