@@ -11,6 +11,7 @@ import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword } from '../../apps/api/src/features/auth/password';
 import type { BlobStore } from '../../apps/api/src/storage/blob-store';
 import { seedBilling } from './billing-scenario';
+import { seedCustomers } from './customers-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
@@ -127,6 +128,7 @@ export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise
   ];
   await leaveAFewUnread(db, now);
   await seedBilling(db, now, { kestrel, harbor }, jobs);
+  await seedCustomers(db, kestrel);
   return { adminId, kestrel, harbor, jobs };
 }
 

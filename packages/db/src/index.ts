@@ -32,3 +32,4 @@ export * from './billing/stripe-event.repository';
 export * from './billing/payment.repository';
 export * from './billing/ledger.repository';
 export * from './recovery/recovery.repository';
+export * from './customers/customer.repository';

@@ -6,7 +6,7 @@ import {
   type MongoAbility,
   type MongoQuery,
 } from '@casl/ability';
-import type { Actor } from './roles';
+import { STAFF_ROLES, type Actor } from './roles';
 
 /**
  * The one definition of who may do what. The API checks it on every route; the web hides what it forbids.
@@ -92,6 +92,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   if (!shopId || !actor.role) return build();
   const me = actor.userId;
   const inShop = { shopId };
+  // Team is staff only: a customer's membership is never a Member row to read or change, nor a role to change one to.
+  const staffMember = { shopId, role: { $in: [...STAFF_ROLES] } };
 
   can('read', 'Shop', { id: shopId });
   can('read', 'Package', inShop);
@@ -100,7 +102,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     case 'owner':
       can('update', 'Shop', { id: shopId });
       can(CRUD, 'ShopSettings', inShop);
-      can(['read', 'invite', 'update', 'delete'], ['Member', 'Invitation'], inShop);
+      can(['read', 'invite', 'update', 'delete'], 'Member', staffMember);
+      can(['read', 'invite', 'update', 'delete'], 'Invitation', inShop);
       can('create', 'Invitation', inShop);
       can(CRUD, ['Dealer', 'Customer', 'Vehicle', 'Package', 'Message', 'Payment', 'Ledger', 'Subscription'], inShop);
       can('read', 'AuditEvent', inShop);
@@ -112,7 +115,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       can('refund', 'Payment', inShop);
       break;
     case 'tuner':
-      can('read', 'Member', inShop);
+      can('read', 'Member', staffMember);
       can('read', 'Dealer', inShop);
       can(['read', 'create', 'update'], ['Customer', 'Vehicle'], inShop);
       can('create', 'Job', inShop);

@@ -36,6 +36,7 @@ import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';
 import { fileLinkQuery } from './file-links';
+import { readPlausibilityForJob } from '../vehicles/read-plausibility.service';
 
 type ShopAuth = AuthContext & { shop: { id: string; settings: string; name: string } };
 
@@ -123,9 +124,11 @@ export async function loadFile(db: Db, auth: AuthContext & { shop: { id: string 
   return { row, job };
 }
 
-export async function listVisibleFiles(db: Db, auth: AuthContext & { shop: { id: string } }, job: JobListRow): Promise<ApiCalibrationFile[]> {
+export async function listVisibleFiles(db: Db, auth: AuthContext & { shop: { id: string; settings: string } }, job: JobListRow) {
   const rows = await listJobFiles(db, auth.shop.id, job.id);
-  return rows.filter((row) => canSeeFile(auth, row, job)).map((row) => fileRowToApi(row, job));
+  // A read whose size fits none the shop expects for the engine family is flagged to shop staff (a warning only).
+  const plausibility = await readPlausibilityForJob(db, auth.shop, job);
+  return rows.filter((row) => canSeeFile(auth, row, job)).map((row) => ({ ...fileRowToApi(row, job), plausibility: isShopSide(auth) ? plausibility(row) : null }));
 }
 
 /** What this viewer may do with the job's files, so the web shows only the forms that will work. */
