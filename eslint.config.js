@@ -27,6 +27,7 @@ const SHARED_FEATURE_MODULES = [
   'vehicles/api/get-vehicles.ts',
   'datalogs/components/progress-bar.tsx',
   'jobs/components/intake-errors.ts',
+  'jobs/components/intake-vehicle-fields.tsx',
   'vehicles/components/rolling-circumference-form.tsx',
   'vehicles/components/vehicle-units.ts',
 ];

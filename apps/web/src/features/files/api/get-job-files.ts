@@ -1,3 +1,4 @@
+import type { ReadPlausibility } from '@revloop/domain/calibration';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
@@ -33,6 +34,8 @@ export interface CalibrationFile {
   ranges: AddressRange[];
   uploadedBy: { id: string; name: string };
   createdAt: string;
+  /** For reads, shown to shop staff: whether the image size is one the shop expects for the engine family. */
+  plausibility?: ReadPlausibility | null;
 }
 
 /** What the signed-in user may do with this job's files. */
