@@ -59,18 +59,26 @@ export async function listCustomers(db: Db, shopId: string, query: CustomerListQ
         : sql``
     }`;
   const dir = query.dir === 'desc' ? sql`desc` : sql`asc`;
+  const order = sql`order by ${SORT_SQL[query.sort]} ${dir}, u.name asc, m.id asc`;
+  // Sorted by name or e-mail, the page is chosen first and only its customers' jobs, payments and vehicles are
+  // summed; the other sorts need every customer's sums.
+  const pageFirst = query.sort === 'name' || query.sort === 'email';
+  const pageOnly = (column: string) => (pageFirst ? sql`and ${sql.ref(column)} in (select user_id from page)` : sql``);
   const rows = await sql<CustomerListRow>`
-    with job_agg as (
+    with page as (
+      select m.user_id from memberships m join users u on u.id = m.user_id
+      where ${pageFirst ? where : sql`0`} ${order} limit ${query.limit} offset ${query.offset}
+    ), job_agg as (
       select customer_user_id, count(*) as job_count, sum(is_open) as open_jobs, max(updated_at) as last_job_at
-      from jobs where shop_id = ${shopId} group by customer_user_id
+      from jobs where shop_id = ${shopId} ${pageOnly('customer_user_id')} group by customer_user_id
     ), paid_agg as (
       select j.customer_user_id,
         sum(p.amount_minor - coalesce((select sum(r.amount_minor) from payment_refunds r where r.shop_id = p.shop_id and r.payment_id = p.id), 0)) as paid_minor
       from payments p join jobs j on j.id = p.job_id and j.shop_id = p.shop_id
-      where p.shop_id = ${shopId} and p.status = 'paid' group by j.customer_user_id
+      where p.shop_id = ${shopId} and p.status = 'paid' ${pageOnly('j.customer_user_id')} group by j.customer_user_id
     ), vehicle_agg as (
       select owner_user_id, count(*) as vehicle_count, max(updated_at) as last_vehicle_at
-      from vehicles where shop_id = ${shopId} group by owner_user_id
+      from vehicles where shop_id = ${shopId} ${pageOnly('owner_user_id')} group by owner_user_id
     )
     select m.user_id, m.id as membership_id, u.name, u.email, m.status, m.dealer_id, d.name as dealer_name,
       m.created_at as since,
@@ -86,9 +94,9 @@ export async function listCustomers(db: Db, shopId: string, query: CustomerListQ
     left join job_agg ja on ja.customer_user_id = m.user_id
     left join paid_agg pa on pa.customer_user_id = m.user_id
     left join vehicle_agg va on va.owner_user_id = m.user_id
-    where ${where}
-    order by ${SORT_SQL[query.sort]} ${dir}, u.name asc, m.id asc
-    limit ${query.limit} offset ${query.offset}`.execute(db);
+    where ${where} ${pageOnly('m.user_id')}
+    ${order}
+    limit ${query.limit} offset ${pageFirst ? 0 : query.offset}`.execute(db);
   const total = await sql<{ n: number }>`select count(*) as n from memberships m join users u on u.id = m.user_id where ${where}`.execute(db);
   return { rows: rows.rows, total: Number(total.rows[0]?.n ?? 0) };
 }

@@ -13,7 +13,8 @@ export async function readPlausibilityForJob(
   job: Pick<JobListRow, 'vehicle_id'>,
 ): Promise<(row: Pick<CalibrationFileRow, 'kind' | 'image_bytes'>) => ReadPlausibility | null> {
   const vehicle = await findVehicle(db, shop.id, job.vehicle_id);
-  const family = vehicle ? (JSON.parse(vehicle.spec) as VehicleInput).engine.family : '';
+  // A spec stored before validation tightened may lack the engine; then nothing is expected and nothing flagged.
+  const family = vehicle ? ((JSON.parse(vehicle.spec) as Partial<VehicleInput>).engine?.family ?? '') : '';
   const expected = expectedImageSizesFor(parseShopSettings(shop.settings), family);
   return (row) => (row.kind === 'revision' ? null : readPlausibility(row.image_bytes, expected));
 }
