@@ -27,6 +27,7 @@ const SHARED_FEATURE_MODULES = [
   'vehicles/api/get-vehicles.ts',
   'datalogs/components/progress-bar.tsx',
   'jobs/components/intake-errors.ts',
+  'jobs/components/cautions.tsx',
   'jobs/components/intake-vehicle-fields.tsx',
   'vehicles/components/rolling-circumference-form.tsx',
   'vehicles/components/vehicle-units.ts',
@@ -42,7 +43,7 @@ const ZONES = [
   { target: 'packages/contract', from: ['packages/db', 'packages/stand-ins', 'apps', 'seeds', 'scripts'], message: 'packages/contract imports only packages/domain.' },
   { target: 'packages/stand-ins', from: ['packages/db', 'packages/domain', 'packages/contract', 'apps', 'seeds', 'scripts'], message: 'packages/stand-ins imitate hosted services and know nothing of Revloop.' },
   { target: 'packages/db', from: ['apps', 'seeds', 'scripts', 'packages/contract', 'packages/stand-ins'], message: 'packages/db imports only packages/domain.' },
-  { target: 'apps/api', from: ['apps/web', 'scripts'], message: 'apps/api imports only packages/db and packages/domain.' },
+  { target: 'apps/api', from: ['apps/web', 'scripts', 'seeds'], message: 'apps/api imports only packages/db and packages/domain.' },
   { target: 'apps/web', from: ['apps/api', 'packages/db', 'packages/stand-ins', 'seeds', 'scripts'], message: 'apps/web imports only packages/contract and packages/domain; it reaches the API over /api.' },
   {
     target: ['apps/web/src/components', 'apps/web/src/lib', 'apps/web/src/config'],
@@ -101,6 +102,14 @@ export default tseslint.config(
   {
     files: ['apps/api/src/**/*.ts'],
     rules: restrict([{ group: ['react', 'react-dom', '@revloop/web'], message: 'apps/api does not import the web app.' }]),
+  },
+  {
+    // Zones see resolved files, and a package name resolves into its folder, so seeds are held to package names here.
+    files: ['seeds/**/*.ts'],
+    rules: restrict([
+      { group: ['**/apps/**', '**/packages/**', '@revloop/*/src/**'], message: 'seeds import only the public exports of @revloop/api, @revloop/db and @revloop/domain.' },
+      { group: ['@revloop/web', '@revloop/contract', '@revloop/stand-ins'], message: 'seeds import only @revloop/api, @revloop/db and @revloop/domain.' },
+    ]),
   },
   {
     files: ['apps/web/src/**/*.{ts,tsx}'],

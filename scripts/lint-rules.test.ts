@@ -20,6 +20,9 @@ describe('import rules', { timeout: 180_000 }, () => {
     ['web importing the db package', "import '@revloop/db';", 'apps/web/src/features/jobs/probe.ts', 'import-x/no-restricted-paths'],
     ['shared web code importing a feature', "import '../features/jobs/api/get-jobs';", 'apps/web/src/lib/probe.ts', 'import-x/no-restricted-paths'],
     ['a feature importing app routes', "import '../../app/router';", 'apps/web/src/features/jobs/probe.ts', 'import-x/no-restricted-paths'],
+    ['the api importing the demo seeds', "import '../../../../../seeds/demo/people';", 'apps/api/src/features/jobs/probe.ts', 'import-x/no-restricted-paths'],
+    ['seeds reaching into the api by a relative path', "import '../../apps/api/src/env';", 'seeds/demo/probe.ts', 'no-restricted-imports'],
+    ['seeds reaching past a package\'s public exports', "import '@revloop/api/src/env';", 'seeds/demo/probe.ts', 'no-restricted-imports'],
     ['a feature importing another feature outside the shared modules', "import '../../jobs/components/job-filters';", 'apps/web/src/features/files/components/probe.tsx', 'import-x/no-restricted-paths'],
   ])('reports %s', async (_name, code, file, rule) => {
     expect(await rulesFor(code, file)).toContain(rule);
@@ -27,6 +30,7 @@ describe('import rules', { timeout: 180_000 }, () => {
 
   it.each([
     ['domain importing itself', "import '../auth/ability';", 'packages/domain/src/jobs/probe.ts'],
+    ['seeds importing the public exports of api, db and domain', "import '@revloop/api';\nimport '@revloop/db';\nimport '@revloop/domain/jobs';", 'seeds/demo/probe.ts'],
     ['api importing db and domain', "import '@revloop/db';\nimport '@revloop/domain';", 'apps/api/src/probe.ts'],
     ['a feature importing a named shared module of another', "import '../../jobs/api/get-jobs';", 'apps/web/src/features/files/components/probe.tsx'],
     ['a feature importing shared web code', "import '../../../lib/format';", 'apps/web/src/features/files/components/probe.tsx'],

@@ -1,8 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { createDb, migrateToLatest } from '@revloop/db';
-import { loadEnv } from '../apps/api/src/env';
-import { BlobStore } from '../apps/api/src/storage/blob-store';
+import { BlobStore, loadEnv } from '@revloop/api';
 import { seedDemo } from './demo/seed-demo';
 
 /** Recreates the demo database under DATA_DIR from scratch: migrate, then load the invented scenario. */

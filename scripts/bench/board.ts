@@ -128,7 +128,7 @@ function chunks<T>(items: T[], size: number): T[][] {
   return Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
 }
 
-async function startServer(dataDir: string, port: number): Promise<ChildProcess> {
+export async function startServer(dataDir: string, port: number): Promise<ChildProcess> {
   const profile = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(process.env.BENCH_CPU_PROF)}`] : [];
   const proc = spawn(process.execPath, [...profile, '--import', 'tsx', path.join(ROOT, 'apps/api/src/server.ts')], {
     cwd: ROOT,
@@ -157,7 +157,7 @@ async function startServer(dataDir: string, port: number): Promise<ChildProcess>
 }
 
 /** CPU time the server process has used (user + system, ms), from /proc: load-independent cost per request. */
-function cpuMsOf(pid: number | undefined): number {
+export function cpuMsOf(pid: number | undefined): number {
   const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
   // Fields 14 and 15 of /proc/<pid>/stat (utime, stime) in clock ticks; this skips the first two.
   return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100;
@@ -170,7 +170,7 @@ const run = async (options: autocannon.Options) => {
   return { ...result, cpuMs: cpuMsOf(serverPid) - before };
 };
 
-interface Figure {
+export interface Figure {
   label: string;
   rps: number;
   p99: number;
@@ -178,7 +178,7 @@ interface Figure {
   target: string;
 }
 
-function report(label: string, result: autocannon.Result & { cpuMs: number }, targets: { rps?: number; p99: number }): Figure {
+export function report(label: string, result: autocannon.Result & { cpuMs: number }, targets: { rps?: number; p99: number }): Figure {
   const failed = result.non2xx + result.errors + result.timeouts;
   const rps = result.requests.average;
   const p99 = result.latency.p99;

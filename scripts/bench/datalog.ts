@@ -14,9 +14,11 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { DatalogReport } from '@revloop/domain/datalog';
 import { generateLogChunks } from '@revloop/domain/datalog/testing';
+import { createJob, createShop } from '../../apps/api/src/testing/factories';
 import { createTestApp, signIn } from '../../apps/api/src/testing/test-app';
 import { warmAnalysisWorker } from '../../apps/api/src/workers/datalog/analyze-file';
-import { processingPollMs, type Datalog } from '../../apps/web/src/features/datalogs/api/get-datalog';
+import type { Datalog } from '@revloop/contract';
+import { processingPollMs } from '../../apps/web/src/features/datalogs/api/get-datalog';
 
 const ROOT = resolve(import.meta.dirname, '../..');
 const PANDAS_SCRIPT = join(ROOT, 'scripts/bench/datalog_pandas.py');
@@ -165,11 +167,8 @@ async function uploadToScreen(path: string): Promise<boolean> {
   try {
     warmAnalysisWorker();
     await new Promise((r) => setTimeout(r, 500));
-    const job = t.ids.jobs.find(
-      (j) => j.shopId === t.ids.kestrel.shopId && j.state === 'with_customer' && j.customerUserId === t.ids.kestrel.customerIds[0],
-    );
-    if (!job) throw new Error('the demo has no job waiting for a log');
-    const agent = await signIn(t.app, 'customer@kestrel.test');
+    const job = await createJob(t, await createShop(t), { state: 'with_customer' });
+    const agent = await signIn(t.app, job.customer.email);
     const bytes = readFileSync(path);
     const ready: number[] = [];
     const onScreen: number[] = [];

@@ -1,4 +1,4 @@
-import { appendLedgerEntry, insertShopSubscription, insertSubscriptionChange, newId, type Db } from '@revloop/db';
+import { appendLedgerEntry, insertPayment, insertPaymentRefund, insertShopSubscription, insertSubscriptionChange, newId, type Db } from '@revloop/db';
 import { mrrMinorOf, type PlanId, type SubscriptionStatus } from '@revloop/domain/billing';
 import type { SeededJob } from './jobs-scenario';
 import type { SeededShop } from './seed-demo';
@@ -53,6 +53,8 @@ export async function seedBilling(db: Db, now: Date, shops: { kestrel: SeededSho
     { daysAgo: 166, planId: 'workshop', seats: 2, status: 'active' },
   ]);
 
+  for (const shop of [shops.kestrel, shops.harbor]) await seedRetailPayments(db, shop, jobs);
+
   const { dealerId, shopId } = shops.kestrel;
   if (!dealerId) return;
   const currency = (await db.selectFrom('shops').select('currency').where('id', '=', shopId).executeTakeFirstOrThrow()).currency;
@@ -75,5 +77,57 @@ export async function seedBilling(db: Db, now: Date, shops: { kestrel: SeededSho
     }
     await appendLedgerEntry(db, { shopId, dealerId, kind: 'job_debit', amountMinor: -job.dealer_price_minor, currency, jobId: job.id, memo: `${job.name} (wholesale)`, at: job.created_at });
     balance -= job.dealer_price_minor;
+  }
+}
+
+/**
+ * Retail customers paid their finished jobs a few hours after opening them, and the customer who cancelled after a
+ * revision got half back, so the reports' revenue has months of history. customer@kestrel.test's jobs (the first
+ * customer) stay unpaid: the walkthrough and the tests pay those by hand.
+ */
+async function seedRetailPayments(db: Db, shop: SeededShop, jobs: SeededJob[]): Promise<void> {
+  const rows = await db
+    .selectFrom('jobs')
+    .innerJoin('packages', 'packages.id', 'jobs.package_id')
+    .innerJoin('shops', 'shops.id', 'jobs.shop_id')
+    .select(['jobs.id', 'jobs.state', 'jobs.round', 'jobs.customer_user_id', 'jobs.created_at', 'jobs.state_changed_at', 'packages.retail_price_minor', 'shops.currency'])
+    .where('jobs.shop_id', '=', shop.shopId)
+    .where('jobs.dealer_id', 'is', null)
+    .where('jobs.id', 'in', jobs.map((j) => j.id).concat(''))
+    .where('jobs.customer_user_id', '!=', shop.customerIds[0] ?? '')
+    .orderBy('jobs.created_at')
+    .execute();
+  for (const job of rows) {
+    const refund = job.state === 'cancelled' && job.round > 0;
+    if (job.state !== 'dialed_in' && !refund) continue;
+    const paidAt = new Date(Date.parse(job.created_at) + 3 * 3_600_000).toISOString();
+    const payment = await insertPayment(db, {
+      id: newId(),
+      shop_id: shop.shopId,
+      purpose: 'job',
+      job_id: job.id,
+      dealer_id: null,
+      payer_user_id: job.customer_user_id,
+      amount_minor: job.retail_price_minor,
+      currency: job.currency,
+      status: 'paid',
+      stripe_checkout_session_id: `cs_demo_${job.id}`,
+      stripe_payment_intent_id: `pi_demo_${job.id}`,
+      created_at: job.created_at,
+      paid_at: paidAt,
+    });
+    if (refund) {
+      await insertPaymentRefund(db, {
+        id: newId(),
+        shop_id: shop.shopId,
+        payment_id: payment.id,
+        amount_minor: Math.round(job.retail_price_minor / 2),
+        currency: job.currency,
+        reason: 'Cancelled after the first revision: half refunded',
+        stripe_refund_id: `re_demo_${job.id}`,
+        by_user_id: shop.ownerId,
+        created_at: job.state_changed_at,
+      });
+    }
   }
 }

@@ -12,9 +12,7 @@ import {
   toSrec,
   type MemoryImage,
 } from '@revloop/domain/calibration';
-import { recordAudit } from '../../apps/api/src/features/audit/audit.service';
-import { fileLabel } from '../../apps/api/src/features/files/file.service';
-import type { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { fileLabel, recordAudit, type BlobStore } from '@revloop/api';
 
 // Invented images only: the same vehicle model starts from the same stock calibration, and every revision is a few
 // scaled table regions on top of its parent, as a tuner's change would be.

@@ -3,11 +3,7 @@ import { defineAbilityFor } from '@revloop/domain/auth';
 import { defaultLogRequest, type LogRequest } from '@revloop/domain/datalog';
 import type { JobState } from '@revloop/domain/jobs';
 import { vinCheckDigit, type VehicleInput } from '@revloop/domain/vehicles';
-import { recordAudit } from '../../apps/api/src/features/audit/audit.service';
-import { moveJob, postJobMessage, setJobFacts, takeJob, type JobFlowDeps } from '../../apps/api/src/features/jobs/job.service';
-import { buildActor } from '../../apps/api/src/http/auth-context';
-import type { ShopAuth } from '../../apps/api/src/features/datalogs/datalog.service';
-import type { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { buildActor, moveJob, postJobMessage, recordAudit, setJobFacts, takeJob, type BlobStore, type JobFlowDeps, type ShopAuth } from '@revloop/api';
 import { DemoFiles } from './files-scenario';
 import { storeDemoLog, type DriveKind } from './logs-scenario';
 import type { SeededShop } from './seed-demo';
@@ -504,7 +500,8 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
         case 'log': {
           const last = r === p.round;
           if (last && p.reRead) await files.reRead(fileJob, modules[0]!, p.reRead === 'matches', uploaderId, new Date(at.getTime() - 1_800_000));
-          const kind: DriveKind = last ? (p.lastLog ?? 'good') : r === 1 ? 'lean' : 'good';
+          // Every third job's first log was recorded without the pedal on the floor, so log quality has something to show.
+          const kind: DriveKind = last ? (p.lastLog ?? 'good') : r === 1 ? (i % 3 === 0 ? 'half_pedal' : 'lean') : 'good';
           const logRequest = JSON.parse((await findJob(db, shop.shopId, job.id))!.log_request) as LogRequest;
           await storeDemoLog(db, ctx.blobs, { shopId: shop.shopId, jobId: job.id, vehicle: vehicle.spec, round: r, kind, logRequest, by: uploaderId, at, name: `rev${r}-${at.toISOString().slice(0, 10)}.csv` });
           at = new Date(at.getTime() + 20_000);

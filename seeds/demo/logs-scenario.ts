@@ -6,8 +6,7 @@ import { fileURLToPath } from 'node:url';
 import { insertAuditEvent, insertDatalog, newId, type Db } from '@revloop/db';
 import { analyzeDatalog, detectCsvLayout, headerSignature, type DatalogReport, type LogRequest } from '@revloop/domain/datalog';
 import { vehicleFuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
-import { datalogVehicleOf } from '../../apps/api/src/features/datalogs/datalog.service';
-import type { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { datalogVehicleOf, type BlobStore } from '@revloop/api';
 import { generateDrivingLog, pullGears, type DrivingLogOptions } from './driving-log';
 
 /** What went on in the drive: most logs are clean, some run lean in places, one knocks, one has a half-pressed pedal. */
@@ -37,7 +36,7 @@ let sourceHash: string | undefined;
 function codeVersion(): string {
   if (sourceHash === undefined) {
     const here = path.dirname(fileURLToPath(import.meta.url));
-    const analysis = path.join(here, '../../packages/domain/src/datalog');
+    const analysis = path.dirname(fileURLToPath(import.meta.resolve('@revloop/domain/datalog')));
     const files = [path.join(here, 'driving-log.ts'), ...fs.readdirSync(analysis).filter((f) => f.endsWith('.ts')).sort().map((f) => path.join(analysis, f))];
     const hash = createHash('sha256');
     for (const file of files) hash.update(fs.readFileSync(file));

@@ -6,6 +6,8 @@ export const DEMO_ADMIN = { email: 'admin@revloop.test', name: 'Pat Okafor' } as
 export const KESTREL = {
   name: 'Kestrel Calibration Works',
   currency: 'USD',
+  slug: 'kestrel',
+  description: 'Remote calibrations for turbocharged four- and six-cylinder engines and their automatic transmissions. Tuned on our own dyno data, revised from your logs until it is dialed in.',
   owner: { email: 'owner@kestrel.test', name: 'Dana Whitfield' },
   tuners: [
     { email: 'tuner@kestrel.test', name: 'Marco Lindqvist' },
@@ -48,6 +50,8 @@ export const KESTREL = {
 export const HARBOR = {
   name: 'Harbor Dyno & Tune',
   currency: 'EUR',
+  slug: 'harbor-dyno',
+  description: 'Engine calibrations for daily drivers and track days, revised round by round from your logs.',
   owner: { email: 'owner@harbor.test', name: 'Elena Marsh' },
   tuners: [{ email: 'tuner@harbor.test', name: 'Tomas Reed' }],
   customers: [

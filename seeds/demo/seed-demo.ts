@@ -8,8 +8,7 @@ import {
 } from '@revloop/db';
 import { sql } from 'kysely';
 import type { ShopRole } from '@revloop/domain/auth';
-import { hashPassword } from '../../apps/api/src/features/auth/password';
-import type { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { hashPassword, type BlobStore } from '@revloop/api';
 import { seedBilling } from './billing-scenario';
 import { seedCustomers } from './customers-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
@@ -60,7 +59,7 @@ export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise
 
   const adminId = await user(DEMO_ADMIN, 400, true);
 
-  const kestrelId = (await insertShop(db, { id: newId(), name: KESTREL.name, currency: KESTREL.currency, created_at: daysAgo(320) })).id;
+  const kestrelId = (await insertShop(db, { id: newId(), name: KESTREL.name, currency: KESTREL.currency, slug: KESTREL.slug, description: KESTREL.description, public_page: 1, created_at: daysAgo(320) })).id;
   const kOwner = await user(KESTREL.owner, 320);
   await member(kestrelId, kOwner, 'owner', 320);
   const kTuners: string[] = [];
@@ -93,7 +92,7 @@ export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise
     kDealerCustomers.push(id);
   }
 
-  const harborId = (await insertShop(db, { id: newId(), name: HARBOR.name, currency: HARBOR.currency, created_at: daysAgo(180) })).id;
+  const harborId = (await insertShop(db, { id: newId(), name: HARBOR.name, currency: HARBOR.currency, slug: HARBOR.slug, description: HARBOR.description, public_page: 1, created_at: daysAgo(180) })).id;
   const hOwner = await user(HARBOR.owner, 180);
   await member(harborId, hOwner, 'owner', 180);
   const hTuners: string[] = [];

@@ -12,11 +12,14 @@ import type { CalibrationFileTable } from './files/calibration-file.table';
 import type { DatalogMappingTable, DatalogTable } from './datalogs/datalog.table';
 import type { DealerTable } from './dealers/dealer.table';
 import type { JobListVersionTable, JobMessageTable, JobStateCountTable, JobTable } from './jobs/job.table';
+import type { MailOutboxTable } from './mail/mail-outbox.table';
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
+import type { DatalogCheckTable } from './reports/reports.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
+import type { PublicSignUpTable } from './shops/public-sign-up.table';
 import type { ShopTable } from './shops/shop.table';
 import type { MembershipTable, PasswordResetTable, UserTable } from './users/user.table';
 
@@ -36,8 +39,10 @@ export interface Database {
   job_list_versions: JobListVersionTable;
   job_messages: JobMessageTable;
   notifications: NotificationTable;
+  mail_outbox: MailOutboxTable;
   datalogs: DatalogTable;
   datalog_mappings: DatalogMappingTable;
+  datalog_checks: DatalogCheckTable;
   calibration_files: CalibrationFileTable;
   shop_subscriptions: ShopSubscriptionTable;
   subscription_changes: SubscriptionChangeTable;
@@ -46,4 +51,5 @@ export interface Database {
   payments: PaymentTable;
   payment_refunds: PaymentRefundTable;
   ledger_entries: LedgerEntryTable;
+  public_sign_ups: PublicSignUpTable;
 }

@@ -7,6 +7,9 @@ import * as datalogs from './migrations/2026-12-02-004-datalogs';
 import * as billing from './migrations/2026-12-02-005-billing';
 import * as boardIndexes from './migrations/2026-12-02-006-board-indexes';
 import * as vehicleRollingCircumference from './migrations/2026-12-02-007-vehicle-rolling-circumference';
+import * as mailOutbox from './migrations/2026-12-02-008-mail-outbox';
+import * as publicPages from './migrations/2026-12-02-009-public-pages';
+import * as reports from './migrations/2026-12-02-010-reports';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
@@ -18,13 +21,17 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-005-billing': billing,
   '2026-12-02-006-board-indexes': boardIndexes,
   '2026-12-02-007-vehicle-rolling-circumference': vehicleRollingCircumference,
+  '2026-12-02-008-mail-outbox': mailOutbox,
+  '2026-12-02-009-public-pages': publicPages,
+  '2026-12-02-010-reports': reports,
   '2026-12-02-012-job-list-versions': jobListVersions,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
 
 export async function migrateToLatest(db: Db): Promise<string[]> {
-  const migrator = new Migrator({ db, provider });
+  // Migrations are numbered by the branch that wrote them, not by landing order, so a database may meet a lower number late.
+  const migrator = new Migrator({ db, provider, allowUnorderedMigrations: true });
   const { error, results } = await migrator.migrateToLatest();
   if (error) throw error instanceof Error ? error : new Error(String(error));
   return (results ?? []).filter((r) => r.status === 'Success').map((r) => r.migrationName);

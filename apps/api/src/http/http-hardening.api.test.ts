@@ -7,6 +7,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BlobStore } from '../storage/blob-store';
 import { singleFileUpload } from '../storage/upload';
+import { createCustomer, createShop } from '../testing/factories';
 import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../testing/test-app';
 import { errorHandler } from './error-handler';
 
@@ -18,7 +19,7 @@ afterAll(() => t.close());
 
 describe('same-origin check', () => {
   it('compares the Origin with APP_ORIGIN and never trusts the Host header', async () => {
-    const agent = await signIn(t.app, 'owner@kestrel.test');
+    const agent = await signIn(t.app, (await createShop(t)).owner.email);
     const body = { name: 'Host Garage', contactName: 'H', contactEmail: 'h@example.test' };
     // A page on evil.example that reaches the app under that host name (DNS rebinding, a proxy passing Host on).
     const spoofed = await agent.post('/api/dealers').set('Host', 'evil.example').set('Origin', 'http://evil.example').send(body);
@@ -29,7 +30,7 @@ describe('same-origin check', () => {
 
 describe('Cache-Control on signed-in answers', () => {
   it('is no-store on signed-in JSON, so a shared cache or the back button never shows another person’s data', async () => {
-    const agent = await signIn(t.app, 'customer@kestrel.test');
+    const agent = await signIn(t.app, (await createCustomer(t, await createShop(t))).email);
     for (const url of ['/api/me', '/api/jobs', '/api/notifications']) {
       const res = await agent.get(url);
       expect(res.status).toBe(200);
@@ -40,7 +41,7 @@ describe('Cache-Control on signed-in answers', () => {
 
 describe('payment-provider errors', () => {
   it('reach the user as a clear 502, not as "The request was not understood."', async () => {
-    const owner = await signIn(t.app, 'owner@harbor.test');
+    const owner = await signIn(t.app, (await createShop(t)).owner.email);
     expect((await owner.post('/api/billing/checkout').send({ purpose: 'payment_method' })).status).toBe(200);
     // The stand-in forgets everything, as after a restart: the shop's provider customer no longer exists there.
     t.stripe!.control.reset();

@@ -6,8 +6,6 @@ import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
 import { createDb, migrateToLatest, snapshotDb, type Db } from '@revloop/db';
-import { seedDemo, type DemoIds } from '../../../../seeds/demo/seed-demo';
-import { DEMO_PASSWORD } from '../../../../seeds/demo/people';
 import { createApp } from '../app';
 import type { AppDeps } from '../context';
 import { loadEnv, type Env } from '../env';
@@ -19,6 +17,8 @@ import type { Clock } from '../http/clock';
 import { BlobStore } from '../storage/blob-store';
 
 export const TEST_ORIGIN = 'http://localhost:8080';
+/** Everyone the factories make signs in with this. */
+export const TEST_PASSWORD = 'factory-password';
 
 /** A clock the test moves by hand. */
 export class FakeClock implements Clock {
@@ -41,7 +41,6 @@ export interface TestApp {
   env: Env;
   mailbox: Mailbox;
   blobs: BlobStore;
-  ids: DemoIds;
   /** Present when asked for: the local Stripe stand-in, posting signed webhooks to this app on a real port. */
   stripe?: { url: string; control: StripeFakeControl };
   close(): Promise<void>;
@@ -49,35 +48,34 @@ export interface TestApp {
 
 export const TEST_WEBHOOK_SECRET = 'whsec_revloop_test';
 
-interface SeededTemplate {
+interface MigratedTemplate {
   snapshot: Buffer;
-  ids: DemoIds;
   dataDir: string;
 }
-let template: Promise<SeededTemplate> | undefined;
+let template: Promise<MigratedTemplate> | undefined;
 
 /**
- * The demo scenario is seeded once per test process and every test gets its own in-memory copy of it. The blob
- * store is shared within the process: it is content-addressed, so a test's uploads never change what another reads.
+ * The schema is migrated once per test process and every app starts from its own in-memory copy of the empty
+ * database; tests add the rows they need with ./factories. The blob store is shared within the process: it is
+ * content-addressed, so a test's uploads never change what another reads.
  */
-function seededTemplate(): Promise<SeededTemplate> {
+export function migratedTemplate(): Promise<MigratedTemplate> {
   template ??= (async () => {
     const db = createDb(':memory:');
     await migrateToLatest(db);
     const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-api-test-'));
     process.once('exit', () => fs.rmSync(dataDir, { recursive: true, force: true }));
-    const ids = await seedDemo(db, new Date(), { blobs: new BlobStore(dataDir) });
     const snapshot = snapshotDb(db);
     await db.destroy();
-    return { snapshot, ids, dataDir };
+    return { snapshot, dataDir };
   })();
   return template;
 }
 
-/** The whole API on an in-memory database loaded with the demo scenario, a fake clock and a live local SMTP mailbox. */
-export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean } = {}): Promise<TestApp> {
-  const { snapshot, ids, dataDir } = await seededTemplate();
-  const db = createDb(snapshot);
+/** The whole API on an empty migrated in-memory database, a fake clock and a live local SMTP mailbox. */
+export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean; database?: Buffer } = {}): Promise<TestApp> {
+  const { snapshot, dataDir } = await migratedTemplate();
+  const db = createDb(options.database ?? snapshot);
   const clock = new FakeClock();
   const blobs = new BlobStore(dataDir);
   const smtp = await startSmtpFake();
@@ -122,7 +120,6 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     env,
     mailbox: smtp.mailbox,
     blobs,
-    ids,
     ...(stripe && { stripe: { url: stripe.url, control: stripe.control } }),
     close: async () => {
       await stripe?.close();
@@ -137,7 +134,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
 }
 
 /** Signs in and returns an agent that carries the session cookie. */
-export async function signIn(app: TestApp['app'], email: string, password = DEMO_PASSWORD) {
+export async function signIn(app: TestApp['app'], email: string, password = TEST_PASSWORD) {
   const agent = request.agent(app);
   const res = await agent.post('/api/auth/sign-in').send({ email, password });
   if (res.status !== 200) throw new Error(`sign-in for ${email} answered ${res.status}: ${JSON.stringify(res.body)}`);

@@ -22,6 +22,8 @@ export const router = createBrowserRouter([
           { path: paths.auth.forgotPassword.path, lazy: screen(() => import('./routes/auth/forgot-password'), (m) => m.ForgotPasswordRoute) },
           { path: paths.auth.resetPassword.path, lazy: screen(() => import('./routes/auth/reset-password'), (m) => m.ResetPasswordRoute) },
           { path: paths.auth.invitation.path, lazy: screen(() => import('./routes/auth/invitation'), (m) => m.InvitationRoute) },
+          { path: paths.publicShop.path, lazy: screen(() => import('./routes/public/shop-page'), (m) => m.PublicShopRoute) },
+          { path: paths.publicVerify.path, lazy: screen(() => import('./routes/public/verify'), (m) => m.PublicVerifyRoute) },
         ],
       },
       {
@@ -40,6 +42,7 @@ export const router = createBrowserRouter([
           { path: paths.customers.path, lazy: screen(() => import('./routes/app/customers/list'), (m) => m.CustomersRoute) },
           { path: paths.customer.path, lazy: screen(() => import('./routes/app/customers/detail'), (m) => m.CustomerRoute) },
           { path: paths.team.path, lazy: screen(() => import('./routes/app/team'), (m) => m.TeamRoute) },
+          { path: paths.reports.path, lazy: screen(() => import('./routes/app/reports'), (m) => m.ReportsRoute) },
           { path: paths.dealers.list.path, lazy: screen(() => import('./routes/app/dealers/list'), (m) => m.DealersRoute) },
           { path: paths.dealers.detail.path, lazy: screen(() => import('./routes/app/dealers/detail'), (m) => m.DealerRoute) },
           {

@@ -24,6 +24,7 @@ export const paths = {
   customers: { path: '/customers', getHref: () => '/customers' },
   customer: { path: '/customers/:customerId', getHref: (customerId: string) => `/customers/${encodeURIComponent(customerId)}` },
   team: { path: '/team', getHref: () => '/team' },
+  reports: { path: '/reports', getHref: () => '/reports' },
   dealers: {
     list: { path: '/dealers', getHref: () => '/dealers' },
     detail: { path: '/dealers/:dealerId', getHref: (dealerId: string) => `/dealers/${encodeURIComponent(dealerId)}` },
@@ -45,6 +46,8 @@ export const paths = {
     myStatement: { path: '/billing/statement', getHref: () => '/billing/statement' },
     statement: { path: '/billing/statement/:dealerId', getHref: (dealerId: string) => `/billing/statement/${encodeURIComponent(dealerId)}` },
   },
+  publicShop: { path: '/s/:slug', getHref: (slug: string) => `/s/${encodeURIComponent(slug)}` },
+  publicVerify: { path: '/s/:slug/verify', getHref: (slug: string, token: string) => `/s/${encodeURIComponent(slug)}/verify?token=${encodeURIComponent(token)}` },
   dev: {
     mailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
   },

@@ -64,3 +64,51 @@ export async function setShopStatus(db: Db, id: string, status: ShopStatus, at: 
 export async function updateShop(db: Db, id: string, patch: UpdateableShopRow): Promise<ShopRow | undefined> {
   return db.updateTable('shops').set(patch).where('id', '=', id).returningAll().executeTakeFirst();
 }
+
+/** The shop behind a public page; undefined when the slug is unknown or the page is off (both answer 404). */
+export async function findPublicShopBySlug(db: Db, slug: string): Promise<ShopRow | undefined> {
+  return db.selectFrom('shops').selectAll().where('slug', '=', slug).where('public_page', '=', 1).where('status', '=', 'active').executeTakeFirst();
+}
+
+/** True when another shop already uses the slug. */
+export async function isSlugTaken(db: Db, slug: string, exceptShopId: string): Promise<boolean> {
+  const row = await db.selectFrom('shops').select('id').where('slug', '=', slug).where('id', '!=', exceptShopId).executeTakeFirst();
+  return row !== undefined;
+}
+
+export interface ShopSetupFacts {
+  activePackages: number;
+  /** Tuners in the shop plus tuner invitations still open. */
+  tunersInvited: number;
+  subscriptionStatus: string | null;
+}
+
+/** What the first-run checklist is derived from, in one query. */
+export async function shopSetupFacts(db: Db, shopId: string, now: string): Promise<ShopSetupFacts> {
+  const row = await db
+    .selectNoFrom((eb) => [
+      eb.selectFrom('packages').select((e) => e.fn.countAll<number>().as('n')).where('shop_id', '=', shopId).where('active', '=', 1).as('active_packages'),
+      eb
+        .selectFrom('memberships')
+        .select((e) => e.fn.countAll<number>().as('n'))
+        .where('shop_id', '=', shopId)
+        .where('role', '=', 'tuner')
+        .as('tuners'),
+      eb
+        .selectFrom('invitations')
+        .select((e) => e.fn.countAll<number>().as('n'))
+        .where('shop_id', '=', shopId)
+        .where('role', '=', 'tuner')
+        .where('accepted_at', 'is', null)
+        .where('revoked_at', 'is', null)
+        .where('expires_at', '>', now)
+        .as('tuner_invitations'),
+      eb.selectFrom('shop_subscriptions').select('status').where('shop_id', '=', shopId).as('subscription_status'),
+    ])
+    .executeTakeFirstOrThrow();
+  return {
+    activePackages: Number(row.active_packages ?? 0),
+    tunersInvited: Number(row.tuners ?? 0) + Number(row.tuner_invitations ?? 0),
+    subscriptionStatus: row.subscription_status ?? null,
+  };
+}

@@ -11,6 +11,11 @@ export interface ShopTable {
   settings: Generated<string>;
   created_at: string;
   suspended_at: string | null;
+  /** The public page's address `/s/<slug>`; unique across shops, null until the owner sets one. */
+  slug: string | null;
+  description: Generated<string>;
+  /** 1 when the public page is on. */
+  public_page: Generated<number>;
 }
 export type ShopRow = Selectable<ShopTable>;
 export type InsertableShopRow = Insertable<ShopTable>;

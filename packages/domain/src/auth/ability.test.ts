@@ -49,7 +49,9 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Ledger: CRUD,
     Subscription: CRUD,
     AuditEvent: ['read'],
+    Report: ['read'],
     Job: ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
+    File: ['read'],
   },
   tuner: {
     Shop: ['read'],
@@ -59,6 +61,7 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Customer: ['read', 'create', 'update'],
     Vehicle: ['read', 'create', 'update'],
     Job: ['read', 'create', 'update', 'transition', 'upload', 'upload_revision', 'download'],
+    File: ['read'],
     Message: ['read', 'create'],
     Payment: ['read'],
   },

@@ -6,11 +6,15 @@ import {
   type MongoAbility,
   type MongoQuery,
 } from '@casl/ability';
+import { OPEN_STATES } from '../jobs/job-states';
 import { STAFF_ROLES, type Actor } from './roles';
 
 /**
  * The one definition of who may do what. The API checks it on every route; the web hides what it forbids.
  * Row-level conditions use the same column names as the API objects (camelCase).
+ * Job moves: the action is `transition`, its field the target state and its conditions may name the job's current
+ * `state`, checked as `ability.can('transition', jobMoveSubject(facts), to)` (jobs/job-moves.ts). The state machine
+ * says which moves exist and what they need; these rules say who may make them.
  */
 export type Action =
   | 'manage'
@@ -26,7 +30,9 @@ export type Action =
   | 'upload'
   | 'upload_revision'
   | 'download'
-  | 'refund';
+  | 'refund'
+  /** Compare a calibration file with the job's revisions (File only). */
+  | 'verify';
 
 export const SUBJECTS = [
   'Platform',
@@ -38,6 +44,8 @@ export const SUBJECTS = [
   'Vehicle',
   'Package',
   'Job',
+  /** A calibration file of a job, as `fileSubject` describes it. */
+  'File',
   'Message',
   'Payment',
   'Subscription',
@@ -46,6 +54,8 @@ export const SUBJECTS = [
   'ShopSettings',
   /** The local SMTP stand-in's mailbox (development and demo): it holds reset links, so only platform admins read it. */
   'Mailbox',
+  /** The shop's reports: turnaround, rounds, tuner load, revenue and log quality (owner only). */
+  'Report',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -77,6 +87,15 @@ const WRITE_ACTIONS: Action[] = [
 export function defineAbilityFor(actor: Actor | null): AppAbility {
   const { can, cannot, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
   if (!actor) return build();
+
+  if (actor.system) {
+    // Automatic moves only: a stock read makes a job ready, a full revision set goes to the customer, a log starts
+    // the review, a payment releases its hold (resume, wherever the job was held from).
+    if (!actor.shopId) return build();
+    can('transition', 'Job', ['ready', 'with_customer', 'log_review'], { shopId: actor.shopId });
+    can('transition', 'Job', [...OPEN_STATES], { shopId: actor.shopId, state: 'on_hold' });
+    return build();
+  }
 
   if (actor.platformAdmin) {
     can('manage', 'Platform');
@@ -114,19 +133,25 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       );
       can('refund', 'Payment', inShop);
       break;
-    case 'tuner':
+    case 'tuner': {
+      // A tuner works on jobs assigned to them or not yet assigned.
+      const inReach = { shopId, assignedTunerId: { $in: [me, null] } };
       can('read', 'Member', staffMember);
       can('read', 'Dealer', inShop);
       can(['read', 'create', 'update'], ['Customer', 'Vehicle'], inShop);
       can('create', 'Job', inShop);
-      can(['read', 'update', 'transition', 'upload', 'upload_revision', 'download'], 'Job', {
-        shopId,
-        assignedTunerId: { $in: [me, null] },
-      });
+      can(['read', 'update', 'upload', 'upload_revision', 'download'], 'Job', inReach);
       can('take', 'Job', { shopId, assignedTunerId: null });
+      // Shop steps for any tuner with the job in reach; the bench steps (send, revise again, dialed in) only for
+      // the tuner it is assigned to.
+      can('transition', 'Job', ['ready', 'log_review', 'on_hold'], inReach);
+      can('transition', 'Job', 'on_bench', { ...inReach, state: 'ready' });
+      can('transition', 'Job', [...OPEN_STATES], { ...inReach, state: 'on_hold' });
+      can('transition', 'Job', ['on_bench', 'with_customer', 'dialed_in'], { shopId, assignedTunerId: me });
       can(['read', 'create'], 'Message', inShop);
       can('read', 'Payment', inShop);
       break;
+    }
     case 'dealer': {
       const dealerId = actor.dealerId;
       if (!dealerId) break;
@@ -134,6 +159,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       can('read', 'Dealer', { shopId, id: dealerId });
       can(['read', 'create', 'update'], ['Customer', 'Vehicle'], ofDealer);
       can(['read', 'create', 'upload', 'download'], 'Job', ofDealer);
+      can('transition', 'Job', 'log_review', { ...ofDealer, state: 'with_customer' });
+      can('transition', 'Job', 'cancelled', { ...ofDealer, state: 'intake' });
       can(['read', 'create'], 'Message', ofDealer);
       can('read', 'Ledger', ofDealer);
       can(['read', 'create'], 'Payment', ofDealer);
@@ -143,11 +170,18 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       const mine = { shopId, customerUserId: me };
       can(['read', 'create', 'update'], 'Vehicle', { shopId, ownerUserId: me });
       can(['read', 'create', 'upload', 'download'], 'Job', mine);
+      // The customer sends their log in and may withdraw a job nobody has started.
+      can('transition', 'Job', 'log_review', { ...mine, state: 'with_customer' });
+      can('transition', 'Job', 'cancelled', { ...mine, state: 'intake' });
       can(['read', 'create'], 'Message', mine);
       can(['read', 'create'], 'Payment', mine);
       break;
     }
   }
+
+  defineFileRules(can, actor, shopId);
+  // Reports: how the shop is doing (money, each tuner's load) is the owner's view alone; reading stays open when read-only.
+  if (actor.role === 'owner') can('read', 'Report', inShop);
 
   if (actor.shopReadOnly) {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
@@ -158,6 +192,44 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
   }
   return build();
+}
+
+/**
+ * A calibration file as the File rules see it: its job's scope fields, plus whether it has reached the customer side
+ * (`sent`: anything but a revision, or a revision whose round has started) and who uploaded it.
+ */
+export interface FileSubject {
+  shopId: string;
+  assignedTunerId: string | null;
+  dealerId: string | null;
+  customerUserId: string;
+  kind: 'read' | 'revision' | 're_read';
+  sent: boolean;
+  uploadedByUserId: string;
+}
+
+/**
+ * Who sees which file. The shop side sees every file of a job it may read and checks files against the revisions;
+ * the dealer sees its customers' files once sent; the customer sees revisions once sent, and their own uploads.
+ * Reading and checking write nothing, so a read-only shop keeps both.
+ */
+function defineFileRules(can: AbilityBuilder<AppAbility>['can'], actor: Actor, shopId: string): void {
+  const me = actor.userId;
+  switch (actor.role) {
+    case 'owner':
+      can(['read', 'verify'], 'File', { shopId });
+      break;
+    case 'tuner':
+      can(['read', 'verify'], 'File', { shopId, assignedTunerId: { $in: [me, null] } });
+      break;
+    case 'dealer':
+      if (actor.dealerId) can('read', 'File', { shopId, dealerId: actor.dealerId, sent: true });
+      break;
+    case 'customer':
+      can('read', 'File', { shopId, customerUserId: me, sent: true, kind: 'revision' });
+      can('read', 'File', { shopId, customerUserId: me, sent: true, uploadedByUserId: me });
+      break;
+  }
 }
 
 /** Row scope for list queries: the SQL twin of the Job conditions above, so lists and checks agree. */

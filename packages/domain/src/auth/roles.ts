@@ -22,4 +22,6 @@ export interface Actor {
   dealerId: string | null;
   /** A suspended or lapsed shop is read-only for everyone in it. */
   shopReadOnly: boolean;
+  /** Set only on the system actor (system-actor.ts), which makes the automatic job moves. */
+  system?: true;
 }

@@ -42,3 +42,5 @@ export {
 export { DEFAULT_ANALYSIS_SETTINGS, fuelLambdaSettings, type AnalysisSettings } from './settings';
 export { STANDARD_ATMOSPHERE_KPA, UNIT_CHOICES, isUnitOf, unitConversion } from './units';
 export { trimGridToCsv, wotTableToCsv } from './report-export';
+export { compareReports, type ReportComparison } from './compare-reports';
+export { CHECK_TITLES, checkTitle } from './check-titles';

@@ -1,3 +1,4 @@
 export * from './job-states';
 export * from './job-machine';
+export * from './job-moves';
 export * from './job.schemas';

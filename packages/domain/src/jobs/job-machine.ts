@@ -2,8 +2,13 @@ import type { Actor } from '../auth/roles';
 import { DomainError } from '../errors';
 import { JOB_STATE_LABELS, type JobState, isOpenState } from './job-states';
 
-/** What the state machine needs to know about a job; the API derives the flags from its rows. */
+/**
+ * What the state machine needs to know about a job; the API derives the flags from its rows. The machine says
+ * which moves exist and what each needs first (its guard); who may make a move is the abilities' rule
+ * (auth/ability.ts), and `job-moves.ts` puts the two together.
+ */
 export interface JobFacts {
+  shopId: string;
   state: JobState;
   /** The state a job on hold returns to; null unless `state` is `on_hold`. */
   heldFrom: JobState | null;
@@ -28,13 +33,10 @@ export interface AvailableTransition {
   label: string;
 }
 
-type Who = 'owner' | 'tuner' | 'assigned_tuner' | 'job_customer' | 'job_dealer';
-
-interface Move {
+export interface Move {
   from: JobState;
   to: JobState;
   label: string;
-  who: readonly Who[];
   /** Null when the move can be made now, else the reason it cannot. */
   guard?: (facts: JobFacts) => string | null;
 }
@@ -51,39 +53,33 @@ export const canResume = (facts: JobFacts): boolean =>
   isOpenState(facts.heldFrom) &&
   facts.heldFrom !== 'on_hold';
 
-const SHOP_STAFF: readonly Who[] = ['owner', 'tuner'];
-const BENCH_STAFF: readonly Who[] = ['owner', 'assigned_tuner'];
-
 const FORWARD_MOVES: readonly Move[] = [
   {
     from: 'intake',
     to: 'ready',
     label: 'Mark ready',
-    who: SHOP_STAFF,
     guard: (f) => (canMarkReady(f) ? null : 'The stock read has not been received yet.'),
   },
-  { from: 'ready', to: 'on_bench', label: 'Start work', who: SHOP_STAFF },
+  { from: 'ready', to: 'on_bench', label: 'Start work' },
   {
     from: 'on_bench',
     to: 'with_customer',
     label: 'Send revision',
-    who: BENCH_STAFF,
     guard: (f) => (canSendRevision(f) ? null : `Upload revision ${f.round + 1} before sending it.`),
   },
   {
     from: 'with_customer',
     to: 'log_review',
     label: 'Submit log for review',
-    who: [...SHOP_STAFF, 'job_customer', 'job_dealer'],
     guard: (f) =>
       canStartLogReview(f) ? null : `No datalog has been uploaded for revision ${f.round} yet.`,
   },
-  { from: 'log_review', to: 'on_bench', label: 'Revise again', who: BENCH_STAFF },
-  { from: 'log_review', to: 'dialed_in', label: 'Mark dialed in', who: BENCH_STAFF },
+  { from: 'log_review', to: 'on_bench', label: 'Revise again' },
+  { from: 'log_review', to: 'dialed_in', label: 'Mark dialed in' },
 ];
 
 /** Every move from `facts.state`, forward moves first, then hold/resume and cancel. */
-function movesFrom(facts: JobFacts): Move[] {
+export function movesFrom(facts: JobFacts): Move[] {
   const { state } = facts;
   if (!isOpenState(state)) return [];
   const moves = FORWARD_MOVES.filter((move) => move.from === state);
@@ -93,86 +89,30 @@ function movesFrom(facts: JobFacts): Move[] {
         from: state,
         to: facts.heldFrom,
         label: 'Resume',
-        who: SHOP_STAFF,
         guard: (f) => (canResume(f) ? null : 'This job does not know which state to resume to.'),
       });
     }
   } else {
-    moves.push({ from: state, to: 'on_hold', label: 'Put on hold', who: SHOP_STAFF });
+    moves.push({ from: state, to: 'on_hold', label: 'Put on hold' });
   }
-  const cancellers: Who[] =
-    state === 'intake' ? ['owner', 'job_customer', 'job_dealer'] : ['owner'];
-  moves.push({ from: state, to: 'cancelled', label: 'Cancel job', who: cancellers });
+  moves.push({ from: state, to: 'cancelled', label: 'Cancel job' });
   return moves;
 }
 
-function actorIs(who: Who, facts: JobFacts, actor: Actor): boolean {
-  switch (who) {
-    case 'owner':
-      return actor.role === 'owner';
-    case 'tuner':
-      // A tuner works on jobs assigned to them or not yet assigned (the same scope as the abilities).
-      return (
-        actor.role === 'tuner' &&
-        (facts.assignedTunerId === null || facts.assignedTunerId === actor.userId)
-      );
-    case 'assigned_tuner':
-      return actor.role === 'tuner' && facts.assignedTunerId === actor.userId;
-    case 'job_customer':
-      return actor.role === 'customer' && actor.userId === facts.customerUserId;
-    case 'job_dealer':
-      return (
-        actor.role === 'dealer' && actor.dealerId !== null && actor.dealerId === facts.dealerId
-      );
-  }
-}
-
-/** Why this actor may not move any job at all, or null. */
-function actorBlock(actor: Actor): DomainError | null {
-  if (actor.platformAdmin || actor.role === null) {
-    return new DomainError('forbidden', 'Only members of the shop can move its jobs.');
-  }
-  if (actor.shopReadOnly) {
-    return new DomainError(
-      'shop_read_only',
-      'This shop is read-only, so its jobs cannot be moved.',
-    );
-  }
-  return null;
-}
-
-const mayMake = (move: Move, facts: JobFacts, actor: Actor): boolean =>
-  actorBlock(actor) === null && move.who.some((who) => actorIs(who, facts, actor));
-
-/** Moves this actor can make now: allowed for their role and with every precondition met. */
-export function availableTransitions(facts: JobFacts, actor: Actor): AvailableTransition[] {
-  return movesFrom(facts)
-    .filter((move) => mayMake(move, facts, actor) && (move.guard?.(facts) ?? null) === null)
-    .map(({ to, label }) => ({ to, label }));
-}
-
-/**
- * Throws unless `actor` may move the job to `to` now: 'invalid_transition' for a move the job cannot make
- * (or whose precondition is unmet), 'forbidden' for one this actor may not make, 'shop_read_only' in a
- * read-only shop.
- */
-export function assertTransition(facts: JobFacts, actor: Actor, to: JobState): void {
-  const from = JOB_STATE_LABELS[facts.state];
+/** The move from the job's state to `to`; throws 'invalid_transition' when the job has no such move. */
+export function moveTo(facts: JobFacts, to: JobState): Move {
   const move = movesFrom(facts).find((candidate) => candidate.to === to);
   if (!move) {
     throw new DomainError(
       'invalid_transition',
-      `A job in ${from} cannot move to ${JOB_STATE_LABELS[to]}.`,
+      `A job in ${JOB_STATE_LABELS[facts.state]} cannot move to ${JOB_STATE_LABELS[to]}.`,
     );
   }
-  const blocked = actorBlock(actor);
-  if (blocked) throw blocked;
-  if (!mayMake(move, facts, actor)) {
-    throw new DomainError(
-      'forbidden',
-      `You may not move this job from ${from} to ${JOB_STATE_LABELS[to]}.`,
-    );
-  }
+  return move;
+}
+
+/** Throws 'invalid_transition' with the reason when the move's precondition is unmet now. */
+export function assertGuard(move: Move, facts: JobFacts): void {
   const unmet = move.guard?.(facts) ?? null;
   if (unmet !== null) throw new DomainError('invalid_transition', unmet);
 }

@@ -7,6 +7,7 @@ import type { AppDeps } from '../../context';
 import { authorize, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
+import { platformRevenue } from '../billing/revenue.service';
 import { createInvitation } from '../invitations/invitation.service';
 import { nameSchema } from '@revloop/domain/text';
 
@@ -19,8 +20,9 @@ const createShopSchema = z.object({
 
 const shopRowToShop = (r: ShopRow) => ({ id: r.id, name: r.name, status: r.status, currency: r.currency, createdAt: r.created_at, suspendedAt: r.suspended_at });
 
-export function createAdminRouter({ db, clock, env, mailer }: AppDeps): Router {
+export function createAdminRouter(deps: AppDeps): Router {
   const router = Router();
+  const { db, clock, env, mailer } = deps;
 
   router.get('/shops', async (req, res) => {
     const auth = requireAuth(req);
@@ -73,6 +75,13 @@ export function createAdminRouter({ db, clock, env, mailer }: AppDeps): Router {
       res.json({ data: shopRowToShop(updated!) });
     });
   }
+
+  // The platform's subscription revenue, from billing's revenue service.
+  router.get('/revenue', async (req, res) => {
+    const auth = requireAuth(req);
+    authorize(auth, 'manage', 'Platform');
+    res.json({ data: await platformRevenue(deps) });
+  });
 
   return router;
 }

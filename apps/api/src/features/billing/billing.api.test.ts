@@ -1,13 +1,14 @@
 import Stripe from 'stripe';
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createTestApp, signIn, TEST_WEBHOOK_SECRET, type TestApp } from '../../testing/test-app';
+import { createDemoTestApp } from '../../testing/demo-fixture';
+import { signIn, TEST_WEBHOOK_SECRET } from '../../testing/test-app';
 import { TEST_VEHICLE } from '../../testing/test-vehicle';
 
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 let stripe: Stripe;
 beforeAll(async () => {
-  t = await createTestApp({}, { stripe: true });
+  t = await createDemoTestApp({}, { stripe: true });
   stripe = new Stripe('sk_test_revloop', { host: '127.0.0.1', port: Number(new URL(t.stripe!.url).port), protocol: 'http', maxNetworkRetries: 0, telemetry: false });
 });
 afterAll(() => t.close());

@@ -4,10 +4,12 @@ import {
   findDealer,
   findShopById,
   findUserById,
+  listDealers,
   listLedgerEntries,
   listMembers,
   type Db,
 } from '@revloop/db';
+import type { DealerLedger } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { asSubject } from '@revloop/domain/auth';
 import { LEDGER_KIND_LABELS, assertBalanceCovers, crossesLowBalance, formatMoney } from '@revloop/domain/billing';
@@ -61,7 +63,7 @@ export async function afterDealerDebit(deps: AppDeps, shopId: string, debit: Dea
 }
 
 /** `GET /api/dealers/:id/ledger`: the statement with its running balance, for the dealer or the owner. */
-export async function dealerLedger(deps: AppDeps, auth: ShopAuth, dealerId: string) {
+export async function dealerLedger(deps: AppDeps, auth: ShopAuth, dealerId: string): Promise<DealerLedger> {
   const dealer = await findDealer(deps.db, auth.shop.id, dealerId);
   if (!dealer) throw new DomainError('not_found', 'Dealer not found.');
   authorizeRow(auth, 'read', 'Ledger', { shopId: dealer.shop_id, dealerId: dealer.id }, 'Dealer not found.');
@@ -92,4 +94,17 @@ export function ledgerCsv(ledger: Awaited<ReturnType<typeof dealerLedger>>): str
     ['Date', 'Entry', 'Job', 'Description', `Amount (${ledger.currency})`, `Balance (${ledger.currency})`],
     ledger.entries.map((e) => [e.createdAt, e.kindLabel, e.jobNumber, e.memo, amount(e.amountMinor), amount(e.balanceAfterMinor)]),
   );
+}
+
+/** Every dealer of the shop with its prepaid balance. */
+export async function dealerBalances(deps: Pick<AppDeps, 'db'>, shop: { id: string; currency: string }) {
+  const data = [];
+  for (const d of await listDealers(deps.db, shop.id)) data.push({ id: d.id, name: d.name, balanceMinor: await dealerBalance(deps.db, shop.id, d.id), currency: shop.currency });
+  return data;
+}
+
+/** A dealer's statement as a CSV download: its file name and text. */
+export async function dealerStatementCsv(deps: AppDeps, auth: ShopAuth, dealerId: string) {
+  const ledger = await dealerLedger(deps, auth, dealerId);
+  return { fileName: `statement-${ledger.dealer.name.toLowerCase().replace(/[^a-z0-9]+/g, '-')}.csv`, csv: ledgerCsv(ledger) };
 }

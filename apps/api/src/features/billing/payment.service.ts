@@ -18,18 +18,19 @@ import {
   markPaymentExpired,
   markPaymentPaid,
   newId,
-  updateJob,
   type Db,
   type JobListRow,
   type PaymentRow,
 } from '@revloop/db';
+import type { JobPayments } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
-import { asSubject } from '@revloop/domain/auth';
+import { asSubject, systemActorFor } from '@revloop/domain/auth';
 import { assertRefundable, formatMoney, type RefundInput } from '@revloop/domain/billing';
 import type { AppDeps } from '../../context';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
-import { jobLink, loadJob } from '../jobs/job.service';
+import { drainMailOutbox } from '../mail/mail-outbox.service';
+import { jobLink, loadJob, transitionJob } from '../jobs/job.service';
 import { jobReceiptMail, refundMail, topUpReceiptMail } from './billing.mails';
 import { statementLink } from './ledger.service';
 import { idOf, stripeFor } from './stripe-client';
@@ -48,7 +49,7 @@ async function netPaid(db: Db, shopId: string, jobId: string) {
 }
 
 /** `GET /api/billing/jobs/:id/payments`: the price, what was paid and refunded, and who may pay or refund. */
-export async function jobPaymentsView(deps: AppDeps, auth: ShopAuth, jobId: string) {
+export async function jobPaymentsView(deps: AppDeps, auth: ShopAuth, jobId: string): Promise<JobPayments> {
   const job = await loadJob(deps.db, auth, jobId);
   authorizeRow(auth, 'read', 'Payment', jobPaymentSubject(job), 'Job not found.');
   const pkg = await findPackage(deps.db, auth.shop.id, job.package_id);
@@ -168,13 +169,10 @@ export async function startTopUpCheckout(deps: AppDeps, auth: ShopAuth, dealerId
   return session.url;
 }
 
-/** A paid job that waited on hold for its payment goes back to where it was held. */
-async function releasePaymentHold(db: Db, job: JobListRow, at: Date): Promise<boolean> {
-  if (job.state !== 'on_hold' || !job.held_from) return false;
-  const moved = await updateJob(db, job.shop_id, job.id, { state: job.held_from, held_from: null, state_changed_at: at.toISOString(), updated_at: at.toISOString() }, 'on_hold');
-  if (!moved) return false;
-  await recordAudit(db, { shopId: job.shop_id, actorUserId: null, action: 'job.moved', subjectType: 'Job', subjectId: job.id, details: { from: 'on_hold', to: job.held_from, automatic: true, text: 'Payment received: the job left the hold' }, at });
-  return true;
+/** A paid job that waited on hold for its payment goes back to where it was held: a move the system actor makes. */
+async function releasePaymentHold(deps: AppDeps, trx: Db, job: JobListRow): Promise<void> {
+  if (job.state !== 'on_hold' || !job.held_from) return;
+  await transitionJob(deps, trx, job, job.held_from, { actor: systemActorFor(job.shop_id), causedBy: null }, { auditText: 'Payment received: the job left the hold' });
 }
 
 /**
@@ -200,10 +198,11 @@ export async function applyCheckoutPaid(deps: AppDeps, session: Stripe.Checkout.
       const job = await findJob(trx, payment.shop_id, payment.job_id);
       const pkg = job && (await findPackage(trx, payment.shop_id, job.package_id));
       const { paidMinor, refundedMinor } = await netPaid(trx, payment.shop_id, payment.job_id);
-      if (job && pkg && paidMinor - refundedMinor >= pkg.retail_price_minor) await releasePaymentHold(trx, job, now);
+      if (job && pkg && paidMinor - refundedMinor >= pkg.retail_price_minor) await releasePaymentHold(deps, trx, job);
     }
     return { payment, balanceMinor: null };
   });
+  await drainMailOutbox(deps);
   if (effect) await sendPaidMail(deps, effect.payment, effect.balanceMinor);
 }
 

@@ -17,6 +17,7 @@ import {
   type Db,
   type ShopSubscriptionRow,
 } from '@revloop/db';
+import type { Subscription } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings } from '@revloop/domain/shops';
 import {
@@ -33,6 +34,7 @@ import {
   planById,
   readOnlyReasonOf,
   toSubscriptionStatus,
+  type CheckoutInput,
   type PlanId,
 } from '@revloop/domain/billing';
 import type { AppDeps } from '../../context';
@@ -271,7 +273,7 @@ export async function changePlan(deps: AppDeps, shopId: string, planId: PlanId, 
 }
 
 /** `GET /api/billing/subscription`: plan, seats, usage, status, invoices and the plans on offer. */
-export async function subscriptionView(deps: AppDeps, shopId: string) {
+export async function subscriptionView(deps: AppDeps, shopId: string): Promise<Subscription> {
   await applyBillingDeadlines(deps, shopId);
   const row = (await findShopSubscription(deps.db, shopId))!;
   const now = deps.clock.now();
@@ -313,4 +315,35 @@ export async function subscriptionView(deps: AppDeps, shopId: string) {
     })),
     plans: PLANS.map((p) => ({ id: p.id, name: p.name, seatPriceMinor: p.seatPriceMinor, minSeats: p.minSeats, maxSeats: p.maxSeats, jobsPerMonth: p.jobsPerMonth, summary: p.summary })),
   };
+}
+
+/**
+ * Checkout for the shop's own payment to the platform: save a card (setup mode) or subscribe to a plan. A shop still
+ * in its trial keeps the days it has left; the first charge comes when they run out.
+ */
+export async function startSubscriptionCheckout(deps: AppDeps, shopId: string, email: string, input: Extract<CheckoutInput, { purpose: 'subscription' | 'payment_method' }>): Promise<string | null> {
+  const billingUrl = `${deps.env.APP_ORIGIN}/billing`;
+  const stripe = stripeFor(deps.env);
+  const customer = await providerCustomerId(deps, shopId, email);
+  if (input.purpose === 'payment_method') {
+    const session = await stripe.checkout.sessions.create({ mode: 'setup', customer, currency: PLATFORM_CURRENCY.toLowerCase(), success_url: `${billingUrl}?card=saved`, cancel_url: billingUrl, metadata: { shopId } });
+    return session.url;
+  }
+  const row = await ensureSubscription(deps.db, shopId, deps.clock.now());
+  if (row.stripe_subscription_id && ['trialing', 'active', 'past_due', 'unpaid'].includes(row.status)) {
+    throw new DomainError('conflict', 'The shop already has a running subscription: change its plan instead.');
+  }
+  const plan = planById(input.planId);
+  assertPlanChoice(plan, input.seats, await countSeatsInUse(deps.db, shopId));
+  const trialDaysLeft = row.status === 'trialing' && row.trial_ends_at ? Math.floor((Date.parse(row.trial_ends_at) - deps.clock.now().getTime()) / DAY_MS) : 0;
+  const session = await stripe.checkout.sessions.create({
+    mode: 'subscription',
+    customer,
+    line_items: [{ price: await planPriceId(stripe, plan.id), quantity: input.seats }],
+    subscription_data: { metadata: { shopId, planId: plan.id }, ...(trialDaysLeft >= 1 && { trial_period_days: trialDaysLeft }) },
+    metadata: { shopId },
+    success_url: `${billingUrl}?checkout=done`,
+    cancel_url: billingUrl,
+  });
+  return session.url;
 }

@@ -1,9 +1,10 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
+import { createDemoTestApp } from '../../testing/demo-fixture';
+import { signIn } from '../../testing/test-app';
 
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 beforeEach(async () => {
-  t = await createTestApp();
+  t = await createDemoTestApp();
 });
 afterEach(async () => {
   await t.close();

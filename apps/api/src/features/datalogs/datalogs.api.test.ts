@@ -4,15 +4,35 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CANONICAL_CHANNELS } from '@revloop/domain/datalog';
 import { KNOCKING_DRIVE, generateLog } from '@revloop/domain/datalog/testing';
+import { appendLedgerEntry } from '@revloop/db';
+import { createCustomer, createDealer, createJob, createMember, createShop, type TestJob } from '../../testing/factories';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 
 type Agent = Awaited<ReturnType<typeof signIn>>;
 
 let t: TestApp;
 let scratch: string;
+const jobs = new Map<string, TestJob>();
+let dealerJobId: string;
+let otherShopJobId: string;
+/**
+ * A shop whose customer has a job waiting for a log, one in log review and one dialed in; a dealer's customer's job on
+ * the bench; and a second shop with a job in log review.
+ */
 beforeAll(async () => {
   t = await createTestApp();
   scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'datalogs-api-'));
+  const shop = await createShop(t, { ownerEmail: 'owner@bench.test' });
+  const dealer = await createDealer(t, shop);
+  await appendLedgerEntry(t.db, { shopId: shop.id, dealerId: dealer.id, kind: 'top_up', amountMinor: 500_000, currency: shop.currency, memo: 'Test top-up', at: t.clock.now().toISOString() });
+  await createMember(t, shop, 'dealer', { email: 'dealer@bench.test', dealer });
+  await createCustomer(t, shop, { email: 'riley.moss@bench.test' });
+  const customer = await createCustomer(t, shop, { email: 'customer@bench.test', name: 'Jordan Hale' });
+  for (const state of ['with_customer', 'log_review', 'dialed_in'] as const) jobs.set(state, await createJob(t, shop, { state, customer }));
+  dealerJobId = (await createJob(t, shop, { state: 'on_bench', customer: await createCustomer(t, shop, { dealer }) })).id;
+  const other = await createShop(t, { ownerEmail: 'owner@other.test' });
+  await createMember(t, other, 'tuner', { email: 'tuner@other.test' });
+  otherShopJobId = (await createJob(t, other, { state: 'log_review', customer: await createCustomer(t, other, { email: 'customer@other.test' }) })).id;
 });
 afterAll(async () => {
   await t.close();
@@ -21,8 +41,8 @@ afterAll(async () => {
 
 const drive = generateLog(KNOCKING_DRIVE).text;
 
-const customerJob = (state: string) =>
-  t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.state === state && j.customerUserId === t.ids.kestrel.customerIds[0] && j.dealerId === null)!;
+/** The customer's job that was in `state` when the tests began. */
+const customerJob = (state: 'with_customer' | 'log_review' | 'dialed_in') => jobs.get(state)!;
 
 async function upload(agent: Agent, jobId: string, text: string | Buffer, name = 'drive.csv', map?: Record<string, string>) {
   const req = agent.post(`/api/jobs/${jobId}/datalogs`).attach('file', Buffer.isBuffer(text) ? text : Buffer.from(text), name);
@@ -45,7 +65,7 @@ async function settled(agent: Agent, id: string) {
 describe('datalog upload and report', () => {
   it('a customer uploads a log; it is analysed off the request, the job moves to log review and the tuner hears of it', async () => {
     const job = customerJob('with_customer');
-    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const customer = await signIn(t.app, 'customer@bench.test');
     const res = await upload(customer, job.id, drive);
     expect(res.status).toBe(202);
     expect(res.body.data).toMatchObject({ status: 'processing', round: job.round, originalName: 'drive.csv', uploadedBy: { name: 'Jordan Hale' } });
@@ -86,7 +106,7 @@ describe('datalog upload and report', () => {
 
   it('serves chart series downsampled to the requested points, knock markers and CSV exports', async () => {
     const job = customerJob('log_review');
-    const tuner = await signIn(t.app, 'owner@kestrel.test');
+    const tuner = await signIn(t.app, 'owner@bench.test');
     const { id } = (await upload(tuner, job.id, drive)).body.data;
     const log = await settled(tuner, id);
     const series = await tuner.get(`/api/datalogs/${id}/series?channels=rpm,map,knock_retard&points=300`);
@@ -136,7 +156,7 @@ describe('datalog upload and report', () => {
 
   it('compares two logs of one job and refuses logs of different jobs', async () => {
     const job = customerJob('log_review');
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const lean = generateLog({ rateHz: 10, warmupS: 320, cruiseS: 90, pulls: [{ gears: [3] }], leanWot: { aboveRpm: 0, errorPct: 6 }, gearChannel: true }).text;
     const a = await settled(owner, (await upload(owner, job.id, drive, 'before.csv')).body.data.id);
     const b = await settled(owner, (await upload(owner, job.id, lean, 'after.csv')).body.data.id);
@@ -156,11 +176,11 @@ describe('datalog upload and report', () => {
 describe('datalog access', () => {
   it('lets whoever reads the job read its logs; others in the shop and other shops get 404', async () => {
     const job = customerJob('log_review');
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const { id } = (await upload(owner, job.id, drive)).body.data;
     await settled(owner, id);
-    expect((await (await signIn(t.app, 'customer@kestrel.test')).get(`/api/datalogs/${id}`)).status).toBe(200);
-    for (const email of ['riley.moss@kestrel.test', 'dealer@kestrel.test', 'owner@harbor.test', 'tuner@harbor.test', 'customer@harbor.test']) {
+    expect((await (await signIn(t.app, 'customer@bench.test')).get(`/api/datalogs/${id}`)).status).toBe(200);
+    for (const email of ['riley.moss@bench.test', 'dealer@bench.test', 'owner@other.test', 'tuner@other.test', 'customer@other.test']) {
       const agent = await signIn(t.app, email);
       expect((await agent.get(`/api/datalogs/${id}`)).status, email).toBe(404);
       expect((await agent.get(`/api/datalogs/${id}/series?channels=rpm`)).status, email).toBe(404);
@@ -168,15 +188,15 @@ describe('datalog access', () => {
       expect((await agent.get(`/api/jobs/${job.id}/datalogs`)).status, email).toBe(404);
       expect((await upload(agent, job.id, drive)).status, email).toBe(404);
     }
-    expect((await (await signIn(t.app, 'owner@harbor.test')).put(`/api/datalogs/${id}/mapping`).send({ channels: {} })).status).toBe(404);
+    expect((await (await signIn(t.app, 'owner@other.test')).put(`/api/datalogs/${id}/mapping`).send({ channels: {} })).status).toBe(404);
   });
 
   it('lets a dealer upload for the dealer’s own customer, and refuses logs on a finished job', async () => {
-    const dealerJob = t.ids.jobs.find((j) => j.dealerId === t.ids.kestrel.dealerId && ['with_customer', 'log_review', 'on_bench'].includes(j.state))!;
-    const dealer = await signIn(t.app, 'dealer@kestrel.test');
+    const dealerJob = { id: dealerJobId };
+    const dealer = await signIn(t.app, 'dealer@bench.test');
     expect((await upload(dealer, dealerJob.id, drive)).status).toBe(202);
-    const done = customerJob('dialed_in') ?? t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.state === 'dialed_in')!;
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const done = customerJob('dialed_in');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const refused = await upload(owner, done.id, drive);
     expect(refused.status).toBe(409);
   });
@@ -191,7 +211,7 @@ describe('bad input gets a clear error and stores nothing', () => {
     ['empty', Buffer.alloc(0), 'The file is empty.'],
     ['header only', Buffer.from('Time (s),Engine RPM,MAP (kPa)\n'), 'header row but no data rows'],
   ])('%s file → 422', async (_name, bytes, message) => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const before = await rowCount();
     const res = await upload(owner, customerJob('log_review').id, bytes, 'x.csv');
     expect(res.status).toBe(422);
@@ -202,7 +222,7 @@ describe('bad input gets a clear error and stores nothing', () => {
   });
 
   it('no file → 400; a map naming a missing column → 400', async () => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const job = customerJob('log_review');
     const none = await owner.post(`/api/jobs/${job.id}/datalogs`).field('note', 'x');
     expect(none.status).toBe(400);
@@ -214,7 +234,7 @@ describe('bad input gets a clear error and stores nothing', () => {
   });
 
   it('a 200 MB file is refused at the shop limit with 413 and leaves nothing behind', async () => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const big = path.join(scratch, 'big.csv');
     const fd = fs.openSync(big, 'w');
     const block = Buffer.alloc(1024 * 1024, '1000,2000,3000\n');
@@ -235,7 +255,7 @@ describe('header mapping', () => {
 
   it('is confirmed once, re-analyses the log, and is remembered for this shop only', async () => {
     expect(oddHeaders).not.toBe(drive);
-    const tuner = await signIn(t.app, 'owner@kestrel.test');
+    const tuner = await signIn(t.app, 'owner@bench.test');
     const job = customerJob('log_review');
     const first = await settled(tuner, (await upload(tuner, job.id, oddHeaders, 'odd.csv')).body.data.id);
     expect(first.report.channels.rpm).toBeUndefined();
@@ -253,14 +273,14 @@ describe('header mapping', () => {
     const second = await settled(tuner, (await upload(tuner, job.id, oddHeaders, 'odd-2.csv')).body.data.id);
     expect(second.report.channels.rpm).toBe('Motor speed (rpm)');
 
-    const harborJob = t.ids.jobs.find((j) => j.shopId === t.ids.harbor.shopId && j.state === 'log_review')!;
-    const harbor = await signIn(t.app, 'owner@harbor.test');
+    const harborJob = { id: otherShopJobId };
+    const harbor = await signIn(t.app, 'owner@other.test');
     const elsewhere = await settled(harbor, (await upload(harbor, harborJob.id, oddHeaders, 'odd.csv')).body.data.id);
     expect(elsewhere.report.channels.rpm).toBeUndefined();
   });
 
   it('keeps stated units and the AFR scale, and remembers them with the columns', async () => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const job = customerJob('log_review');
     const psiHeaders = drive.replace('Intake manifold absolute pressure (kPa)', 'Manifold P');
     const log = await settled(owner, (await upload(owner, job.id, psiHeaders, 'psi.csv')).body.data.id);
@@ -288,7 +308,7 @@ describe('header mapping', () => {
   });
 
   it('takes stated units with the upload', async () => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const res = await owner
       .post(`/api/jobs/${customerJob('log_review').id}/datalogs`)
       .attach('file', Buffer.from(drive.replace('Intake manifold absolute pressure (kPa)', 'Manifold Q')), 'q.csv')
@@ -301,7 +321,7 @@ describe('header mapping', () => {
   });
 
   it('refuses a mapping that names a column the log does not have', async () => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, 'owner@bench.test');
     const log = await settled(owner, (await upload(owner, customerJob('log_review').id, drive)).body.data.id);
     const res = await owner.put(`/api/datalogs/${log.id}/mapping`).send({ channels: { rpm: 'Nope' } });
     expect(res.status).toBe(400);

@@ -6,6 +6,7 @@ import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
+import { dealerLedger, dealerStatementCsv } from '../billing/ledger.service';
 import { nameSchema } from '@revloop/domain/text';
 
 const dealerInputSchema = z.object({
@@ -24,8 +25,9 @@ const dealerRowToDealer = (r: DealerRow) => ({
   createdAt: r.created_at,
 });
 
-export function createDealersRouter({ db, clock }: AppDeps): Router {
+export function createDealersRouter(deps: AppDeps): Router {
   const router = Router();
+  const { db, clock } = deps;
 
   router.get('/', async (req, res) => {
     const auth = requireShop(req);
@@ -75,6 +77,17 @@ export function createDealersRouter({ db, clock }: AppDeps): Router {
         },
       },
     });
+  });
+
+  // The dealer's prepaid-balance statement, from billing's ledger service (JSON, or CSV with ?format=csv).
+  router.get('/:dealerId/ledger', async (req, res) => {
+    const auth = requireShop(req);
+    if (req.query.format === 'csv') {
+      const { fileName, csv } = await dealerStatementCsv(deps, auth, req.params.dealerId);
+      res.type('text/csv; charset=utf-8').attachment(fileName).send(csv);
+      return;
+    }
+    res.json({ data: await dealerLedger(deps, auth, req.params.dealerId) });
   });
 
   return router;

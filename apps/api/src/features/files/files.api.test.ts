@@ -5,13 +5,13 @@ import { crc32 as zlibCrc32 } from 'node:zlib';
 import MemoryMap from 'nrf-intel-hex';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import type { SeededJob } from '../../../../../seeds/demo/jobs-scenario';
-import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
+import { createDemoTestApp, type SeededJob } from '../../testing/demo-fixture';
+import { signIn, TEST_ORIGIN } from '../../testing/test-app';
 import { signFileLink } from './file-links';
 
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 beforeEach(async () => {
-  t = await createTestApp();
+  t = await createDemoTestApp();
 });
 afterEach(async () => {
   await t.close();

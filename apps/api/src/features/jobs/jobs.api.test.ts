@@ -1,17 +1,18 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
+import { createDemoTestApp } from '../../testing/demo-fixture';
+import { signIn } from '../../testing/test-app';
 import { TEST_VEHICLE } from '../../testing/test-vehicle';
 
-let t: TestApp;
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
 beforeEach(async () => {
-  t = await createTestApp();
+  t = await createDemoTestApp();
 });
 afterEach(async () => {
   await t.close();
 });
 
-const kestrelJob = (pred: (j: TestApp['ids']['jobs'][number]) => boolean) => {
+const kestrelJob = (pred: (j: (typeof t)['ids']['jobs'][number]) => boolean) => {
   const job = t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && pred(j));
   if (!job) throw new Error('no such seeded job');
   return job;

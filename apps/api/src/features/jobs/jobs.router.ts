@@ -1,58 +1,22 @@
 import { Router, type Response } from 'express';
-import {
-  JOB_SORTS,
-  eachJobBatch,
-  findJob,
-  listAuditEvents,
-  listJobMessages,
-  jobListVersion,
-  listJobs,
-  updateJob,
-  type JobListFilter,
-} from '@revloop/db';
+import { eachJobBatch, jobListVersion, listJobs, type JobListFilter } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { asSubject, jobScopeFor } from '@revloop/domain/auth';
 import { csvLine } from '@revloop/domain/csv';
 import { logRequestSchema } from '@revloop/domain/datalog';
 import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema } from '@revloop/domain/jobs';
+import { jobListQuerySchema as listQuerySchema } from '@revloop/contract';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
-import {
-  assignJob,
-  jobAnswerChangesAt,
-  jobRowToJob,
-  jobSubject,
-  loadJob,
-  moveJob,
-  openJob,
-  postJobMessage,
-  takeJob,
-} from './job.service';
+import { jobAnswerChangesAt, jobRowToJob, jobSubject } from './job.presenter';
+import { openJob } from './job-intake.service';
 import { JobListCache } from './job-list-cache';
-import { timelineFor } from './timeline';
-
-const stateList = z
-  .string()
-  .transform((s) => s.split(',').filter(Boolean))
-  .pipe(z.array(z.enum(JOB_STATES)));
-
-const listQuerySchema = z.object({
-  state: stateList.optional(),
-  open: z.enum(['true', 'false']).optional(),
-  tuner: z.string().min(1).optional(),
-  dealer: z.string().min(1).optional(),
-  package: z.string().min(1).optional(),
-  customer: z.string().min(1).optional(),
-  q: z.string().trim().max(100).optional(),
-  mine: z.enum(['true', 'false']).optional(),
-  sort: z.enum(JOB_SORTS).default('updated'),
-  dir: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
-});
+import { loadJob } from './job-lookup.service';
+import { jobMessages, postJobMessage } from './job-messages.service';
+import { timelineFor } from './job-timeline.service';
+import { assignJob, changeLogRequest, moveJob, takeJob } from './job-workflow.service';
 
 function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobListFilter {
   return {
@@ -106,7 +70,7 @@ export function createJobsRouter(deps: AppDeps): Router {
           limit: q.pageSize,
         });
         const body = JSON.stringify({
-          data: rows.map((r) => jobRowToJob(r, auth.actor, now)),
+          data: rows.map((r) => jobRowToJob(r, auth, now)),
           meta: { total, page: q.page, pageSize: q.pageSize, pageCount: Math.max(1, Math.ceil(total / q.pageSize)) },
         });
         const until = rows.reduce((at, r) => Math.min(at, jobAnswerChangesAt(r, now)), Number.POSITIVE_INFINITY);
@@ -139,23 +103,22 @@ export function createJobsRouter(deps: AppDeps): Router {
     authorize(auth, 'create', 'Job');
     const input = parseInput(jobIntakeSchema, req.body);
     const job = await openJob(deps, auth, input);
-    res.status(201).json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+    res.status(201).json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 
   router.get('/:id', async (req, res) => {
     const auth = requireShop(req);
     const job = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'read', 'Job', jobSubject(job));
-    const events = await listAuditEvents(db, auth.shop.id, { subjectType: 'Job', subjectId: job.id, limit: 500 });
-    const timeline = await timelineFor(db, auth, job, events);
-    res.json({ data: { ...jobRowToJob(job, auth.actor, clock.now()), timeline } });
+    const timeline = await timelineFor(db, auth, job);
+    res.json({ data: { ...jobRowToJob(job, auth, clock.now()), timeline } });
   });
 
   router.post('/:id/transitions', async (req, res) => {
     const auth = requireShop(req);
     const { to } = parseInput(transitionSchema, req.body);
     const job = await moveJob(deps, auth, req.params.id, to);
-    res.json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+    res.json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 
   router.post('/:id/assign', async (req, res) => {
@@ -164,7 +127,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     authorizeRow(auth, 'assign', 'Job', jobSubject(current));
     const { tunerId } = parseInput(assignSchema, req.body);
     const job = await assignJob(deps, auth, req.params.id, tunerId);
-    res.json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+    res.json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 
   router.post('/:id/take', async (req, res) => {
@@ -172,7 +135,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     const current = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'take', 'Job', jobSubject(current));
     const job = await takeJob(deps, auth, req.params.id);
-    res.json({ data: jobRowToJob(job, auth.actor, clock.now()) });
+    res.json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 
   router.put('/:id/log-request', async (req, res) => {
@@ -180,20 +143,16 @@ export function createJobsRouter(deps: AppDeps): Router {
     const current = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'update', 'Job', jobSubject(current));
     const logRequest = parseInput(logRequestSchema, req.body);
-    await updateJob(db, auth.shop.id, current.id, { log_request: JSON.stringify(logRequest), updated_at: clock.now().toISOString() });
-    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'job.log_request_changed', subjectType: 'Job', subjectId: current.id, at: clock.now() });
-    res.json({ data: jobRowToJob((await findJob(db, auth.shop.id, current.id))!, auth.actor, clock.now()) });
+    const job = await changeLogRequest(deps, auth, current, logRequest);
+    res.json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 
   router.get('/:id/messages', async (req, res) => {
     const auth = requireShop(req);
     const job = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'read', 'Message', jobSubject(job));
-    const rows = await listJobMessages(db, auth.shop.id, job.id);
-    res.json({
-      data: rows.map((m) => ({ id: m.id, body: m.body, author: { id: m.author_user_id, name: m.author_name }, mine: m.author_user_id === auth.user.id, createdAt: m.created_at })),
-      meta: { total: rows.length },
-    });
+    const data = await jobMessages(deps, auth, job);
+    res.json({ data, meta: { total: data.length } });
   });
 
   router.post('/:id/messages', async (req, res) => {
@@ -203,8 +162,7 @@ export function createJobsRouter(deps: AppDeps): Router {
       throw new DomainError(auth.actor.shopReadOnly ? 'shop_read_only' : 'forbidden', 'You cannot post on this job.');
     }
     const { body } = parseInput(messageInputSchema, req.body);
-    const message = await postJobMessage(deps, auth, job, body);
-    res.status(201).json({ data: { id: message.id, body: message.body, author: { id: auth.user.id, name: auth.user.name }, mine: true, createdAt: message.created_at } });
+    res.status(201).json({ data: await postJobMessage(deps, auth, job, body) });
   });
 
   return router;

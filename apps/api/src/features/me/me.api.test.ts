@@ -1,4 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { createMember, createShop } from '../../testing/factories';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 
 let t: TestApp;
@@ -11,7 +12,8 @@ afterEach(async () => {
 
 describe('PATCH /api/me', () => {
   it('answers 400 when there is nothing to change (empty body or only unknown keys)', async () => {
-    const agent = await signIn(t.app, 'tuner@kestrel.test');
+    const tuner = await createMember(t, await createShop(t), 'tuner');
+    const agent = await signIn(t.app, tuner.email);
     for (const body of [{}, { colour: 'red' }, { platformAdmin: true }]) {
       const res = await agent.patch('/api/me').send(body);
       expect(res.status).toBe(400);

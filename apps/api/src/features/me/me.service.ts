@@ -1,8 +1,9 @@
+import type { Me } from '@revloop/contract';
 import { findDealer, type Db } from '@revloop/db';
 import type { AuthContext } from '../../http/auth-context';
 
 /** The `/api/me` shape: who is signed in, in which shop and role, and the actor the web builds its ability from. */
-export async function toMe(db: Db, auth: AuthContext) {
+export async function toMe(db: Db, auth: AuthContext): Promise<Me> {
   const { user, shop, membership, actor } = auth;
   const dealer = shop && membership?.dealer_id ? await findDealer(db, shop.id, membership.dealer_id) : undefined;
   return {

@@ -8,9 +8,9 @@ import {
   type MemberListRow,
   type MembershipRow,
 } from '@revloop/db';
+import { changeRoleSchema, type Member } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
-import { asSubject, SHOP_ROLES, STAFF_ROLES } from '@revloop/domain/auth';
-import { z } from 'zod';
+import { asSubject, STAFF_ROLES } from '@revloop/domain/auth';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
@@ -21,9 +21,7 @@ import { invalidateUserSessions } from '../auth/session.service';
 /** Owners and tuners work the bench, so they fill the plan's tuner seats. */
 const takesSeat = (role: string) => role === 'owner' || role === 'tuner';
 
-const changeRoleSchema = z.object({ role: z.enum(SHOP_ROLES), dealerId: z.string().min(1).nullish() });
-
-const memberRowToMember = (r: MemberListRow) => ({
+const memberRowToMember = (r: MemberListRow): Member => ({
   id: r.id,
   userId: r.user_id,
   name: r.name,

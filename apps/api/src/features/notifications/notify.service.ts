@@ -1,5 +1,6 @@
 import { findUserById, insertNotifications, newId, type Db } from '@revloop/db';
-import type { Mailer } from '../mail/mailer';
+import { queueMail } from '../mail/mail-outbox.service';
+import type { OutgoingMail } from '../mail/mailer';
 
 /** The moves that reach people; each user may turn the e-mail of any kind off (in-app stays). */
 export const NOTIFICATION_KINDS = ['job_received', 'revision_ready', 'log_received', 'job_dialed_in', 'message_received', 'job_moved'] as const;
@@ -51,8 +52,11 @@ export interface Notice {
   at: Date;
 }
 
-/** Writes an in-app notification for every recipient and mails those whose preference allows it. */
-export async function notify(db: Db, mailer: Mailer, notice: Notice, exceptUserId?: string): Promise<void> {
+/**
+ * Writes an in-app notification for every recipient and queues an e-mail to those whose preference allows it. Call
+ * it in the transaction of the change it reports, then `drainMailOutbox` after the commit.
+ */
+export async function notify(db: Db, notice: Notice, exceptUserId?: string | null): Promise<void> {
   const recipients = [...new Set(notice.recipients)].filter((id) => id && id !== exceptUserId);
   await insertNotifications(
     db,
@@ -68,10 +72,12 @@ export async function notify(db: Db, mailer: Mailer, notice: Notice, exceptUserI
       created_at: notice.at.toISOString(),
     })),
   );
+  const mails: OutgoingMail[] = [];
   for (const userId of recipients) {
     const user = await findUserById(db, userId);
     if (!user || !parseNotificationPrefs(user.notification_prefs)[notice.kind].email) continue;
     const lines = [notice.body, ...(notice.emailLines ?? []), '', `Open it in Revloop: ${notice.link}`, '', '— Revloop'];
-    await mailer.send({ to: user.email, subject: notice.title, text: lines.join('\n') });
+    mails.push({ to: user.email, subject: notice.title, text: lines.join('\n') });
   }
+  await queueMail(db, mails, notice.at);
 }

@@ -9,8 +9,7 @@ import BetterSqlite3 from 'better-sqlite3';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { createDb, migrateToLatest } from '@revloop/db';
 import { generateLog } from '@revloop/domain/datalog/testing';
-import { seedDemo, type DemoIds } from '../../../../../seeds/demo/seed-demo';
-import { DEMO_PASSWORD } from '../../../../../seeds/demo/people';
+import { DEMO_PASSWORD, seedDemo, type DemoIds } from '../../testing/demo-fixture';
 import { BlobStore } from '../../storage/blob-store';
 import { freePort } from '../../testing/free-port';
 

@@ -4,6 +4,7 @@ import { Writable } from 'node:stream';
 import { pino } from 'pino';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { newId } from '@revloop/db';
+import { createCustomer, createJob, createShop } from '../../testing/factories';
 import { createTestApp, type TestApp } from '../../testing/test-app';
 import { ORPHAN_MIN_AGE_MS, recoverAtStartup } from './recover.service';
 
@@ -27,6 +28,15 @@ function capturingLogger() {
   return { logger: pino({ level: 'info' }, stream), lines };
 }
 
+/** A customer with one job in log review (its files and an analysed log on disk) and one waiting for a log. */
+async function jobsWithLogs() {
+  const shop = await createShop(t);
+  const customer = await createCustomer(t, shop);
+  await createJob(t, shop, { state: 'log_review', customer });
+  const waiting = await createJob(t, shop, { state: 'with_customer', customer });
+  return { shop, customer, waiting };
+}
+
 const setAge = (file: string, ms: number) => {
   const at = new Date(t.clock.now().getTime() - ms);
   fs.utimesSync(file, at, at);
@@ -44,6 +54,7 @@ describe('start-up recovery', () => {
   });
 
   it('deletes blobs no row references once they are older than an hour, and keeps every referenced or recent one', async () => {
+    await jobsWithLogs();
     const orphan = await t.blobs.putBytes(Buffer.from(`orphan ${newId()}`));
     const recent = await t.blobs.putBytes(Buffer.from(`recent ${newId()}`));
     setAge(t.blobs.pathOf(orphan.sha256), ORPHAN_MIN_AGE_MS + 60_000);
@@ -65,14 +76,13 @@ describe('start-up recovery', () => {
   });
 
   it('re-queues a log left "processing" so it ends ready and moves its job without anyone opening it', async () => {
-    const customerId = t.ids.kestrel.customerIds[0];
-    const job = t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.state === 'with_customer' && j.customerUserId === customerId && j.dealerId === null);
-    expect(job, 'a job of the demo customer waiting for a log').toBeDefined();
-    const jobId = (job as NonNullable<typeof job>).id;
+    const { shop, customer, waiting } = await jobsWithLogs();
+    const customerId = customer.id;
+    const jobId = waiting.id;
     // The row a crash leaves: stored file and row written by the customer, analysis never finished.
-    const source = await t.db.selectFrom('datalogs').selectAll().where('shop_id', '=', t.ids.kestrel.shopId).where('status', '=', 'ready').executeTakeFirstOrThrow();
+    const source = await t.db.selectFrom('datalogs').selectAll().where('shop_id', '=', shop.id).where('status', '=', 'ready').executeTakeFirstOrThrow();
     const round = (await t.db.selectFrom('jobs').select('round').where('id', '=', jobId).executeTakeFirstOrThrow()).round;
-    const stuck = { ...source, id: newId(), job_id: jobId, round, status: 'processing' as const, report: null, error: null, uploaded_by: customerId ?? null };
+    const stuck = { ...source, id: newId(), job_id: jobId, round, status: 'processing' as const, report: null, error: null, uploaded_by: customerId };
     await t.db.insertInto('datalogs').values(stuck).execute();
 
     const { counts, analyses } = await recoverAtStartup(t.deps);
@@ -86,7 +96,8 @@ describe('start-up recovery', () => {
   });
 
   it('fails a cut-off log whose uploader has left the shop, with a reason the shop can act on', async () => {
-    const source = await t.db.selectFrom('datalogs').selectAll().where('shop_id', '=', t.ids.kestrel.shopId).executeTakeFirstOrThrow();
+    const { shop } = await jobsWithLogs();
+    const source = await t.db.selectFrom('datalogs').selectAll().where('shop_id', '=', shop.id).executeTakeFirstOrThrow();
     const stuck = { ...source, id: newId(), status: 'processing' as const, report: null, uploaded_by: null };
     await t.db.insertInto('datalogs').values(stuck).execute();
     const { counts } = await recoverAtStartup(t.deps);

@@ -1,12 +1,17 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { NOT_ENCODED_WARNING } from '@revloop/domain/vehicles';
+import { createCustomer, createPackage, createShop, createVehicle, type TestMember, type TestShop } from '../../testing/factories';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 import { TEST_VEHICLE } from '../../testing/test-vehicle';
 import { datalogVehicleOf } from '../datalogs/datalog.service';
 
 let t: TestApp;
+let shop: TestShop;
+let customerOfShop: TestMember;
 beforeEach(async () => {
   t = await createTestApp();
+  shop = await createShop(t);
+  customerOfShop = await createCustomer(t, shop);
 });
 afterEach(async () => {
   await t.close();
@@ -20,7 +25,7 @@ const columnOf = async (id: string) =>
 
 describe('measured rolling circumference', () => {
   it('drives the speeds when given, and the tyre size again when cleared', async () => {
-    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const customer = await signIn(t.app, customerOfShop.email);
     const created = await customer.post('/api/vehicles').send({ vehicle: { ...ONE_GEAR, rollingCircumferenceMm: 2150 } });
     expect(created.status).toBe(201);
     const v = created.body.data;
@@ -45,7 +50,8 @@ describe('measured rolling circumference', () => {
   });
 
   it('refuses a measurement far from the tyre size and keeps the old value', async () => {
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    await createVehicle(t, customerOfShop);
+    const owner = await signIn(t.app, shop.owner.email);
     const v = (await owner.get('/api/vehicles')).body.data[0];
     // 1000 mm is far below any 10 % band around a car tyre's circumference [CALC]
     const res = await owner.put(`/api/vehicles/${v.id}`).send({ ...v.spec, rollingCircumferenceMm: 1000 });
@@ -55,7 +61,8 @@ describe('measured rolling circumference', () => {
   });
 
   it('opens a job with a measured circumference from the intake and hands it to the datalog analysis', async () => {
-    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const customer = await signIn(t.app, customerOfShop.email);
+    await createPackage(t, shop);
     const me = (await customer.get('/api/me')).body;
     const packageId = (await customer.get('/api/packages')).body.data[0].id;
     const res = await customer.post('/api/jobs').send({
@@ -78,7 +85,7 @@ describe('VINs from outside North America', () => {
   const EUROPEAN_VIN = 'WVWZZZ1KZ6W000001';
 
   it('are kept with a warning and the model year the user gave, without a check-digit confirmation', async () => {
-    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const customer = await signIn(t.app, customerOfShop.email);
     const res = await customer.post('/api/vehicles').send({ vehicle: { ...TEST_VEHICLE, vin: EUROPEAN_VIN, modelYear: 2006 } });
     expect(res.status).toBe(201);
     expect(res.body.data).toMatchObject({ vin: EUROPEAN_VIN, modelYear: 2006, vinRegion: 'europe', vinWarnings: [NOT_ENCODED_WARNING] });
@@ -86,7 +93,7 @@ describe('VINs from outside North America', () => {
   });
 
   it('a North American VIN still needs its check digit, or a confirmation [3P]', async () => {
-    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const customer = await signIn(t.app, customerOfShop.email);
     // 1M8GDM9A?KP042788 → X, so 1 is wrong (widely reproduced example [3P])
     const wrong = await customer.post('/api/vehicles').send({ vehicle: { ...TEST_VEHICLE, vin: '1M8GDM9A1KP042788' } });
     expect(wrong.status).toBe(400);

@@ -1,5 +1,6 @@
 import { Navigate, Outlet, useLocation, useMatches } from 'react-router-dom';
 import { useAbility } from '@casl/react';
+import type { Me } from '@revloop/contract';
 import type { AppAbility } from '@revloop/domain/auth';
 import { AppShell } from '../../../components/layout/app-shell';
 import { PublicFrame } from '../../../components/layout/public-frame';
@@ -8,7 +9,7 @@ import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
 import { PageSpinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
-import { useMe, type Me } from '../../../features/auth/api/get-me';
+import { useMe } from '../../../features/auth/api/get-me';
 import { navItemsFor } from '../../../features/auth/components/nav-items';
 import { UserMenu } from '../../../features/auth/components/user-menu';
 import { MailboxLink } from '../../../features/mailbox/components/mailbox-link';

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Me } from '@revloop/contract';
 import { acceptInvitationSchema } from '@revloop/domain/auth';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
-import { replaceSession, type Me } from './get-me';
+import { replaceSession } from './get-me';
 
 export { acceptInvitationSchema };
 export type AcceptInvitationInput = z.output<typeof acceptInvitationSchema> & { token: string };

@@ -1,17 +1,6 @@
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
-import type { Actor, ShopRole } from '@revloop/domain/auth';
+import type { Me } from '@revloop/contract';
 import { api } from '../../../lib/api-client';
-
-export type UnitSystem = 'metric' | 'imperial';
-
-export interface Me {
-  user: { id: string; email: string; name: string; unitSystem: UnitSystem };
-  role: ShopRole | 'platform_admin' | null;
-  platformAdmin: boolean;
-  shop: { id: string; name: string; status: 'active' | 'suspended'; readOnly: boolean; readOnlyReason: string | null; currency: string } | null;
-  dealer: { id: string; name: string } | null;
-  actor: Actor;
-}
 
 /** The signed-in user, or null when signed out; the session probe answers 200 either way, so no error is logged. */
 export async function getMe(): Promise<Me | null> {

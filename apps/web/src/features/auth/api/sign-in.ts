@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Me } from '@revloop/contract';
 import { signInSchema } from '@revloop/domain/auth';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
-import { replaceSession, type Me } from './get-me';
+import { replaceSession } from './get-me';
 
 export { signInSchema };
 export type SignInInput = z.output<typeof signInSchema>;

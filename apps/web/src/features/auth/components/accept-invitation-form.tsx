@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import type { Me } from '@revloop/contract';
 import { plainErrors } from '../../../lib/form-messages';
 import { ROLE_LABELS } from '@revloop/domain/auth';
 import { Button } from '../../../components/ui/button';
@@ -10,7 +11,6 @@ import { formatDateTime } from '../../../lib/format';
 import { applyFieldErrors, errorMessage, summaryItems } from '../../../lib/form-errors';
 import { acceptInvitationSchema, useAcceptInvitation } from '../api/accept-invitation';
 import type { InvitationLookup } from '../api/get-invitation-by-token';
-import type { Me } from '../api/get-me';
 
 const FIELDS = ['name', 'password'] as const;
 

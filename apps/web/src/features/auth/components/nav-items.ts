@@ -1,6 +1,6 @@
+import type { Me } from '@revloop/contract';
 import type { AppAbility } from '@revloop/domain/auth';
 import { paths } from '../../../config/paths';
-import type { Me } from '../api/get-me';
 
 type Viewer = Pick<Me, 'role'>;
 
@@ -22,6 +22,7 @@ export const screenAccess = {
   billing: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Subscription'),
   statement: (ability: AppAbility, viewer: Viewer) => viewer.role === 'dealer' && ability.can('read', 'Ledger'),
   mailbox: (ability: AppAbility) => ability.can('read', 'Mailbox'),
+  reports: (ability: AppAbility) => ability.can('read', 'Report'),
 } satisfies Record<string, (ability: AppAbility, viewer: Viewer) => boolean>;
 
 export type Screen = keyof typeof screenAccess;
@@ -42,6 +43,7 @@ const NAV: Array<{ screen: Screen; label: (viewer: Viewer) => string; to: string
   { screen: 'team', label: () => 'Team', to: paths.team.getHref() },
   { screen: 'dealers', label: () => 'Dealers', to: paths.dealers.list.getHref() },
   { screen: 'statement', label: () => 'Statement', to: paths.billing.myStatement.getHref() },
+  { screen: 'reports', label: () => 'Reports', to: paths.reports.getHref() },
   { screen: 'billing', label: () => 'Billing', to: paths.billing.shop.getHref() },
   { screen: 'shopSettings', label: () => 'Settings', to: paths.settings.shop.getHref() },
 ];

@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import type { Me } from '@revloop/contract';
 import { plainErrors } from '../../../lib/form-messages';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
@@ -7,7 +8,6 @@ import { Field } from '../../../components/ui/field';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
 import { Input } from '../../../components/ui/input';
 import { errorMessage, summaryItems } from '../../../lib/form-errors';
-import type { Me } from '../api/get-me';
 import { updateMeSchema, useUpdateMe } from '../api/update-me';
 
 const UNIT_OPTIONS = [

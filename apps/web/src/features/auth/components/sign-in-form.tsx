@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import type { Me } from '@revloop/contract';
 import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
@@ -9,7 +10,6 @@ import { TextLink } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
 import { errorMessage, summaryItems } from '../../../lib/form-errors';
 import { signInSchema, useSignIn } from '../api/sign-in';
-import type { Me } from '../api/get-me';
 
 export function SignInForm({ onSuccess }: { onSuccess: (me: Me) => void }) {
   const form = useForm({ resolver: zodResolver(signInSchema, plainErrors), defaultValues: { email: '', password: '' } });

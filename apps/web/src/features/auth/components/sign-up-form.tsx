@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import type { Me } from '@revloop/contract';
 import { plainErrors } from '../../../lib/form-messages';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
@@ -7,7 +8,6 @@ import { FormErrorSummary } from '../../../components/ui/form-error-summary';
 import { Input } from '../../../components/ui/input';
 import { applyFieldErrors, errorMessage, summaryItems } from '../../../lib/form-errors';
 import { signUpSchema, useSignUp } from '../api/sign-up';
-import type { Me } from '../api/get-me';
 
 const FIELDS = ['shopName', 'name', 'email', 'password'] as const;
 

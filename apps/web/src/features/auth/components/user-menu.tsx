@@ -1,8 +1,8 @@
 import { Link, useNavigate } from 'react-router-dom';
+import type { Me } from '@revloop/contract';
 import { ROLE_LABELS } from '@revloop/domain/auth';
 import { paths } from '../../../config/paths';
 import { usePopover } from '../../../lib/use-popover';
-import type { Me } from '../api/get-me';
 import { useSignOut } from '../api/sign-out';
 
 const itemClasses =

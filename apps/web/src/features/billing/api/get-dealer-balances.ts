@@ -1,12 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { DealerBalance } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
-
-export interface DealerBalance {
-  id: string;
-  name: string;
-  balanceMinor: number;
-  currency: string;
-}
 
 export const getDealerBalances = () => api.get<ListResponse<DealerBalance>>('/api/billing/dealer-balances');
 

@@ -1,14 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { JobPayment } from '@revloop/contract';
+import type { RefundInput } from '@revloop/domain/billing';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getJobPaymentsQueryOptions, type JobPayment } from './get-job-payments';
+import { getJobPaymentsQueryOptions } from './get-job-payments';
 
-export interface RefundRequest {
-  paymentId: string;
-  amountMinor: number;
-  reason: string;
-  /** The same id for retries of one refund, so a double submit refunds once. */
-  requestId: string;
-}
+/** The domain's refund input (its `requestId` makes a double submit refund once) and the payment it refunds. */
+export type RefundRequest = RefundInput & { paymentId: string };
 
 export const refundPayment = ({ paymentId, ...body }: RefundRequest) =>
   api.post<ItemResponse<JobPayment>>(`/api/billing/payments/${encodeURIComponent(paymentId)}/refunds`, body);

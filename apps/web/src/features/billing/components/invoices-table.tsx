@@ -1,7 +1,7 @@
+import type { SubscriptionInvoice } from '@revloop/contract';
 import { formatMoney } from '@revloop/domain/billing';
 import { Badge } from '../../../components/ui/badge';
 import { formatDate } from '../../../lib/format';
-import type { SubscriptionInvoice } from '../api/get-subscription';
 import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 const REASONS: Record<string, string> = { subscription_create: 'First invoice', subscription_cycle: 'Renewal', subscription_update: 'Plan change' };

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { JobPayment } from '@revloop/contract';
 import { formatMoney, minorToDecimalString, parseMoneyInput } from '@revloop/domain/billing';
 import { Badge } from '../../../components/ui/badge';
 import { Banner } from '../../../components/ui/banner';
@@ -10,7 +11,7 @@ import { Input } from '../../../components/ui/input';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDate } from '../../../lib/format';
-import { useJobPayments, type JobPayment } from '../api/get-job-payments';
+import { useJobPayments } from '../api/get-job-payments';
 import { useRefundPayment } from '../api/refund-payment';
 import { useStartCheckout } from '../api/start-checkout';
 

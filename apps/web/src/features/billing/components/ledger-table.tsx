@@ -1,6 +1,6 @@
+import type { DealerLedger } from '@revloop/contract';
 import { formatMoney } from '@revloop/domain/billing';
 import { formatDateTime } from '../../../lib/format';
-import type { DealerLedger } from '../api/get-dealer-ledger';
 import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 /** The statement: every entry in the order it was written, with the balance after it. */

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { Subscription } from '@revloop/contract';
 import { formatMoney, type PlanId } from '@revloop/domain/billing';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
@@ -7,7 +8,6 @@ import { Input } from '../../../components/ui/input';
 import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
 import { useChangePlan } from '../api/change-plan';
-import type { Subscription } from '../api/get-subscription';
 import { useStartCheckout } from '../api/start-checkout';
 
 /** Choose a plan and seat count: through Checkout when no subscription runs yet, directly when one does. */

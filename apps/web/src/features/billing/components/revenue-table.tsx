@@ -1,9 +1,9 @@
 import { useMemo } from 'react';
+import type { ShopRevenue } from '@revloop/contract';
 import { formatMoney } from '@revloop/domain/billing';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { createDataTableColumns, DataTable } from '../../../components/ui/data-table';
 import { formatDate } from '../../../lib/format';
-import type { ShopRevenue } from '../api/get-revenue';
 
 const helper = createDataTableColumns<ShopRevenue>();
 const TONES: Record<ShopRevenue['status'], Tone> = { trialing: 'accent', active: 'ok', past_due: 'warn', unpaid: 'bad', canceled: 'neutral', incomplete: 'warn' };

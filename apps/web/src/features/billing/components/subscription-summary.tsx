@@ -1,3 +1,4 @@
+import type { Subscription } from '@revloop/contract';
 import { formatMoney } from '@revloop/domain/billing';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { Banner } from '../../../components/ui/banner';
@@ -5,7 +6,6 @@ import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDate } from '../../../lib/format';
-import type { Subscription } from '../api/get-subscription';
 import { useStartCheckout } from '../api/start-checkout';
 
 const STATUS_TONES: Record<Subscription['status'], Tone> = {

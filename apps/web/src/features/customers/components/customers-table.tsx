@@ -96,7 +96,7 @@ export function CustomersTable() {
     ? 'Loading…'
     : q
       ? 'No customer matches the search: try part of a name, an e-mail or a VIN.'
-      : 'No customers yet: open a job for a new customer to add one.';
+      : 'No customers yet: open a job for a new customer, or share your public page so customers sign up themselves.';
 
   return (
     <div className="flex flex-col gap-3">

@@ -1,28 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { CanonicalChannel, KnockEvent } from '@revloop/domain/datalog';
+import type { DatalogSeries, SeriesSampling } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
 import { datalogsRootKey } from './get-datalog';
-
-export interface SeriesChannel {
-  channel: CanonicalChannel;
-  label: string;
-  unit: string;
-  /** Seconds from the start of the log, and the values at those times (at most `points` of them). */
-  t: number[];
-  v: number[];
-}
-
-export interface DatalogSeries {
-  from: number;
-  to: number;
-  durationS: number;
-  available: CanonicalChannel[];
-  channels: SeriesChannel[];
-  knock: KnockEvent[];
-}
-
-/** `lttb` keeps each channel's shape on its own; `rows` gives every channel the same time stamps (scatter plots). */
-export type SeriesSampling = 'lttb' | 'rows';
 
 export interface SeriesRequest {
   channels: readonly string[];

@@ -1,31 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { DatalogReport } from '@revloop/domain/datalog';
+import type { Datalog, DatalogDetail } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-
-export type DatalogStatus = 'processing' | 'ready' | 'failed';
-
-/** A log as the API lists it (`datalogRowToDatalog`); the report comes with the single log only. */
-export interface Datalog {
-  id: string;
-  jobId: string;
-  /** The revision on the car when it was logged; 0 is the calibration the car came with. */
-  round: number;
-  originalName: string;
-  sizeBytes: number;
-  sha256: string;
-  status: DatalogStatus;
-  /** 0–1 while the analysis runs. */
-  progress: number;
-  error: string | null;
-  checks: DatalogReport['checks'];
-  uploadedBy: { id: string; name: string } | null;
-  createdAt: string;
-}
-
-export interface DatalogDetail extends Datalog {
-  job: { id: string; number: number; round: number; state: string; vehicle: string };
-  report: DatalogReport | null;
-}
 
 /** A log younger than this is polled often: a typical log's report is ready a few hundred ms after its upload. */
 const FAST_POLL_WINDOW_MS = 5000;

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Datalog } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
-import { datalogsRootKey, processingPollMs, type Datalog } from './get-datalog';
+import { datalogsRootKey, processingPollMs } from './get-datalog';
 
 export const getJobDatalogs = (jobId: string) => api.get<ListResponse<Datalog>>(`/api/jobs/${encodeURIComponent(jobId)}/datalogs`);
 

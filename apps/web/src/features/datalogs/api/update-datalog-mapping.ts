@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Datalog } from '@revloop/contract';
 import type { DatalogMappingInput } from '@revloop/domain/datalog';
 import { apiRequest, type ItemResponse } from '../../../lib/api-client';
-import { datalogsRootKey, type Datalog } from './get-datalog';
+import { datalogsRootKey } from './get-datalog';
 
 /** Channel → header for every channel (an empty header means "not logged"), stated units, AFR scale and trim axis. */
 export interface UpdateDatalogMappingInput extends DatalogMappingInput {

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Datalog } from '@revloop/contract';
 import type { ItemResponse } from '../../../lib/api-client';
 import { uploadWithProgress } from '../../../lib/upload-with-progress';
 import { jobsRootKey } from '../../jobs/api/get-jobs';
-import { datalogsRootKey, type Datalog } from './get-datalog';
+import { datalogsRootKey } from './get-datalog';
 
 export interface UploadDatalogInput {
   jobId: string;

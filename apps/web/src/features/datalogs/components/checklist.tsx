@@ -1,15 +1,5 @@
-import type { CheckId, CheckStatus, DatalogCheck } from '@revloop/domain/datalog';
+import { CHECK_TITLES, type CheckStatus, type DatalogCheck } from '@revloop/domain/datalog';
 import { cn } from '../../../lib/cn';
-
-const CHECK_TITLES: Record<CheckId, string> = {
-  required_channels: 'Requested channels',
-  engine_warm: 'Engine warm',
-  full_throttle: 'Full throttle',
-  wot_gears: 'Full-throttle gears',
-  sensor_sanity: 'Sensors',
-  afr_scale: 'Air-fuel ratio scale',
-  bank_split: 'Bank 1 against bank 2',
-};
 
 // Word and shape as well as colour, so the result never rests on colour alone.
 const STATUS: Record<CheckStatus, { word: string; mark: string; className: string }> = {

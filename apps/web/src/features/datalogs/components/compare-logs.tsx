@@ -1,10 +1,11 @@
 import { useState } from 'react';
+import type { Datalog } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
-import { revisionLabel, type Datalog } from '../api/get-datalog';
+import { revisionLabel } from '../api/get-datalog';
 import { useDatalogComparison } from '../api/get-datalog-comparison';
 import { formatSigned } from '../../../lib/format';
 

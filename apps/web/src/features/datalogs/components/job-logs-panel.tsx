@@ -1,5 +1,6 @@
 import { useRef, useState, type FormEvent } from 'react';
 import { useAbility } from '@casl/react';
+import type { Datalog } from '@revloop/contract';
 import type { AppAbility } from '@revloop/domain/auth';
 import type { LogRequest } from '@revloop/domain/datalog';
 import type { JobState } from '@revloop/domain/jobs';
@@ -11,7 +12,7 @@ import { TextLink } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
-import { revisionLabel, type Datalog } from '../api/get-datalog';
+import { revisionLabel } from '../api/get-datalog';
 import { useJobDatalogs } from '../api/get-job-datalogs';
 import { useUploadDatalog } from '../api/upload-datalog';
 import { Checklist, checksSummary } from './checklist';

@@ -1,11 +1,11 @@
 import { useMemo, useState } from 'react';
+import type { Datalog } from '@revloop/contract';
 import { CHANNEL_INFO, type CanonicalChannel, type DatalogReport } from '@revloop/domain/datalog';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
 import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
-import type { Datalog } from '../api/get-datalog';
 import { useDatalogSeries } from '../api/get-datalog-series';
 import type { ChannelChoice, ChartLine, Stretch } from '../chart/lines';
 import { lineColour } from '../chart/palette';

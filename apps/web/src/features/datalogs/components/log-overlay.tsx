@@ -1,13 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
 import { useMemo, useState } from 'react';
+import type { Datalog, SeriesChannel } from '@revloop/contract';
 import type { CanonicalChannel, DatalogReport } from '@revloop/domain/datalog';
 import { Banner } from '../../../components/ui/banner';
 import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
-import { getDatalogQueryOptions, revisionLabel, type Datalog } from '../api/get-datalog';
-import { useDatalogSeries, type SeriesChannel } from '../api/get-datalog-series';
+import { getDatalogQueryOptions, revisionLabel } from '../api/get-datalog';
+import { useDatalogSeries } from '../api/get-datalog-series';
 import type { ChartLine } from '../chart/lines';
 import { marksOf, pullLabel } from '../chart/marks';
 import { lineColour } from '../chart/palette';

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { DatalogMapping } from '@revloop/contract';
 import type { AfrScale, DatalogMappingInput } from '@revloop/domain/datalog';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
@@ -6,7 +7,7 @@ import { Dialog } from '../../../components/ui/dialog';
 import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
-import { useDatalogMapping, type DatalogMapping } from '../api/get-datalog-mapping';
+import { useDatalogMapping } from '../api/get-datalog-mapping';
 import { useUpdateDatalogMapping } from '../api/update-datalog-mapping';
 
 const NOT_LOGGED = '';

@@ -38,7 +38,7 @@ export function DealersTable({ dealers }: { dealers: Dealer[] }) {
         getRowId={(dealer) => dealer.id}
         globalFilter={filter}
         initialSorting={[{ id: 'name', desc: false }]}
-        emptyMessage={filter ? 'No dealer matches the filter.' : 'No dealers yet.'}
+        emptyMessage={filter ? 'No dealer matches the filter.' : 'No dealers yet: add a garage that resells your packages at the dealer price.'}
       />
     </div>
   );

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CalibrationFile } from '@revloop/contract';
 import { ApiError } from '../../../lib/api-client';
 import { jobsRootKey } from '../../jobs/api/get-jobs';
-import type { CalibrationFile } from './get-job-files';
 
 export interface DownloadFileInput {
   file: Pick<CalibrationFile, 'id' | 'downloadName'>;

@@ -1,27 +1,10 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { FileDiff, FileDiffQuery } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import type { DiffRange } from './get-file-verification';
-import { filesRootKey, type CalibrationFile } from './get-job-files';
+import { filesRootKey } from './get-job-files';
 
-export interface FileDiffParams {
-  gap: number;
-  page: number;
-  pageSize: number;
-}
-
-export interface FileDiff {
-  a: CalibrationFile;
-  b: CalibrationFile;
-  gap: number;
-  changedBytes: number;
-  comparedBytes: number;
-  changedShare: number;
-  ranges: DiffRange[];
-  page: number;
-  pageSize: number;
-  totalRanges: number;
-  pageCount: number;
-}
+/** The diff's paging as the server reads it (the contract's query after its defaults). */
+export type FileDiffParams = FileDiffQuery;
 
 export const pairPath = (a: string, b: string) => `/api/files/${encodeURIComponent(a)}/diff/${encodeURIComponent(b)}`;
 

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CalibrationFileKind, CalibrationModule, UploadJobFileResponse } from '@revloop/contract';
 import { uploadWithProgress } from '../../../lib/upload-with-progress';
 import { jobsRootKey } from '../../jobs/api/get-jobs';
-import { filesRootKey, type CalibrationFile, type CalibrationFileKind, type CalibrationModule } from './get-job-files';
-import type { Verification } from './get-file-verification';
+import { filesRootKey } from './get-job-files';
 
 export interface UploadJobFileInput {
   jobId: string;
@@ -12,11 +12,6 @@ export interface UploadJobFileInput {
   notes: string;
   /** Called with 0–1 as the bytes leave the browser. */
   onProgress?: (fraction: number) => void;
-}
-
-export interface UploadJobFileResponse {
-  data: CalibrationFile;
-  meta: { waitingFor: CalibrationModule[]; movedTo: string | null; verification: Verification | null };
 }
 
 /** Uploads a calibration file with a progress callback. */

@@ -1,10 +1,10 @@
 import { useState } from 'react';
+import type { CalibrationFile } from '@revloop/contract';
 import { buttonClasses } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { Select } from '../../../components/ui/select';
 import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths';
-import type { CalibrationFile } from '../api/get-job-files';
 
 /** Pick two files of one module and open their byte comparison. */
 export function CompareForm({ jobId, files }: { jobId: string; files: CalibrationFile[] }) {

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { DiffRange, HexRow } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
@@ -7,9 +8,8 @@ import { Input } from '../../../components/ui/input';
 import { Spinner } from '../../../components/ui/spinner';
 import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
-import { useDiffHex, type HexRow } from '../api/get-diff-hex';
+import { useDiffHex } from '../api/get-diff-hex';
 import { useFileDiff } from '../api/get-file-diff';
-import type { DiffRange } from '../api/get-file-verification';
 import { formatBytes, formatShare, hexAddress, hexByte } from './file-format';
 import { ScrollRegion } from '../../../components/ui/scroll-region';
 

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import type { CalibrationFileKind, CalibrationModule, UploadJobFileResponse } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
@@ -6,8 +7,7 @@ import { controlClasses } from '../../../components/ui/input';
 import { Select } from '../../../components/ui/select';
 import { errorMessage } from '../../../lib/form-errors';
 import { ProgressBar } from '../../datalogs/components/progress-bar';
-import type { CalibrationFileKind, CalibrationModule } from '../api/get-job-files';
-import { useUploadJobFile, type UploadJobFileResponse } from '../api/upload-job-file';
+import { useUploadJobFile } from '../api/upload-job-file';
 import { formatBytes } from './file-format';
 
 const MODULE_OPTIONS = [

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { CalibrationFile } from '@revloop/contract';
 import { Badge } from '../../../components/ui/badge';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
@@ -7,7 +8,6 @@ import { formatDateTime } from '../../../lib/format';
 import { ProgressBar } from '../../datalogs/components/progress-bar';
 import { useDownloadFile } from '../api/download-file';
 import { useFileVerification } from '../api/get-file-verification';
-import type { CalibrationFile } from '../api/get-job-files';
 import { formatBytes } from './file-format';
 import { VerifyResult } from './verify-result';
 import { ScrollRegion } from '../../../components/ui/scroll-region';

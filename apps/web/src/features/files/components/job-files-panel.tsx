@@ -1,8 +1,9 @@
+import { CALIBRATION_MODULES } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { Card } from '../../../components/ui/card';
 import { Spinner } from '../../../components/ui/spinner';
 import { errorMessage } from '../../../lib/form-errors';
-import { useJobFiles, type CalibrationModule } from '../api/get-job-files';
+import { useJobFiles } from '../api/get-job-files';
 import { CompareForm } from './compare-form';
 import { FileUploadForm } from './file-upload-form';
 import { FilesTable, NoFilesYet } from './files-table';
@@ -17,15 +18,13 @@ export interface FilesPanelJob {
   package: { name: string };
 }
 
-const MODULES: CalibrationModule[] = ['ECM', 'TCM', 'other'];
-
 /** Calibration files of one job: uploads, reads, revisions, proof of what is on the car, and comparisons. */
 export function JobFilesPanel({ jobId, job }: { jobId: string; job: FilesPanelJob }) {
   const files = useJobFiles(jobId);
   const list = files.data?.data ?? [];
   const meta = files.data?.meta;
   const hasRevision = list.some((f) => f.kind === 'revision');
-  const modules = [...new Set([...list.map((f) => f.module), ...MODULES])];
+  const modules = [...new Set([...list.map((f) => f.module), ...CALIBRATION_MODULES])];
   return (
     <Card title="Calibration files" description={`${job.package.name} · ${job.round === 0 ? 'no revision sent yet' : `revision ${job.round} sent`}`}>
       <div className="flex flex-col gap-5">

@@ -16,7 +16,7 @@ export function PendingInvitations({ invitations, canRevoke }: { invitations: In
     revoke.reset();
   };
 
-  if (invitations.length === 0) return <EmptyState title="No pending invitations" />;
+  if (invitations.length === 0) return <EmptyState title="No pending invitations">Invite a tuner, a dealer user or a customer with “Invite someone”; the link they get works once.</EmptyState>;
   return (
     <>
       <ul aria-label="Pending invitations" className="divide-y divide-ink-100">

@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Job } from '@revloop/contract';
 import type { JobIntakeInput } from '@revloop/domain/jobs';
 import { api, type ItemResponse } from '../../../lib/api-client';
 import { customersRootKey } from '../../customers/api/get-customers';
 import { vehiclesRootKey } from '../../vehicles/api/get-vehicles';
-import { jobsRootKey, type Job } from './get-jobs';
+import { jobsRootKey } from './get-jobs';
 
 export const createJob = (input: JobIntakeInput) => api.post<ItemResponse<Job>>('/api/jobs', input);
 

@@ -1,14 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { JobMessage } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
 import { jobsRootKey } from './get-jobs';
-
-export interface JobMessage {
-  id: string;
-  body: string;
-  author: { id: string; name: string };
-  mine: boolean;
-  createdAt: string;
-}
 
 export const getJobMessages = (jobId: string) => api.get<ListResponse<JobMessage>>(`/api/jobs/${encodeURIComponent(jobId)}/messages`);
 

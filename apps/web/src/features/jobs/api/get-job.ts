@@ -1,18 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { JobDetail } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { jobsRootKey, type Job } from './get-jobs';
-
-export interface TimelineEntry {
-  id: string;
-  at: string;
-  action: string;
-  actor: string | null;
-  text: string;
-}
-
-export interface JobDetail extends Job {
-  timeline: TimelineEntry[];
-}
+import { jobsRootKey } from './get-jobs';
 
 export const getJob = (jobId: string) => api.get<ItemResponse<JobDetail>>(`/api/jobs/${encodeURIComponent(jobId)}`);
 

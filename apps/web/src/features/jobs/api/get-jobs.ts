@@ -1,46 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AvailableTransition, JobState } from '@revloop/domain/jobs';
-import type { LogRequest } from '@revloop/domain/datalog';
+import type { JobListResponse, JobSortKey } from '@revloop/contract';
+import type { JobState } from '@revloop/domain/jobs';
 import { api } from '../../../lib/api-client';
-
-/** Special requests as the intake stored them; every part is optional. */
-export interface SpecialRequests {
-  shiftPoints?: { rpm?: number; notes: string };
-  revLimit?: { rpm?: number; notes: string };
-  speedLimiter?: { kmh?: number; notes: string };
-  tyreOrGearChange?: { tyreSize?: string; finalDrive?: number; notes: string };
-  launch?: { rpm?: number; notes: string };
-  idle?: { rpm?: number; notes: string };
-}
-
-/** A job as the API shows it to the signed-in user (`jobRowToJob`). */
-export interface Job {
-  id: string;
-  number: number;
-  state: JobState;
-  stateLabel: string;
-  heldFrom: JobState | null;
-  round: number;
-  vehicle: { id: string; description: string; vin: string; modelYear: number };
-  customer: { id: string; name: string; email: string };
-  dealer: { id: string; name: string } | null;
-  package: { id: string; name: string };
-  tuner: { id: string; name: string } | null;
-  goals: string;
-  specialRequests: SpecialRequests;
-  logRequest: LogRequest;
-  facts: { hasStockRead: boolean; hasRevisionForRound: boolean; hasLogForRound: boolean };
-  stateChangedAt: string;
-  hoursInState: number;
-  stale: boolean;
-  nextStep: string;
-  transitions: AvailableTransition[];
-  createdAt: string;
-  updatedAt: string;
-}
-
-export const JOB_SORT_KEYS = ['number', 'created', 'updated', 'state_changed', 'state', 'customer', 'vehicle', 'round'] as const;
-export type JobSortKey = (typeof JOB_SORT_KEYS)[number];
 
 /** The list filters the server understands; absent means "any". */
 export interface JobListParams {
@@ -56,11 +17,6 @@ export interface JobListParams {
   dir?: 'asc' | 'desc';
   page?: number;
   pageSize?: number;
-}
-
-export interface JobListResponse {
-  data: Job[];
-  meta: { total: number; page: number; pageSize: number; pageCount: number };
 }
 
 /** The query string for the list and the CSV export: only the filters that are set, in a stable order. */

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Job } from '@revloop/contract';
 import type { JobState } from '@revloop/domain/jobs';
 import { api, type ItemResponse } from '../../../lib/api-client';
 import { getNotificationsQueryOptions } from '../../notifications/api/get-notifications';
-import { jobsRootKey, type Job } from './get-jobs';
+import { jobsRootKey } from './get-jobs';
 
 export const moveJob = ({ jobId, to }: { jobId: string; to: JobState }) =>
   api.post<ItemResponse<Job>>(`/api/jobs/${encodeURIComponent(jobId)}/transitions`, { to });

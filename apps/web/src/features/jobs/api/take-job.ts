@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Job } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { jobsRootKey, type Job } from './get-jobs';
+import { jobsRootKey } from './get-jobs';
 
 export const takeJob = (jobId: string) => api.post<ItemResponse<Job>>(`/api/jobs/${encodeURIComponent(jobId)}/take`);
 

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Job } from '@revloop/contract';
 import type { LogRequest } from '@revloop/domain/datalog';
 import { apiRequest, type ItemResponse } from '../../../lib/api-client';
-import { jobsRootKey, type Job } from './get-jobs';
+import { jobsRootKey } from './get-jobs';
 
 export const updateLogRequest = ({ jobId, logRequest }: { jobId: string; logRequest: LogRequest }) =>
   apiRequest<ItemResponse<Job>>('PUT', `/api/jobs/${encodeURIComponent(jobId)}/log-request`, logRequest);

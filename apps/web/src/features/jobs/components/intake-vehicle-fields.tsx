@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
 import { Controller, useWatch, type UseFormReturn } from 'react-hook-form';
+import type { UnitSystem } from '@revloop/contract';
 import {
   ASPIRATIONS,
   ASPIRATION_LABELS,
@@ -22,7 +23,6 @@ import { Field } from '../../../components/ui/field';
 import { Input, controlClasses } from '../../../components/ui/input';
 import { Select } from '../../../components/ui/select';
 import { cn } from '../../../lib/cn';
-import type { UnitSystem } from '../../auth/api/get-me';
 import { MEASURE_HINT } from '../../vehicles/components/rolling-circumference-form';
 import { circumferenceDeviation, formatLength, formatMass } from '../../vehicles/components/vehicle-units';
 import { fieldId } from './intake-errors';

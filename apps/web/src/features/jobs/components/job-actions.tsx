@@ -1,5 +1,6 @@
 import { useState, type ReactNode } from 'react';
 import { useAbility } from '@casl/react';
+import type { Job } from '@revloop/contract';
 import { asSubject, type AppAbility } from '@revloop/domain/auth';
 import type { AvailableTransition } from '@revloop/domain/jobs';
 import { Button, type ButtonVariant } from '../../../components/ui/button';
@@ -12,7 +13,6 @@ import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
 import { usePopover } from '../../../lib/use-popover';
 import { useAssignJob } from '../api/assign-job';
-import type { Job } from '../api/get-jobs';
 import { useMoveJob } from '../api/move-job';
 import { useTakeJob } from '../api/take-job';
 

@@ -1,10 +1,11 @@
 import { useRef, useState, type CSSProperties, type KeyboardEvent } from 'react';
+import type { Job } from '@revloop/contract';
 import { JOB_STATE_LABELS, type OpenJobState } from '@revloop/domain/jobs';
 import { Banner } from '../../../components/ui/banner';
 import { PageSpinner } from '../../../components/ui/spinner';
 import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
-import { useJobs, type Job } from '../api/get-jobs';
+import { useJobs } from '../api/get-jobs';
 import { JobCard } from './job-card';
 import { BOARD_STATES } from './job-format';
 import { BOARD_PAGE_SIZE, boardParams, type JobsScreenState } from './job-list-params';

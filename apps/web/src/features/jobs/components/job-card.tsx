@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
+import type { Job } from '@revloop/contract';
 import { paths } from '../../../config/paths';
 import { cn } from '../../../lib/cn';
-import type { Job } from '../api/get-jobs';
 import { JobActions } from './job-actions';
 import { formatTimeInState } from './job-format';
 import { StaleBadge } from './job-state-badge';

@@ -1,5 +1,6 @@
+import { JOB_SORT_KEYS, type JobSortKey } from '@revloop/contract';
 import { isJobState, type JobState } from '@revloop/domain/jobs';
-import { JOB_SORT_KEYS, type JobListParams, type JobSortKey } from '../api/get-jobs';
+import { type JobListParams } from '../api/get-jobs';
 
 export type JobsView = 'board' | 'table';
 

@@ -1,4 +1,5 @@
 import { Link, useSearchParams } from 'react-router-dom';
+import type { Job } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { Card } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
@@ -10,7 +11,7 @@ import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/form-errors';
 import { useCustomers } from '../../customers/api/get-customers';
 import { useVehicles } from '../../vehicles/api/get-vehicles';
-import { useJobs, type Job } from '../api/get-jobs';
+import { useJobs } from '../api/get-jobs';
 import { CautionsList } from './cautions';
 import { JobProgressCard } from './job-progress';
 

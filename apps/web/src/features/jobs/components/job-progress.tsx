@@ -1,9 +1,9 @@
 import { Link } from 'react-router-dom';
+import type { Job } from '@revloop/contract';
 import { JOB_STATE_LABELS } from '@revloop/domain/jobs';
 import { paths } from '../../../config/paths';
 import { cn } from '../../../lib/cn';
 import { formatDate } from '../../../lib/format';
-import type { Job } from '../api/get-jobs';
 import { PROGRESS_STATES, progressIndex } from './job-format';
 import { JobStateBadge } from './job-state-badge';
 import { STATE_STYLES, StateIcon } from './job-state-style';

@@ -1,9 +1,9 @@
 import { Link } from 'react-router-dom';
+import type { Job } from '@revloop/contract';
 import { Card } from '../../../components/ui/card';
 import { textLinkClasses } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
 import { formatDateTime } from '../../../lib/format';
-import type { Job } from '../api/get-jobs';
 import { JobActions } from './job-actions';
 import { formatTimeInState } from './job-format';
 import { JobSteps } from './job-progress';

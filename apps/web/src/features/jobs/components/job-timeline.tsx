@@ -1,6 +1,6 @@
+import type { TimelineEntry } from '@revloop/contract';
 import { Card } from '../../../components/ui/card';
 import { formatDateTime } from '../../../lib/format';
-import type { TimelineEntry } from '../api/get-job';
 
 /** Everything that happened to the job, newest first. */
 export function JobTimeline({ entries }: { entries: TimelineEntry[] }) {

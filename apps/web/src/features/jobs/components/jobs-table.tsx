@@ -10,6 +10,7 @@ import {
   type SortingState,
   type Updater,
 } from '@tanstack/react-table';
+import { type Job, JOB_SORT_KEYS, type JobSortKey } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { buttonClasses } from '../../../components/ui/button';
 import { Select } from '../../../components/ui/select';
@@ -20,7 +21,7 @@ import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { getJobsExportHref } from '../api/export-jobs';
-import { JOB_SORT_KEYS, useJobs, type Job, type JobSortKey } from '../api/get-jobs';
+import { useJobs } from '../api/get-jobs';
 import { formatTimeInState } from './job-format';
 import { PAGE_SIZES, tableParams, type JobsScreenState } from './job-list-params';
 import { JobStateBadge, StaleBadge } from './job-state-badge';
@@ -95,6 +96,7 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
   if (jobs.isError) return <Banner tone="bad">{errorMessage(jobs.error)}</Banner>;
   const meta = jobs.data?.meta;
 
+  const filtered = Boolean(state.q || state.tuner || state.dealer || state.package || state.customer || state.mine || state.state);
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
@@ -111,7 +113,7 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
         dense
         minWidthClass="min-w-[56rem]"
         caption={`Jobs, sorted by ${state.sort.replace('_', ' ')} ${state.dir === 'asc' ? 'ascending' : 'descending'}`}
-        emptyMessage={jobs.isPending ? 'Loading…' : 'No job matches the filters.'}
+        emptyMessage={jobs.isPending ? 'Loading…' : filtered ? 'No job matches the filters.' : 'No jobs yet: open one with "Open a job", or share your public page so customers start a tune themselves.'}
       />
       <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
         <label className="flex items-center gap-2 whitespace-nowrap">

@@ -1,7 +1,6 @@
+import type { SpecialRequests, UnitSystem } from '@revloop/contract';
 import { Card } from '../../../components/ui/card';
-import type { UnitSystem } from '../../auth/api/get-me';
 import { formatSpeed } from '../../vehicles/components/vehicle-units';
-import type { SpecialRequests } from '../api/get-jobs';
 
 /** One line per request the customer made, in plain words. */
 export function specialRequestLines(requests: SpecialRequests, units: UnitSystem): Array<{ label: string; value: string }> {

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Member } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getMembersQueryOptions, type Member } from './get-members';
+import { getMembersQueryOptions } from './get-members';
 
 /** A deactivated member can no longer sign in; their jobs and files stay. */
 export const deactivateMember = (memberId: string) => api.post<ItemResponse<Member>>(`/api/members/${encodeURIComponent(memberId)}/deactivate`);

@@ -1,4 +1,5 @@
 import { useMemo, useState } from 'react';
+import type { Member } from '@revloop/contract';
 import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
 import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
@@ -9,7 +10,6 @@ import { Select } from '../../../components/ui/select';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { errorMessage } from '../../../lib/form-errors';
 import { useDeactivateMember } from '../api/deactivate-member';
-import type { Member } from '../api/get-members';
 import { useReactivateMember } from '../api/reactivate-member';
 import { useUpdateMemberRole } from '../api/update-member-role';
 

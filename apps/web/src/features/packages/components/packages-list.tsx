@@ -3,6 +3,7 @@ import { formatMoney } from '@revloop/domain/billing';
 import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
+import { EmptyState } from '../../../components/ui/empty-state';
 import { errorMessage } from '../../../lib/form-errors';
 import type { Package } from '../api/get-packages';
 import { useSetPackageActive } from '../api/set-package-active';
@@ -25,6 +26,11 @@ export function PackagesList({ packages, currency, canEdit }: { packages: Packag
           {errorMessage(setActive.error)}
         </p>
       )}
+      {packages.length === 0 ? (
+        <EmptyState title="No packages yet">
+          {canEdit ? 'Add the first package: what it covers, its retail and dealer price and the rounds included. Jobs open for a package, and your public page lists them.' : 'The owner has not set up any packages yet.'}
+        </EmptyState>
+      ) : (
       <ScrollRegion label="Packages" className="rounded-lg border border-ink-200 bg-white">
         <table className="w-full min-w-[44rem] border-collapse text-left text-sm">
           <caption className="sr-only">Packages</caption>
@@ -74,6 +80,7 @@ export function PackagesList({ packages, currency, canEdit }: { packages: Packag
           </tbody>
         </table>
       </ScrollRegion>
+      )}
       <Dialog open={editing !== null} title={editing === 'new' ? 'New package' : 'Edit package'} onClose={() => setEditing(null)}>
         {editing !== null && <PackageForm pkg={editing === 'new' ? null : editing} currency={currency} onDone={() => setEditing(null)} onCancel={() => setEditing(null)} />}
       </Dialog>

@@ -1,8 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ShopFrontDoor } from '@revloop/contract';
 import type { ShopSettings } from '@revloop/domain/shops';
 import { api, type ItemResponse } from '../../../lib/api-client';
 
-export interface Shop {
+export interface Shop extends ShopFrontDoor {
   id: string;
   name: string;
   currency: string;

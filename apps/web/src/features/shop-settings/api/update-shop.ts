@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ShopFrontDoorPatch } from '@revloop/contract';
 import type { ShopSettings } from '@revloop/domain/shops';
 import { api, type ItemResponse } from '../../../lib/api-client';
 import { getShopQueryOptions, type Shop } from './get-shop';
 
-export interface ShopPatch {
+export interface ShopPatch extends ShopFrontDoorPatch {
   name?: string;
   settings?: Partial<ShopSettings>;
 }
@@ -12,5 +13,14 @@ export const updateShop = (patch: ShopPatch) => api.patch<ItemResponse<Shop>>('/
 
 export function useUpdateShop() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: updateShop, onSuccess: (response) => queryClient.setQueryData(getShopQueryOptions().queryKey, response) });
+  return useMutation({
+    mutationFn: updateShop,
+    onSuccess: (response) => {
+      queryClient.setQueryData(getShopQueryOptions().queryKey, response);
+      // The first-run checklist reads the same settings.
+      void queryClient.invalidateQueries({
+        queryKey: [...getShopQueryOptions().queryKey, 'setup'],
+      });
+    },
+  });
 }

@@ -8,7 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
 import { errorMessage, fieldErrorsFrom } from '../../../lib/form-errors';
 import { plainErrors } from '../../../lib/form-messages';
-import type { UnitSystem } from '../../auth/api/get-me';
+import type { UnitSystem } from '@revloop/contract';
 import { fieldId, flattenFieldErrors } from '../../jobs/components/intake-errors';
 import { IntakeVehicleFields } from '../../jobs/components/intake-vehicle-fields';
 import { useUpdateVehicle } from '../api/update-vehicle';

@@ -1,5 +1,5 @@
+import type { UnitSystem } from '@revloop/contract';
 import { kmhToMph } from '@revloop/domain/vehicles';
-import type { UnitSystem } from '../../auth/api/get-me';
 
 /** 1 in = 25.4 mm and 1 lb = 0.45359237 kg exactly (international yard and pound agreement, 1959). */
 const MM_PER_INCH = 25.4;

@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
+import type { DatalogDetail } from '@revloop/contract';
 import type { DatalogReport } from '@revloop/domain/datalog';
 import { PageHeader } from '../../../../components/layout/page-header';
 import { Banner } from '../../../../components/ui/banner';
@@ -8,7 +9,7 @@ import { Card } from '../../../../components/ui/card';
 import { PageSpinner } from '../../../../components/ui/spinner';
 import { TextLink } from '../../../../components/ui/text-link';
 import { paths } from '../../../../config/paths';
-import { datalogExportHref, revisionLabel, useDatalog, type DatalogDetail } from '../../../../features/datalogs/api/get-datalog';
+import { datalogExportHref, revisionLabel, useDatalog } from '../../../../features/datalogs/api/get-datalog';
 import { useJobDatalogs } from '../../../../features/datalogs/api/get-job-datalogs';
 import { Checklist, checksSummary } from '../../../../features/datalogs/components/checklist';
 import { CompareLogs } from '../../../../features/datalogs/components/compare-logs';

@@ -5,6 +5,7 @@ import { buttonClasses } from '../../../../components/ui/button';
 import { paths } from '../../../../config/paths';
 import { useSignedInMe } from '../../../../features/auth/api/get-me';
 import { CustomerPortal, DealerPortal } from '../../../../features/jobs/components/job-portal';
+import { SetupChecklist } from '../../../../features/onboarding/components/setup-checklist';
 import { JobsWorkspace } from '../../../../features/jobs/components/jobs-workspace';
 import { Link } from 'react-router-dom';
 import { RequireScreen } from '../require-screen';
@@ -36,6 +37,7 @@ function JobsScreen() {
   return (
     <>
       <PageHeader title="Jobs" description="Every vehicle's calibration work, from the stock read to dialed in. Stale jobs are marked." actions={openJob} />
+      {ability.can('read', 'ShopSettings') && <SetupChecklist />}
       <JobsWorkspace showMine={me.role === 'tuner'} />
     </>
   );

@@ -5,6 +5,7 @@ import { Banner } from '../../../../components/ui/banner';
 import { Card } from '../../../../components/ui/card';
 import { PageSpinner } from '../../../../components/ui/spinner';
 import { useShop } from '../../../../features/shop-settings/api/get-shop';
+import { PublicPageForm } from '../../../../features/shop-settings/components/public-page-form';
 import { ShopSettingsForm } from '../../../../features/shop-settings/components/shop-settings-form';
 import { errorMessage } from '../../../../lib/form-errors';
 import { RequireScreen } from '../require-screen';
@@ -15,18 +16,31 @@ function ShopSettings() {
   if (shop.isPending) return <PageSpinner label="Loading shop settings" />;
   if (shop.isError) return <Banner tone="bad">{errorMessage(shop.error)}</Banner>;
   const data = shop.data.data;
+  const canEdit = ability.can('update', 'ShopSettings');
   return (
-    <Card
-      title="Shop"
-      description={
-        <span className="inline-flex flex-wrap items-center gap-2">
-          {data.status === 'active' ? <Badge tone="ok">Active</Badge> : <Badge tone="warn">Suspended</Badge>}
-          <span>Prices in {data.currency}.</span>
-        </span>
-      }
-    >
-      <ShopSettingsForm shop={data} canEdit={ability.can('update', 'ShopSettings')} />
-    </Card>
+    <div className="flex flex-col gap-6">
+      <Card
+        title="Shop"
+        description={
+          <span className="inline-flex flex-wrap items-center gap-2">
+            {data.status === 'active' ? (
+              <Badge tone="ok">Active</Badge>
+            ) : (
+              <Badge tone="warn">Suspended</Badge>
+            )}
+            <span>Prices in {data.currency}.</span>
+          </span>
+        }
+      >
+        <ShopSettingsForm shop={data} canEdit={canEdit} />
+      </Card>
+      <Card
+        title="Public page"
+        description="A page anyone can open: your packages at retail prices and a Start a tune button."
+      >
+        <PublicPageForm shop={data} canEdit={canEdit} />
+      </Card>
+    </div>
   );
 }
 

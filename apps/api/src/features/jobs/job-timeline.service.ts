@@ -1,5 +1,5 @@
-import { listJobFiles, type AuditEventListRow, type Db, type JobListRow } from '@revloop/db';
-import { asSubject } from '@revloop/domain/auth';
+import { listAuditEvents, listJobFiles, type Db, type JobListRow } from '@revloop/db';
+import { SYSTEM_ACTOR_NAME, asSubject } from '@revloop/domain/auth';
 import { JOB_STATE_LABELS, type JobState } from '@revloop/domain/jobs';
 import type { AuthContext } from '../../http/auth-context';
 import { canSeeFile } from '../files/file.service';
@@ -15,9 +15,11 @@ const TIMELINE_TEXT: Record<string, (d: Record<string, unknown>) => string> = {
 /**
  * The job's audit trail as this viewer may see it, newest first: events about a file they may not see yet (a
  * revision not sent) are left out by the files list's own rule, and a dealer debit loses its wholesale amount
- * for anyone who may not read that dealer's ledger (the dealer's customers).
+ * for anyone who may not read that dealer's ledger (the dealer's customers). Events with no person behind them are
+ * the system actor's, shown as Revloop.
  */
-export async function timelineFor(db: Db, auth: AuthContext & { shop: { id: string } }, job: JobListRow, events: AuditEventListRow[]) {
+export async function timelineFor(db: Db, auth: AuthContext & { shop: { id: string } }, job: JobListRow) {
+  const events = await listAuditEvents(db, auth.shop.id, { subjectType: 'Job', subjectId: job.id, limit: 500 });
   const files = new Map((await listJobFiles(db, auth.shop.id, job.id)).map((row) => [row.id, row]));
   const mayReadLedger = job.dealer_id !== null && auth.ability.can('read', asSubject('Ledger', { shopId: job.shop_id, dealerId: job.dealer_id }));
   return events
@@ -31,7 +33,7 @@ export async function timelineFor(db: Db, auth: AuthContext & { shop: { id: stri
         e.action === 'ledger.job_debit' && !mayReadLedger
           ? `Paid by ${job.dealer_name ?? 'the dealer'}`
           : (TIMELINE_TEXT[e.action]?.(details) ?? (typeof details.text === 'string' ? details.text : e.action));
-      return [{ id: e.id, at: e.created_at, action: e.action, actor: e.actor_name, text }];
+      return [{ id: e.id, at: e.created_at, action: e.action, actor: e.actor_user_id === null ? SYSTEM_ACTOR_NAME : e.actor_name, text }];
     })
     .reverse();
 }

@@ -1,0 +1,123 @@
+import {
+  datalogComparisonResponseSchema,
+  datalogDetailResponseSchema,
+  datalogMappingResponseSchema,
+  datalogSeriesResponseSchema,
+  dealerBalancesResponseSchema,
+  dealerLedgerResponseSchema,
+  diffHexResponseSchema,
+  fileDiffResponseSchema,
+  jobDatalogsResponseSchema,
+  jobDetailResponseSchema,
+  jobFilesResponseSchema,
+  jobListResponseSchema,
+  jobMessagesResponseSchema,
+  jobPaymentsResponseSchema,
+  meSessionResponseSchema,
+  membersResponseSchema,
+  revenueResponseSchema,
+  subscriptionResponseSchema,
+  verificationResponseSchema,
+  type JobSortKey,
+  type Verification,
+} from '@revloop/contract';
+import type { JobSort } from '@revloop/db';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, expectTypeOf, it } from 'vitest';
+import type { z } from 'zod';
+import type { Verification as ApiVerification } from './features/files/file-verify.service';
+import { createDemoTestApp } from './testing/demo-fixture';
+import { signIn } from './testing/test-app';
+
+// Every answer below is what the web reads; each must parse with the contract schema the web is typed by.
+let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let owner: Awaited<ReturnType<typeof signIn>>;
+beforeAll(async () => {
+  t = await createDemoTestApp();
+  owner = await signIn(t.app, 'owner@kestrel.test');
+});
+afterAll(async () => {
+  await t.close();
+});
+
+/** GETs `path` as `agent`, expects 200 and a body the schema accepts (the failing paths are printed). */
+async function expectParses(agent: typeof owner, path: string, schema: z.ZodType) {
+  const res = await agent.get(path);
+  expect(res.status, `${path}: ${JSON.stringify(res.body)}`).toBe(200);
+  const parsed = schema.safeParse(res.body);
+  expect(parsed.success ? [] : parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`), path).toEqual([]);
+  return res.body as unknown;
+}
+
+describe('the API answers in the shapes of @revloop/contract', () => {
+  it('keeps the list sort keys and the verification shape of the API', () => {
+    // The repository orders by these keys and the contract accepts them: the two lists must be the same set.
+    expectTypeOf<JobSortKey>().toEqualTypeOf<JobSort>();
+    expectTypeOf<Verification>().toEqualTypeOf<ApiVerification>();
+  });
+
+  it('jobs: list, detail and messages', async () => {
+    const list = (await expectParses(owner, '/api/jobs?pageSize=200', jobListResponseSchema)) as { data: { id: string }[] };
+    expect(list.data.length).toBeGreaterThan(0);
+    for (const sort of ['number', 'customer', 'vehicle'] satisfies JobSortKey[]) await expectParses(owner, `/api/jobs?sort=${sort}`, jobListResponseSchema);
+    for (const { id } of list.data.slice(0, 10)) {
+      await expectParses(owner, `/api/jobs/${id}`, jobDetailResponseSchema);
+      await expectParses(owner, `/api/jobs/${id}/messages`, jobMessagesResponseSchema);
+    }
+    const customer = await signIn(t.app, 'customer@kestrel.test');
+    await expectParses(customer, '/api/jobs', jobListResponseSchema);
+  });
+
+  it('files: list, verification, diff and hex rows', async () => {
+    const pair = await t.db
+      .selectFrom('calibration_files as a')
+      .innerJoin('calibration_files as b', (j) => j.onRef('a.job_id', '=', 'b.job_id').onRef('a.module', '=', 'b.module').onRef('a.id', '<', 'b.id'))
+      .innerJoin('jobs', 'jobs.id', 'a.job_id')
+      .select(['a.id as a', 'b.id as b', 'a.job_id as jobId'])
+      .where('jobs.shop_id', '=', t.ids.kestrel.shopId)
+      .executeTakeFirstOrThrow();
+    await expectParses(owner, `/api/jobs/${pair.jobId}/files`, jobFilesResponseSchema);
+    await expectParses(owner, `/api/files/${pair.a}/verify`, verificationResponseSchema);
+    await expectParses(owner, `/api/files/${pair.b}/verify`, verificationResponseSchema);
+    await expectParses(owner, `/api/files/${pair.a}/diff/${pair.b}`, fileDiffResponseSchema);
+    await expectParses(owner, `/api/files/${pair.a}/diff/${pair.b}/hex?range=0-256`, diffHexResponseSchema);
+  });
+
+  it('datalogs: list, detail with report, series, mapping and comparison', async () => {
+    const logs = await t.db
+      .selectFrom('datalogs')
+      .innerJoin('jobs', 'jobs.id', 'datalogs.job_id')
+      .select(['datalogs.id', 'datalogs.job_id as jobId'])
+      .where('datalogs.status', '=', 'ready')
+      .where('jobs.shop_id', '=', t.ids.kestrel.shopId)
+      .execute();
+    const [first] = logs;
+    if (!first) throw new Error('the demo has no ready log');
+    await expectParses(owner, `/api/jobs/${first.jobId}/datalogs`, jobDatalogsResponseSchema);
+    await expectParses(owner, `/api/datalogs/${first.id}`, datalogDetailResponseSchema);
+    await expectParses(owner, `/api/datalogs/${first.id}/series?channels=rpm,map`, datalogSeriesResponseSchema);
+    await expectParses(owner, `/api/datalogs/${first.id}/series?channels=rpm,map&sampling=rows`, datalogSeriesResponseSchema);
+    await expectParses(owner, `/api/datalogs/${first.id}/mapping`, datalogMappingResponseSchema);
+    const other = logs.find((l) => l.jobId === first.jobId && l.id !== first.id);
+    if (other) await expectParses(owner, `/api/datalogs/${first.id}/compare/${other.id}`, datalogComparisonResponseSchema);
+  });
+
+  it('billing: subscription, job payments, dealer ledger and balances, platform revenue', async () => {
+    await expectParses(owner, '/api/billing/subscription', subscriptionResponseSchema);
+    const balances = (await expectParses(owner, '/api/billing/dealer-balances', dealerBalancesResponseSchema)) as { data: { id: string }[] };
+    for (const { id } of balances.data) await expectParses(owner, `/api/dealers/${id}/ledger`, dealerLedgerResponseSchema);
+    const paid = await t.db.selectFrom('payments').select('job_id').where('shop_id', '=', t.ids.kestrel.shopId).executeTakeFirst();
+    const jobId = paid?.job_id ?? t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId)!.id;
+    await expectParses(owner, `/api/billing/jobs/${jobId}/payments`, jobPaymentsResponseSchema);
+    const admin = await signIn(t.app, 'admin@revloop.test');
+    await expectParses(admin, '/api/admin/revenue', revenueResponseSchema);
+  });
+
+  it('members and the session', async () => {
+    await expectParses(owner, '/api/members', membersResponseSchema);
+    for (const email of ['owner@kestrel.test', 'dealer@kestrel.test', 'customer@kestrel.test', 'admin@revloop.test']) {
+      await expectParses(await signIn(t.app, email), '/api/me/session', meSessionResponseSchema);
+    }
+    await expectParses(request.agent(t.app), '/api/me/session', meSessionResponseSchema);
+  });
+});

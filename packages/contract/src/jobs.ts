@@ -1,0 +1,72 @@
+import { logRequestSchema } from '@revloop/domain/datalog';
+import { JOB_STATES, specialRequestsSchema, type AvailableTransition } from '@revloop/domain/jobs';
+import { z } from 'zod';
+import { itemOf, joinedRefSchema, listOf, listWithMeta, personRefSchema, timestamp } from './envelope';
+
+/** Sort keys of `GET /api/jobs` and its CSV export (the repository orders by each; the API test checks they agree). */
+export const JOB_SORT_KEYS = ['number', 'created', 'updated', 'state_changed', 'state', 'customer', 'vehicle', 'round'] as const;
+export type JobSortKey = (typeof JOB_SORT_KEYS)[number];
+
+const stateList = z
+  .string()
+  .transform((s) => s.split(',').filter(Boolean))
+  .pipe(z.array(z.enum(JOB_STATES)));
+
+/** Query string of `GET /api/jobs` and `GET /api/jobs/export.csv`. */
+export const jobListQuerySchema = z.object({
+  state: stateList.optional(),
+  open: z.enum(['true', 'false']).optional(),
+  tuner: z.string().min(1).optional(),
+  dealer: z.string().min(1).optional(),
+  package: z.string().min(1).optional(),
+  customer: z.string().min(1).optional(),
+  q: z.string().trim().max(100).optional(),
+  mine: z.enum(['true', 'false']).optional(),
+  sort: z.enum(JOB_SORT_KEYS).default('updated'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+export type JobListQuery = z.infer<typeof jobListQuerySchema>;
+
+export const jobSchema = z.object({
+  id: z.string(),
+  number: z.number(),
+  state: z.enum(JOB_STATES),
+  stateLabel: z.string(),
+  heldFrom: z.enum(JOB_STATES).nullable(),
+  round: z.number(),
+  vehicle: z.object({ id: z.string(), description: z.string(), vin: z.string(), modelYear: z.number() }),
+  customer: z.object({ id: z.string(), name: z.string(), email: z.string() }),
+  dealer: joinedRefSchema.nullable(),
+  package: personRefSchema,
+  tuner: joinedRefSchema.nullable(),
+  goals: z.string(),
+  specialRequests: specialRequestsSchema,
+  logRequest: logRequestSchema,
+  facts: z.object({ hasStockRead: z.boolean(), hasRevisionForRound: z.boolean(), hasLogForRound: z.boolean() }),
+  stateChangedAt: timestamp,
+  hoursInState: z.number(),
+  stale: z.boolean(),
+  nextStep: z.string(),
+  // The state machine computes the moves; the contract only carries them.
+  transitions: z.array(z.custom<AvailableTransition>()),
+  createdAt: timestamp,
+  updatedAt: timestamp,
+});
+export type Job = z.infer<typeof jobSchema>;
+export type SpecialRequests = Job['specialRequests'];
+
+export const jobListResponseSchema = listWithMeta(jobSchema, z.object({ total: z.number(), page: z.number(), pageSize: z.number(), pageCount: z.number() }));
+export type JobListResponse = z.infer<typeof jobListResponseSchema>;
+
+export const timelineEntrySchema = z.object({ id: z.string(), at: timestamp, action: z.string(), actor: z.string().nullable(), text: z.string() });
+export type TimelineEntry = z.infer<typeof timelineEntrySchema>;
+
+export const jobDetailSchema = jobSchema.extend({ timeline: z.array(timelineEntrySchema) });
+export type JobDetail = z.infer<typeof jobDetailSchema>;
+export const jobDetailResponseSchema = itemOf(jobDetailSchema);
+
+export const jobMessageSchema = z.object({ id: z.string(), body: z.string(), author: personRefSchema, mine: z.boolean(), createdAt: timestamp });
+export type JobMessage = z.infer<typeof jobMessageSchema>;
+export const jobMessagesResponseSchema = listOf(jobMessageSchema);
