@@ -7,7 +7,7 @@ import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob } from '../jobs/job.service';
 import { readPlausibilityForJob } from '../vehicles/read-plausibility.service';
 import { verifyFileLink } from './file-links';
-import { downloadNameOf, fileLabel, fileRowToApi, type ApiCalibrationFile } from './file.presenter';
+import { downloadNameOf, fileLabel, fileRowToApi } from './file.presenter';
 
 type ShopScoped = AuthContext & { shop: { id: string } };
 
