@@ -15,14 +15,18 @@ export type CustomerListQuery = z.input<typeof customerListQuerySchema>;
 
 const ref = z.object({ id: z.string(), name: z.string() });
 
-/** One row of the customer list. */
-export const customerListItemSchema = z.object({
+/** Who the customer is: the part the list and the customer page share. */
+const customerSchema = z.object({
   id: z.string(),
   name: z.string(),
   email: z.string(),
   status: z.enum(['active', 'deactivated']),
   dealer: ref.nullable(),
   since: z.string(),
+});
+
+/** One row of the customer list. */
+export const customerListItemSchema = customerSchema.extend({
   vehicleCount: z.number().int(),
   /** Up to three vehicle descriptions joined by " · ". */
   vehicles: z.string().nullable(),
@@ -42,13 +46,7 @@ export const customerListResponseSchema = z.object({
 export type CustomerListResponse = z.infer<typeof customerListResponseSchema>;
 
 /** `GET /api/customers/:id`: the customer with payments and the latest messages (jobs come from `GET /api/jobs?customer=`). */
-export const customerDetailSchema = z.object({
-  id: z.string(),
-  name: z.string(),
-  email: z.string(),
-  status: z.enum(['active', 'deactivated']),
-  dealer: ref.nullable(),
-  since: z.string(),
+export const customerDetailSchema = customerSchema.extend({
   currency: z.string(),
   paidMinor: z.number().int(),
   vehicles: z.array(z.object({ id: z.string(), vin: z.string(), modelYear: z.number().int(), description: z.string(), engineFamily: z.string() })),

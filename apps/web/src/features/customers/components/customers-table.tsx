@@ -14,10 +14,9 @@ import {
 import { CUSTOMER_SORT_KEYS, type CustomerSortKey } from '@revloop/contract';
 import { formatMoney } from '@revloop/domain/billing';
 import { Banner } from '../../../components/ui/banner';
-import { buttonClasses } from '../../../components/ui/button';
 import { SearchInput } from '../../../components/ui/search-input';
-import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
+import { TablePager } from '../../../components/ui/table-pager';
 import { TableView } from '../../../components/ui/table-view';
 import { textLinkClasses } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
@@ -115,28 +114,7 @@ export function CustomersTable() {
         caption={`Customers, sorted by ${sort.sort.replace('_', ' ')} ${sort.dir === 'asc' ? 'ascending' : 'descending'}`}
         emptyMessage={empty}
       />
-      <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
-        <label className="flex items-center gap-2 whitespace-nowrap">
-          Rows per page
-          <Select
-            className="w-20"
-            value={String(pagination.pageSize)}
-            onChange={(event) => table.setPageSize(Number(event.target.value))}
-            options={PAGE_SIZES.map((size) => ({ value: String(size), label: String(size) }))}
-          />
-        </label>
-        <div className="flex items-center gap-2">
-          <button type="button" className={buttonClasses('secondary', 'sm')} disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
-            Previous
-          </button>
-          <span>
-            Page {pagination.pageIndex + 1} of {Math.max(1, table.getPageCount())}
-          </span>
-          <button type="button" className={buttonClasses('secondary', 'sm')} disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
-            Next
-          </button>
-        </div>
-      </nav>
+      <TablePager table={table} page={pagination.pageIndex + 1} pageSize={pagination.pageSize} pageSizes={PAGE_SIZES} />
     </div>
   );
 }
