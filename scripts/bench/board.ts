@@ -1,6 +1,6 @@
 // Board benchmark: one shop with 10,000 jobs and about 50,000 audit events, served by the real server in a child
 // process on loopback, loaded with autocannon. Measures the board list, the job page's requests, and /api/me while
-// the board is loaded. Run: npx tsx scripts/bench/board.ts [jobs]
+// the board is loaded, and the Customers list over the same shop's 2,000 customers. Run: npx tsx scripts/bench/board.ts [jobs]
 // With BENCH_CPU_PROF=<folder> the server writes a V8 CPU profile there when it stops (open it in Chrome DevTools).
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
@@ -27,6 +27,11 @@ const TARGET_ME_P99_MS = 25;
 const BOARD_QUERY = '/api/jobs?open=true&sort=state_changed&dir=asc&pageSize=200';
 /** The table view's first page (tableParams with the screen defaults). */
 const TABLE_QUERY = '/api/jobs?sort=updated&dir=desc&pageSize=25';
+
+/** The Customers screen (apps/web/src/features/customers): first page by name, by money paid, and a search by VIN. */
+const CUSTOMER_QUERIES = ['/api/customers?sort=name&pageSize=25', '/api/customers?sort=paid&dir=desc&pageSize=25', '/api/customers?q=1rlbench00000&pageSize=25'];
+/** A list page a person waits for: aggregating every job per request, it is slower than the board, so its own target. */
+const TARGET_CUSTOMERS_P99_MS = 200;
 
 /** Invented history: mostly finished work, a few hundred open jobs, five audit events per job. */
 export async function addHistory(db: Db, shop: SeededShop, jobCount: number, now: Date): Promise<{ events: number }> {
@@ -242,6 +247,10 @@ async function main(): Promise<void> {
       })),
     });
     figures.push(report(`job page     ${pagePaths.length} requests per page view`, jobPage, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
+
+    for (const query of CUSTOMER_QUERIES) {
+      figures.push(report(`customers    GET ${query}`, await run({ url: base + query, headers }), { p99: TARGET_CUSTOMERS_P99_MS }));
+    }
 
     // /api/me from one signed-in browser while the board list is loaded at the target rate.
     const [board, me] = await Promise.all([

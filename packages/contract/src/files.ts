@@ -2,6 +2,7 @@ import type { AddressRange, CalibrationFormat, DiffRange, HexViewRow } from '@re
 import { PACKAGE_MODULES } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import { itemOf, listWithMeta, personRefSchema, timestamp } from './envelope';
+import { readPlausibilitySchema } from './vehicles';
 
 /** A file's control unit: those a package covers (SAE J1930 names), or another one. */
 export const CALIBRATION_MODULES = [...PACKAGE_MODULES, 'other'] as const;
@@ -58,6 +59,8 @@ export const calibrationFileSchema = z.object({
   ranges: z.array(addressRangeSchema),
   uploadedBy: personRefSchema,
   createdAt: timestamp,
+  /** Reads in the job's file list, for those who revise: the image size against the engine family's expected sizes. */
+  plausibility: readPlausibilitySchema.nullable().optional(),
 });
 export type CalibrationFile = z.infer<typeof calibrationFileSchema>;
 

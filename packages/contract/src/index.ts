@@ -9,3 +9,5 @@ export * from './me';
 export * from './public';
 export * from './reports';
 export * from './rentals';
+export * from './customers';
+export * from './vehicles';

@@ -41,3 +41,4 @@ export * from './reports/reports.table';
 export * from './reports/reports.repository';
 export * from './rentals/rental.table';
 export * from './rentals/rental.repository';
+export * from './customers/customer.repository';

@@ -40,6 +40,7 @@ export const router = createBrowserRouter([
           { path: paths.vehicles.path, lazy: screen(() => import('./routes/app/vehicles/list'), (m) => m.VehiclesRoute) },
           { path: paths.vehicle.path, lazy: screen(() => import('./routes/app/vehicles/detail'), (m) => m.VehicleRoute) },
           { path: paths.customers.path, lazy: screen(() => import('./routes/app/customers/list'), (m) => m.CustomersRoute) },
+          { path: paths.customer.path, lazy: screen(() => import('./routes/app/customers/detail'), (m) => m.CustomerRoute) },
           { path: paths.team.path, lazy: screen(() => import('./routes/app/team'), (m) => m.TeamRoute) },
           { path: paths.reports.path, lazy: screen(() => import('./routes/app/reports'), (m) => m.ReportsRoute) },
           { path: paths.dealers.list.path, lazy: screen(() => import('./routes/app/dealers/list'), (m) => m.DealersRoute) },

@@ -22,6 +22,7 @@ export const paths = {
   vehicles: { path: '/vehicles', getHref: () => '/vehicles' },
   vehicle: { path: '/vehicles/:vehicleId', getHref: (vehicleId: string) => `/vehicles/${encodeURIComponent(vehicleId)}` },
   customers: { path: '/customers', getHref: () => '/customers' },
+  customer: { path: '/customers/:customerId', getHref: (customerId: string) => `/customers/${encodeURIComponent(customerId)}` },
   team: { path: '/team', getHref: () => '/team' },
   reports: { path: '/reports', getHref: () => '/reports' },
   dealers: {

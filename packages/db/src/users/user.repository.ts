@@ -66,7 +66,7 @@ export interface MemberListRow extends MembershipRow {
 export async function listMembers(
   db: Db,
   shopId: string,
-  filter: { role?: ShopRole; dealerId?: string } = {},
+  filter: { role?: ShopRole; roles?: readonly ShopRole[]; dealerId?: string } = {},
 ): Promise<MemberListRow[]> {
   let query = db
     .selectFrom('memberships')
@@ -76,6 +76,7 @@ export async function listMembers(
     .select(['users.name', 'users.email', 'users.last_sign_in_at', 'dealers.name as dealer_name'])
     .where('memberships.shop_id', '=', shopId);
   if (filter.role) query = query.where('memberships.role', '=', filter.role);
+  if (filter.roles) query = query.where('memberships.role', 'in', filter.roles);
   if (filter.dealerId) query = query.where('memberships.dealer_id', '=', filter.dealerId);
   return query.orderBy('users.name').execute();
 }

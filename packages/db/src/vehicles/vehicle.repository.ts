@@ -56,3 +56,9 @@ export async function updateVehicle(
 ): Promise<VehicleRow | undefined> {
   return db.updateTable('vehicles').set(patch).where('shop_id', '=', shopId).where('id', '=', id).returningAll().executeTakeFirst();
 }
+
+/** The ids of the vehicle's jobs, oldest first (a vehicle has a handful). */
+export async function listVehicleJobIds(db: Db, shopId: string, vehicleId: string): Promise<string[]> {
+  const rows = await db.selectFrom('jobs').select('id').where('shop_id', '=', shopId).where('vehicle_id', '=', vehicleId).orderBy('number').execute();
+  return rows.map((r) => r.id);
+}

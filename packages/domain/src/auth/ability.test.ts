@@ -24,7 +24,9 @@ const ownRow = (shopId: string, subject: SubjectName) =>
     ? { id: shopId }
     : subject === 'Dealer'
       ? { id: D, shopId }
-      : { shopId, dealerId: D, customerUserId: ME, ownerUserId: ME, assignedTunerId: ME };
+      : subject === 'Member'
+        ? { shopId, role: 'tuner' }
+        : { shopId, dealerId: D, customerUserId: ME, ownerUserId: ME, assignedTunerId: ME };
 
 /**
  * Expected permissions on an own-shop row, written out by hand from the product's role table (DESIGN.md),

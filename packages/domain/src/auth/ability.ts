@@ -7,7 +7,7 @@ import {
   type MongoQuery,
 } from '@casl/ability';
 import { OPEN_STATES } from '../jobs/job-states';
-import type { Actor } from './roles';
+import { STAFF_ROLES, type Actor } from './roles';
 
 /**
  * The one definition of who may do what. The API checks it on every route; the web hides what it forbids.
@@ -117,6 +117,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   if (!shopId || !actor.role) return build();
   const me = actor.userId;
   const inShop = { shopId };
+  // Team is staff only: a customer's membership is never a Member row to read or change, nor a role to change one to.
+  const staffMember = { shopId, role: { $in: [...STAFF_ROLES] } };
 
   can('read', 'Shop', { id: shopId });
   can('read', 'Package', inShop);
@@ -125,7 +127,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     case 'owner':
       can('update', 'Shop', { id: shopId });
       can(CRUD, 'ShopSettings', inShop);
-      can(['read', 'invite', 'update', 'delete'], ['Member', 'Invitation'], inShop);
+      can(['read', 'invite', 'update', 'delete'], 'Member', staffMember);
+      can(['read', 'invite', 'update', 'delete'], 'Invitation', inShop);
       can('create', 'Invitation', inShop);
       can(CRUD, ['Dealer', 'Customer', 'Vehicle', 'Package', 'Message', 'Payment', 'Ledger', 'Subscription'], inShop);
       can('read', 'AuditEvent', inShop);
@@ -139,7 +142,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     case 'tuner': {
       // A tuner works on jobs assigned to them or not yet assigned.
       const inReach = { shopId, assignedTunerId: { $in: [me, null] } };
-      can('read', 'Member', inShop);
+      can('read', 'Member', staffMember);
       can('read', 'Dealer', inShop);
       can(['read', 'create', 'update'], ['Customer', 'Vehicle'], inShop);
       can('create', 'Job', inShop);

@@ -1,6 +1,8 @@
 /** Roles a member holds in one shop. Platform admins hold no shop role; see `Actor.platformAdmin`. */
 export const SHOP_ROLES = ['owner', 'tuner', 'dealer', 'customer'] as const;
 export type ShopRole = (typeof SHOP_ROLES)[number];
+/** The roles that work in the shop (Team); customers are the shop's clients, listed under Customers. */
+export const STAFF_ROLES = ['owner', 'tuner', 'dealer'] as const satisfies readonly ShopRole[];
 
 export const ROLE_LABELS: Record<ShopRole | 'platform_admin', string> = {
   platform_admin: 'Platform admin',

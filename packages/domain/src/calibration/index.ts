@@ -15,3 +15,5 @@ export { revisionDownloadName, safeUploadName, slug } from './file-names.rules';
 export type { RevisionNameParts } from './file-names.rules';
 export { generateCalibrationImage, reviseImage } from './demo-image';
 export type { DemoImageOptions, ReviseOptions } from './demo-image';
+export { readPlausibility } from './read-plausibility';
+export type { ReadPlausibility } from './read-plausibility';

@@ -3,7 +3,7 @@ import { logRequestFor, parseShopSettings } from './shop-settings.schemas';
 
 describe('shop settings', () => {
   it('fills defaults and survives broken JSON', () => {
-    expect(parseShopSettings('{}')).toEqual({ uploadLimitMiB: 16, timeZone: 'UTC', holdUntilPaid: false, logRequestDefaults: {}, analysis: {} });
+    expect(parseShopSettings('{}')).toEqual({ uploadLimitMiB: 16, timeZone: 'UTC', holdUntilPaid: false, logRequestDefaults: {}, imageSizes: {}, analysis: {} });
     expect(parseShopSettings('not json').uploadLimitMiB).toBe(16);
   });
 

@@ -26,6 +26,10 @@ export const shopSettingsSchema = z.object({
   holdUntilPaid: z.boolean().default(false),
   /** Default log requests by engine family (free text such as "v8" or "2.0 turbo i4"), matched case-insensitively. */
   logRequestDefaults: z.record(z.string().trim().min(1).max(80), logRequestSchema).default({}),
+  /** Calibration image sizes (bytes) the shop expects per engine family, matched like logRequestDefaults; a read of another size is flagged. */
+  imageSizes: z
+    .record(z.string().trim().min(1).max(80), z.array(z.number().int().min(1).max(256 * 1024 * 1024)).min(1).max(16))
+    .default({}),
   /**
    * Log-check thresholds the shop may tune; anything left out uses DEFAULT_ANALYSIS_SETTINGS, whose sources are
    * given there (warm coolant 80 °C and pedal on the floor at 95 % are common practice [CP]).
@@ -62,6 +66,12 @@ export function parseShopSettings(json: string): ShopSettings {
 }
 
 const familyKey = (family: string) => family.toLowerCase().replace(/[^a-z0-9]/g, '');
+
+/** The image sizes the shop expects for this engine family, or undefined when it has set none. */
+export function expectedImageSizesFor(settings: ShopSettings, engineFamily: string): number[] | undefined {
+  const key = familyKey(engineFamily);
+  return Object.entries(settings.imageSizes).find(([family]) => familyKey(family) === key)?.[1];
+}
 
 /** The shop's own default for this engine family, else the built-in one for the round. */
 export function logRequestFor(settings: ShopSettings, engineFamily: string, round = 1): LogRequest {

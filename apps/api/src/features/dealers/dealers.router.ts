@@ -1,6 +1,6 @@
 import { Router } from 'express';
-import { findDealer, insertDealer, listDealers, listMembers, newId, type DealerRow } from '@revloop/db';
-import { asSubject, emailSchema } from '@revloop/domain/auth';
+import { countJobs, dealerBalance, findDealer, insertDealer, listDealers, listMembers, newId, type DealerRow } from '@revloop/db';
+import { asSubject, emailSchema, jobScopeFor } from '@revloop/domain/auth';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
@@ -63,10 +63,18 @@ export function createDealersRouter(deps: AppDeps): Router {
     const dealer = await findDealer(db, auth.shop.id, req.params.id);
     authorizeRow(auth, 'read', 'Dealer', dealer && { id: dealer.id, shopId: dealer.shop_id });
     const users = await listMembers(db, auth.shop.id, { role: 'dealer', dealerId: dealer!.id });
+    const scope = jobScopeFor(auth.actor);
+    const canReadLedger = auth.ability.can('read', asSubject('Ledger', { shopId: auth.shop.id, dealerId: dealer!.id }));
     res.json({
       data: {
         ...dealerRowToDealer(dealer!),
         users: users.map((u) => ({ id: u.id, name: u.name, email: u.email, status: u.status })),
+        // The statement itself is GET /api/dealers/:id/ledger; the jobs are GET /api/jobs?dealer=:id.
+        balance: canReadLedger ? { balanceMinor: await dealerBalance(db, auth.shop.id, dealer!.id), currency: auth.shop.currency } : null,
+        jobs: {
+          open: await countJobs(db, auth.shop.id, scope, { dealerId: dealer!.id, open: true }),
+          total: await countJobs(db, auth.shop.id, scope, { dealerId: dealer!.id }),
+        },
       },
     });
   });

@@ -5,8 +5,9 @@ import type { AppDeps } from '../../context';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob } from '../jobs/job.service';
+import { readPlausibilityForJob } from '../vehicles/read-plausibility.service';
 import { verifyFileLink } from './file-links';
-import { downloadNameOf, fileLabel, fileRowToApi, type ApiCalibrationFile } from './file.presenter';
+import { downloadNameOf, fileLabel, fileRowToApi } from './file.presenter';
 
 type ShopScoped = AuthContext & { shop: { id: string } };
 
@@ -34,9 +35,12 @@ export async function loadFile(db: Db, auth: ShopScoped, fileId: string) {
 }
 
 /** One job's files filtered by the File rules: a job holds a handful of files, so the rule runs on each row. */
-export async function listVisibleFiles(db: Db, auth: ShopScoped, job: JobListRow): Promise<ApiCalibrationFile[]> {
+export async function listVisibleFiles(db: Db, auth: ShopScoped, job: JobListRow) {
   const rows = await listJobFiles(db, auth.shop.id, job.id);
-  return rows.filter((row) => canSeeFile(auth, row, job)).map((row) => fileRowToApi(row, job));
+  // A read whose size fits none the shop expects for the engine family is flagged to those who revise (a warning only).
+  const plausibility = await readPlausibilityForJob(db, auth.shop, job);
+  const revises = auth.ability.can('upload_revision', asSubject('Job', jobSubject(job)));
+  return rows.filter((row) => canSeeFile(auth, row, job)).map((row) => ({ ...fileRowToApi(row, job), plausibility: revises ? plausibility(row) : null }));
 }
 
 /** What this viewer may do with the job's files, so the web shows only the forms that will work. */

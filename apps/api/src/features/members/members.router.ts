@@ -10,6 +10,7 @@ import {
 } from '@revloop/db';
 import { changeRoleSchema, type Member } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
+import { asSubject, STAFF_ROLES } from '@revloop/domain/auth';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
@@ -37,7 +38,7 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
 
   async function loadForChange(auth: AuthContext & { shop: { id: string } }, id: string): Promise<MembershipRow> {
     const row = await findMembership(db, auth.shop.id, id);
-    authorizeRow(auth, 'update', 'Member', row && { shopId: row.shop_id });
+    authorizeRow(auth, 'update', 'Member', row && { shopId: row.shop_id, role: row.role });
     if (row!.user_id === auth.user.id) throw new DomainError('validation', 'You cannot change your own membership.');
     return row!;
   }
@@ -49,7 +50,7 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
   }
 
   const respond = async (shopId: string, id: string) => {
-    const rows = await listMembers(db, shopId);
+    const rows = await listMembers(db, shopId, { roles: STAFF_ROLES });
     const row = rows.find((r) => r.id === id);
     return { data: row ? memberRowToMember(row) : null };
   };
@@ -57,7 +58,7 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
   router.get('/', async (req, res) => {
     const auth = requireShop(req);
     authorize(auth, 'read', 'Member');
-    const rows = await listMembers(db, auth.shop.id);
+    const rows = await listMembers(db, auth.shop.id, { roles: STAFF_ROLES });
     res.json({ data: rows.map(memberRowToMember), meta: { total: rows.length } });
   });
 
@@ -65,6 +66,9 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
     const auth = requireShop(req);
     const row = await loadForChange(auth, req.params.id);
     const input = parseInput(changeRoleSchema, req.body);
+    if (!auth.ability.can('update', asSubject('Member', { shopId: auth.shop.id, role: input.role }))) {
+      throw new DomainError('validation', 'Team roles are owner, tuner and dealer: a staff member cannot be made a customer, nor a customer staff.');
+    }
     if (input.role !== 'owner') await assertNotLastOwner(auth.shop.id, row);
     if (takesSeat(input.role) && !takesSeat(row.role) && row.status === 'active') await assertSeatFor(db, auth.shop.id, clock.now());
     const dealerId = input.role === 'dealer' || input.role === 'customer' ? (input.dealerId ?? (input.role === 'customer' ? row.dealer_id : null)) : null;

@@ -8,6 +8,7 @@ import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { recordAudit } from '../audit/audit.service';
+import { vehicleHistory } from './vehicle-history.service';
 
 const scopeOf = (actor: Actor): VehicleScope =>
   actor.role === 'customer' ? { kind: 'owner', userId: actor.userId } : actor.role === 'dealer' && actor.dealerId ? { kind: 'dealer', dealerId: actor.dealerId } : { kind: 'shop' };
@@ -78,6 +79,13 @@ export function createVehiclesRouter({ db, clock }: AppDeps): Router {
     const row = await findVehicle(db, auth.shop.id, req.params.id);
     authorizeRow(auth, 'read', 'Vehicle', row && vehicleSubject(row));
     res.json({ data: vehicleRowToVehicle(row!) });
+  });
+
+  router.get('/:id/history', async (req, res) => {
+    const auth = requireShop(req);
+    const row = await findVehicle(db, auth.shop.id, req.params.id);
+    authorizeRow(auth, 'read', 'Vehicle', row && vehicleSubject(row), 'Vehicle not found.');
+    res.json({ data: await vehicleHistory(db, auth, row!.id) });
   });
 
   router.post('/', async (req, res) => {

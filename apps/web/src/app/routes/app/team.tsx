@@ -30,7 +30,7 @@ function TeamScreen() {
     <>
       <PageHeader
         title="Team"
-        description={canManage ? 'Everyone with access to the shop: change roles, deactivate accounts and invite new people.' : 'Everyone with access to the shop.'}
+        description={canManage ? 'The people who work in the shop (owners, tuners, dealer users): change roles, deactivate accounts and invite new people. Customers are under Customers.' : 'The people who work in the shop. Customers are under Customers.'}
       />
       <div className="flex flex-col gap-6">
         <Card title="Members">

@@ -12,9 +12,11 @@ export const screenAccess = {
   shops: (ability: AppAbility) => ability.can('manage', 'Platform'),
   jobs: (ability: AppAbility) => ability.can('read', 'Job'),
   vehicles: (ability: AppAbility, viewer: Viewer) => viewer.role === 'customer' && ability.can('read', 'Vehicle'),
-  customers: (ability: AppAbility, viewer: Viewer) => viewer.role === 'dealer' && ability.can('read', 'Customer'),
+  customers: (ability: AppAbility, viewer: Viewer) => viewer.role !== 'customer' && ability.can('read', 'Customer'),
   team: (ability: AppAbility) => ability.can('read', 'Member'),
   dealers: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Dealer'),
+  /** One dealer's page: the owner's view of any dealer, a dealer user's own. */
+  dealer: (ability: AppAbility, viewer: Viewer) => (viewer.role === 'owner' || viewer.role === 'dealer') && ability.can('read', 'Dealer'),
   shopSettings: (ability: AppAbility) => ability.can('read', 'ShopSettings'),
   revenue: (ability: AppAbility) => ability.can('manage', 'Platform'),
   billing: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('read', 'Subscription'),

@@ -11,6 +11,9 @@ export interface DealerUser {
 
 export interface DealerDetail extends Dealer {
   users: DealerUser[];
+  /** Null for viewers who may not read the dealer's ledger (tuners). */
+  balance: { balanceMinor: number; currency: string } | null;
+  jobs: { open: number; total: number };
 }
 
 export const getDealer = (dealerId: string) => api.get<ItemResponse<DealerDetail>>(`/api/dealers/${encodeURIComponent(dealerId)}`);

@@ -78,7 +78,9 @@ function FileRow({ file, canVerify, chosen, onCheck }: { file: CalibrationFile; 
         <td className="py-3 pr-3">
           <div className="flex flex-wrap items-center gap-2">
             <Badge tone={KIND_TONE[file.kind]}>{file.label}</Badge>
+            {file.plausibility?.status === 'unexpected_size' && <Badge tone="warn">Unexpected size</Badge>}
           </div>
+          {file.plausibility?.status === 'unexpected_size' && <p className="mt-1 text-warn">{file.plausibility.message}</p>}
           <p className="mt-1 break-all text-ink-700">{file.kind === 'revision' ? file.downloadName : file.originalName}</p>
           {file.notes && <p className="mt-1 text-ink-600">{file.notes}</p>}
           <div className="mt-2 flex flex-wrap items-start gap-2">

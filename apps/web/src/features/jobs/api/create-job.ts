@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Job } from '@revloop/contract';
 import type { JobIntakeInput } from '@revloop/domain/jobs';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getCustomersQueryOptions } from '../../customers/api/get-customers';
+import { customersRootKey } from '../../customers/api/get-customers';
 import { vehiclesRootKey } from '../../vehicles/api/get-vehicles';
 import { jobsRootKey } from './get-jobs';
 
@@ -16,7 +16,7 @@ export function useCreateJob() {
       await queryClient.invalidateQueries({ queryKey: jobsRootKey });
       // A new job may have created a vehicle and a customer.
       await queryClient.invalidateQueries({ queryKey: vehiclesRootKey });
-      await queryClient.invalidateQueries({ queryKey: getCustomersQueryOptions().queryKey });
+      await queryClient.invalidateQueries({ queryKey: customersRootKey });
     },
   });
 }

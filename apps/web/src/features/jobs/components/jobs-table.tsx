@@ -13,8 +13,8 @@ import {
 import { type Job, JOB_SORT_KEYS, type JobSortKey } from '@revloop/contract';
 import { Banner } from '../../../components/ui/banner';
 import { buttonClasses } from '../../../components/ui/button';
-import { Select } from '../../../components/ui/select';
 import { Spinner } from '../../../components/ui/spinner';
+import { TablePager } from '../../../components/ui/table-pager';
 import { TableView } from '../../../components/ui/table-view';
 import { textLinkClasses } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
@@ -115,28 +115,7 @@ export function JobsTable({ state, onChange }: JobsTableProps) {
         caption={`Jobs, sorted by ${state.sort.replace('_', ' ')} ${state.dir === 'asc' ? 'ascending' : 'descending'}`}
         emptyMessage={jobs.isPending ? 'Loading…' : filtered ? 'No job matches the filters.' : 'No jobs yet: open one with "Open a job", or share your public page so customers start a tune themselves.'}
       />
-      <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-700">
-        <label className="flex items-center gap-2 whitespace-nowrap">
-          Rows per page
-          <Select
-            className="w-20"
-            value={String(state.pageSize)}
-            onChange={(event) => table.setPageSize(Number(event.target.value))}
-            options={PAGE_SIZES.map((size) => ({ value: String(size), label: String(size) }))}
-          />
-        </label>
-        <div className="flex items-center gap-2">
-          <button type="button" className={buttonClasses('secondary', 'sm')} disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
-            Previous
-          </button>
-          <span>
-            Page {state.page} of {Math.max(1, table.getPageCount())}
-          </span>
-          <button type="button" className={buttonClasses('secondary', 'sm')} disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
-            Next
-          </button>
-        </div>
-      </nav>
+      <TablePager table={table} page={state.page} pageSize={state.pageSize} pageSizes={PAGE_SIZES} />
     </div>
   );
 }

@@ -14,8 +14,9 @@ import { useReactivateMember } from '../api/reactivate-member';
 import { useUpdateMemberRole } from '../api/update-member-role';
 
 /** Dealer users belong to a dealer account, so they are invited as such rather than switched to or from. */
-const ASSIGNABLE_ROLES = (['owner', 'tuner', 'customer'] as const).map((role) => ({ value: role, label: ROLE_LABELS[role] }));
-const ROLE_FILTER_OPTIONS = [{ value: '', label: 'All roles' }, ...(['owner', 'tuner', 'dealer', 'customer'] as const).map((role) => ({ value: role, label: ROLE_LABELS[role] }))];
+// Team is staff only: nobody becomes a customer (or a customer staff) here; the server refuses it too.
+const ASSIGNABLE_ROLES = (['owner', 'tuner'] as const).map((role) => ({ value: role, label: ROLE_LABELS[role] }));
+const ROLE_FILTER_OPTIONS = [{ value: '', label: 'All roles' }, ...(['owner', 'tuner', 'dealer'] as const).map((role) => ({ value: role, label: ROLE_LABELS[role] }))];
 
 type Pending = { member: Member; action: 'deactivate' | 'reactivate' } | null;
 

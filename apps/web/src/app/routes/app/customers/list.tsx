@@ -1,34 +1,32 @@
 import { Link } from 'react-router-dom';
 import { PageHeader } from '../../../../components/layout/page-header';
-import { Banner } from '../../../../components/ui/banner';
 import { buttonClasses } from '../../../../components/ui/button';
-import { PageSpinner } from '../../../../components/ui/spinner';
 import { paths } from '../../../../config/paths';
-import { useCustomers } from '../../../../features/customers/api/get-customers';
 import { CustomersTable } from '../../../../features/customers/components/customers-table';
-import { errorMessage } from '../../../../lib/form-errors';
+import { useSignedInMe } from '../../../../features/auth/api/get-me';
 import { RequireScreen } from '../require-screen';
 
 function CustomersScreen() {
-  const customers = useCustomers();
+  const me = useSignedInMe();
   return (
     <>
       <PageHeader
         title="Customers"
-        description="The people you sell the shop's tunes to. Open a job for one of them, or see where their jobs stand."
+        description="The people you sell the shop's tunes to: find one by name, e-mail or VIN and open their page for vehicles, jobs, payments and messages."
         actions={
-          <Link to={paths.newJob.getHref()} className={buttonClasses()}>
-            Open a job
-          </Link>
+          <>
+            {me.dealer && (
+              <Link to={paths.dealers.detail.getHref(me.dealer.id)} className={buttonClasses('secondary')}>
+                Balance and statement
+              </Link>
+            )}
+            <Link to={paths.newJob.getHref()} className={buttonClasses()}>
+              Open a job
+            </Link>
+          </>
         }
       />
-      {customers.isPending ? (
-        <PageSpinner label="Loading customers" />
-      ) : customers.isError ? (
-        <Banner tone="bad">{errorMessage(customers.error)}</Banner>
-      ) : (
-        <CustomersTable customers={customers.data.data} />
-      )}
+      <CustomersTable />
     </>
   );
 }
