@@ -11,6 +11,7 @@ import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword, type BlobStore } from '@revloop/api';
 import { seedBilling } from './billing-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
+import { seedRentals } from './rentals-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
 
 export interface SeededShop {
@@ -126,6 +127,7 @@ export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise
   ];
   await leaveAFewUnread(db, now);
   await seedBilling(db, now, { kestrel, harbor }, jobs);
+  await seedRentals(db, now, kestrel, jobs);
   return { adminId, kestrel, harbor, jobs };
 }
 

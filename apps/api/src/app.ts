@@ -21,6 +21,8 @@ import { createMeRouter } from './features/me/me.router';
 import { createMembersRouter } from './features/members/members.router';
 import { createCustomersRouter } from './features/customers/customers.router';
 import { createJobsRouter } from './features/jobs/jobs.router';
+import { createKitsRouter } from './features/kits/kits.router';
+import { createRentalsRouter } from './features/rentals/rentals.router';
 import { createNotificationsRouter } from './features/notifications/notifications.router';
 import { createPublicRouter } from './features/public/public.router';
 import { createPackagesRouter } from './features/packages/packages.router';
@@ -102,6 +104,8 @@ export function createApp(deps: AppDeps): Express {
   api.use('/datalogs', createDatalogsRouter(deps));
   api.use('/jobs/:jobId/datalogs', createJobDatalogsRouter(deps));
   api.use('/billing', createBillingRouter(deps));
+  api.use('/kits', createKitsRouter(deps));
+  api.use('/rentals', createRentalsRouter(deps));
   if (deps.mailbox) api.use('/dev', createDevRouter(deps.mailbox));
   api.use((_req, _res, next) => next(new DomainError('not_found', 'No such API route.')));
   app.use('/api', api);

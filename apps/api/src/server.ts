@@ -12,6 +12,7 @@ import { SignInThrottle } from './features/auth/sign-in-throttle';
 import { createSmtpMailer } from './features/mail/mailer';
 import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
+import { runRentalSweep } from './features/rentals/rental-notices';
 import { BlobStore } from './storage/blob-store';
 import { warmAnalysisWorker } from './workers/datalog/analyze-file';
 
@@ -58,9 +59,15 @@ const billingSweep = setInterval(() => {
   applyBillingDeadlines(deps).catch((err: unknown) => logger.error({ err }, 'billing deadline check failed'));
 }, 3_600_000);
 
+// Rental deposit holds are re-placed before they lapse and reminders go out on the shop's days: check hourly.
+const rentalSweep = setInterval(() => {
+  runRentalSweep(deps).catch((err: unknown) => logger.error({ err }, 'rental sweep failed'));
+}, 3_600_000);
+
 async function shutdown() {
   server.close();
   clearInterval(billingSweep);
+  clearInterval(rentalSweep);
   await stripeFake?.close();
   await smtp?.close();
   await db.destroy();

@@ -8,3 +8,4 @@ export * from './members';
 export * from './me';
 export * from './public';
 export * from './reports';
+export * from './rentals';

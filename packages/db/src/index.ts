@@ -39,3 +39,5 @@ export * from './billing/ledger.repository';
 export * from './recovery/recovery.repository';
 export * from './reports/reports.table';
 export * from './reports/reports.repository';
+export * from './rentals/rental.table';
+export * from './rentals/rental.repository';

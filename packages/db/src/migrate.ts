@@ -10,6 +10,7 @@ import * as vehicleRollingCircumference from './migrations/2026-12-02-007-vehicl
 import * as mailOutbox from './migrations/2026-12-02-008-mail-outbox';
 import * as publicPages from './migrations/2026-12-02-009-public-pages';
 import * as reports from './migrations/2026-12-02-010-reports';
+import * as rentals from './migrations/2026-12-02-011-rentals';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
@@ -24,6 +25,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-008-mail-outbox': mailOutbox,
   '2026-12-02-009-public-pages': publicPages,
   '2026-12-02-010-reports': reports,
+  '2026-12-02-011-rentals': rentals,
   '2026-12-02-012-job-list-versions': jobListVersions,
 };
 

@@ -6,6 +6,7 @@ export type DomainErrorCode =
   | 'not_found'
   | 'conflict'
   | 'invalid_transition'
+  | 'rental_clash'
   | 'invalid_file'
   | 'invalid_datalog'
   | 'payload_too_large'

@@ -10,6 +10,7 @@ const STATUS: Record<DomainErrorCode, number> = {
   not_found: 404,
   conflict: 409,
   invalid_transition: 409,
+  rental_clash: 409,
   payload_too_large: 413,
   invalid_file: 422,
   invalid_datalog: 422,

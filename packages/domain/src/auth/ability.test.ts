@@ -50,6 +50,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Report: ['read'],
     Job: ['read', 'create', 'update', 'assign', 'transition', 'upload', 'upload_revision', 'download'],
     File: ['read'],
+    Kit: ['read', 'create', 'update'],
+    Rental: ['read', 'create', 'update', 'transition'],
   },
   tuner: {
     Shop: ['read'],
@@ -62,6 +64,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     File: ['read'],
     Message: ['read', 'create'],
     Payment: ['read'],
+    Kit: ['read'],
+    Rental: ['read', 'create', 'transition'],
   },
   dealer: {
     Shop: ['read'],
@@ -73,6 +77,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Message: ['read', 'create'],
     Ledger: ['read'],
     Payment: ['read', 'create'],
+    Kit: ['read'],
+    Rental: ['read', 'create', 'transition'],
   },
   customer: {
     Shop: ['read'],
@@ -81,6 +87,8 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Job: ['read', 'create', 'upload', 'download'],
     Message: ['read', 'create'],
     Payment: ['read', 'create'],
+    Kit: ['read'],
+    Rental: ['read', 'create', 'transition'],
   },
 };
 

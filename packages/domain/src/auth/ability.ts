@@ -32,7 +32,10 @@ export type Action =
   | 'download'
   | 'refund'
   /** Compare a calibration file with the job's revisions (File only). */
-  | 'verify';
+  | 'verify'
+  /** Rentals: pick a kit and dates for a job (staff); agree to the rental terms (the job's customer or dealer). */
+  | 'book'
+  | 'agree';
 
 export const SUBJECTS = [
   'Platform',
@@ -56,6 +59,9 @@ export const SUBJECTS = [
   'Mailbox',
   /** The shop's reports: turnaround, rounds, tuner load, revenue and log quality (owner only). */
   'Report',
+  /** Flashing kits the shop rents out, and their rentals (issue 14). */
+  'Kit',
+  'Rental',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -179,6 +185,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   defineFileRules(can, actor, shopId);
   // Reports: how the shop is doing (money, each tuner's load) is the owner's view alone; reading stays open when read-only.
   if (actor.role === 'owner') can('read', 'Report', inShop);
+  defineRentalRules(actor, shopId, can, cannot);
 
   if (actor.shopReadOnly) {
     // A suspended or lapsed shop keeps reading and downloading, and the owner can still pay to restore it.
@@ -227,6 +234,45 @@ function defineFileRules(can: AbilityBuilder<AppAbility>['can'], actor: Actor, s
       can('read', 'File', { shopId, customerUserId: me, sent: true, uploadedByUserId: me });
       break;
   }
+}
+
+type RuleFn = AbilityBuilder<AppAbility>['can'];
+
+/**
+ * Kits and rentals. Rental objects carry the job's `customerUserId` and `dealerId`. Customers and dealers see every
+ * kit's busy days (the calendar shows them no other rental: they may not read it), ask for a rental on their jobs
+ * and agree to its terms; staff book; the owner manages kits. Which move each role makes is in the rental machine.
+ */
+function defineRentalRules(actor: Actor, shopId: string, can: RuleFn, cannot: RuleFn): void {
+  const inShop = { shopId };
+  can('read', 'Kit', inShop);
+  switch (actor.role) {
+    case 'owner':
+      can(['create', 'update'], 'Kit', inShop);
+      can(['read', 'create', 'book', 'transition', 'update'], 'Rental', inShop);
+      break;
+    case 'tuner':
+      can(['read', 'create', 'book', 'transition'], 'Rental', inShop);
+      break;
+    case 'dealer':
+      if (actor.dealerId) can(['read', 'create', 'transition', 'agree'], 'Rental', { shopId, dealerId: actor.dealerId });
+      break;
+    case 'customer':
+      can(['read', 'create', 'transition', 'agree'], 'Rental', { shopId, customerUserId: actor.userId });
+      break;
+  }
+  if (actor.shopReadOnly) cannot(['create', 'update', 'book', 'transition', 'agree'], ['Kit', 'Rental']);
+}
+
+/** Row scope for rental lists: the SQL twin of the Rental conditions above. */
+export type RentalScopeKind = { kind: 'none' } | { kind: 'shop' } | { kind: 'dealer'; dealerId: string } | { kind: 'customer'; userId: string };
+
+export function rentalScopeFor(actor: Actor): RentalScopeKind {
+  if (actor.platformAdmin || !actor.shopId) return { kind: 'none' };
+  if (actor.role === 'owner' || actor.role === 'tuner') return { kind: 'shop' };
+  if (actor.role === 'dealer') return actor.dealerId ? { kind: 'dealer', dealerId: actor.dealerId } : { kind: 'none' };
+  if (actor.role === 'customer') return { kind: 'customer', userId: actor.userId };
+  return { kind: 'none' };
 }
 
 /** Row scope for list queries: the SQL twin of the Job conditions above, so lists and checks agree. */

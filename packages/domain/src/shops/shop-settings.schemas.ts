@@ -18,6 +18,10 @@ export const shopSettingsSchema = z.object({
   uploadLimitMiB: z.number().int().min(1).max(256).default(16),
   /** The shop's IANA time zone: dates in its e-mails are written in it. UTC until the owner picks one. */
   timeZone: z.string().trim().refine(isTimeZone, 'Choose a time zone from the list, such as Europe/Berlin.').default('UTC'),
+  /** Rental kits: days a kit travels each way, added before the start and after the due date of every booking (default 2). */
+  rentalShippingDays: z.number().int().min(0).max(14).optional(),
+  /** Rental kits: daily overdue reminders the customer gets before they stop; the owner is told every day (default 5). */
+  rentalOverdueReminderLimit: z.number().int().min(0).max(30).optional(),
   /** Keep a new job on hold until its package is paid. */
   holdUntilPaid: z.boolean().default(false),
   /** Default log requests by engine family (free text such as "v8" or "2.0 turbo i4"), matched case-insensitively. */

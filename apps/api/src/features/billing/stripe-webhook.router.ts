@@ -3,6 +3,7 @@ import type Stripe from 'stripe';
 import { claimStripeEvent, findShopSubscriptionByProvider, type Db } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { AppDeps } from '../../context';
+import { handleRentalStripeEvent } from '../rentals/rental-money';
 import { applyCheckoutExpired, applyCheckoutPaid } from './payment.service';
 import { idOf, stripeFor } from './stripe-client';
 import { retryOpenInvoices, syncSubscription } from './subscription.service';
@@ -18,6 +19,7 @@ const customerOf = (object: unknown): string | null => {
 /** Applies one verified event. Every branch claims the event id in the transaction that applies its effect. */
 export async function handleStripeEvent(deps: AppDeps, event: Stripe.Event): Promise<void> {
   const claimFor = (shopId: string | null) => (db: Db) => claimStripeEvent(db, { id: event.id, type: event.type, shopId, at: deps.clock.now().toISOString() });
+  if (await handleRentalStripeEvent(deps, event, claimFor)) return;
 
   if (event.type === 'checkout.session.completed' && event.data.object.mode === 'payment') {
     await applyCheckoutPaid(deps, event.data.object, claimFor(event.data.object.metadata?.shopId ?? null));

@@ -3,7 +3,7 @@ import { queueMail } from '../mail/mail-outbox.service';
 import type { OutgoingMail } from '../mail/mailer';
 
 /** The moves that reach people; each user may turn the e-mail of any kind off (in-app stays). */
-export const NOTIFICATION_KINDS = ['job_received', 'revision_ready', 'log_received', 'job_dialed_in', 'message_received', 'job_moved'] as const;
+export const NOTIFICATION_KINDS = ['job_received', 'revision_ready', 'log_received', 'job_dialed_in', 'message_received', 'job_moved', 'kit_rental'] as const;
 export type NotificationKind = (typeof NOTIFICATION_KINDS)[number];
 
 export const NOTIFICATION_LABELS: Record<NotificationKind, string> = {
@@ -13,6 +13,7 @@ export const NOTIFICATION_LABELS: Record<NotificationKind, string> = {
   job_dialed_in: 'A job is dialed in',
   message_received: 'A message arrives',
   job_moved: 'A job changes state',
+  kit_rental: 'A rented kit ships, is due or is overdue',
 };
 
 /** Which kinds mail by default: everything but the routine state changes. */
@@ -23,6 +24,7 @@ const EMAIL_BY_DEFAULT: Record<NotificationKind, boolean> = {
   job_dialed_in: true,
   message_received: true,
   job_moved: false,
+  kit_rental: true,
 };
 
 export type NotificationPrefs = Partial<Record<NotificationKind, { email: boolean }>>;
