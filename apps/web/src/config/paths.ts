@@ -24,6 +24,11 @@ export const paths = {
   customers: { path: '/customers', getHref: () => '/customers' },
   team: { path: '/team', getHref: () => '/team' },
   reports: { path: '/reports', getHref: () => '/reports' },
+  kits: {
+    list: { path: '/kits', getHref: () => '/kits' },
+    overview: { path: '/kits/overview', getHref: () => '/kits/overview' },
+    detail: { path: '/kits/:kitId', getHref: (kitId: string) => `/kits/${encodeURIComponent(kitId)}` },
+  },
   dealers: {
     list: { path: '/dealers', getHref: () => '/dealers' },
     detail: { path: '/dealers/:dealerId', getHref: (dealerId: string) => `/dealers/${encodeURIComponent(dealerId)}` },
