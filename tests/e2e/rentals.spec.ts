@@ -45,8 +45,9 @@ test('the owner adds a kit and sees it in the list at 1366 and 390 px', async ({
 });
 
 test('a customer asks for a kit on a job', async ({ page }) => {
-  await page.setViewportSize(PHONE);
   await signIn(page, 'customer@kestrel.test');
+  // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
+  await page.setViewportSize(PHONE);
   const jobs = (await (await page.request.get('/api/jobs?pageSize=100')).json()).data as Array<{ id: string; dealer: unknown; state: string }>;
   const job = jobs.find((j) => j.dealer === null && j.state !== 'cancelled' && j.state !== 'dialed_in');
   if (!job) throw new Error('no open direct job for the demo customer');
@@ -67,15 +68,16 @@ test('the owner books the new kit for the request', async ({ page }) => {
   await page.goto(`/jobs/${jobId}`);
   const rental = page.getByRole('article', { name: /Kit rental: kit to be picked/ }).last();
   await rental.getByRole('button', { name: /book/i }).first().click();
-  await rental.getByLabel('Kit').selectOption({ label: `${KIT} (IF-E2E-0001)` });
+  await rental.getByLabel('Kit', { exact: true }).selectOption({ label: `${KIT} (IF-E2E-0001)` });
   await rental.getByRole('button', { name: /book/i }).first().click();
   await expect(page.getByRole('article', { name: `Kit rental: ${KIT}` })).toBeVisible();
   await page.screenshot({ path: '/tmp/rentals-booked-1366.png', fullPage: true });
 });
 
 test('the customer agrees, pays the fee and authorises the deposit hold', async ({ page }) => {
-  await page.setViewportSize(PHONE);
   await signIn(page, 'customer@kestrel.test');
+  // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
+  await page.setViewportSize(PHONE);
   await page.goto(`/jobs/${jobId}`);
   const rental = page.getByRole('article', { name: `Kit rental: ${KIT}` });
   await expect(rental.getByText('$500.00')).toBeVisible();
@@ -103,7 +105,7 @@ test('the owner ships, records a damaged return and captures part of the deposit
   await expect(rental.getByText('1Z999AA10123456784')).toBeVisible();
   await rental.getByRole('button', { name: /return/i }).first().click();
   await rental.getByLabel('Vehicle interface').check();
-  await rental.getByLabel('Laptop').check();
+  await rental.getByLabel('Laptop', { exact: true }).check();
   await rental.getByLabel('Battery supporter').check();
   await rental.getByLabel('Condition', { exact: true }).selectOption('damaged');
   await rental.getByLabel('Condition notes').fill(REASON);
@@ -117,8 +119,9 @@ test('the owner ships, records a damaged return and captures part of the deposit
 });
 
 test('the customer sees why part of the deposit was taken', async ({ page }) => {
-  await page.setViewportSize(PHONE);
   await signIn(page, 'customer@kestrel.test');
+  // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
+  await page.setViewportSize(PHONE);
   await page.goto(`/jobs/${jobId}`);
   const lines = page.getByRole('article', { name: `Kit rental: ${KIT}` }).getByRole('table', { name: 'Money lines' });
   await expect(lines.getByText(new RegExp(REASON))).toBeVisible();
