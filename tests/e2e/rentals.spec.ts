@@ -102,7 +102,7 @@ test('the owner ships, records a damaged return and captures part of the deposit
   await rental.getByLabel('Carrier').fill('UPS');
   await rental.getByLabel('Tracking number').fill('1Z999AA10123456784');
   await rental.getByRole('button', { name: /ship/i }).first().click();
-  await expect(rental.getByText('1Z999AA10123456784')).toBeVisible();
+  await expect(rental.getByText(/tracking UPS 1Z999AA10123456784/)).toBeVisible();
   await rental.getByRole('button', { name: /return/i }).first().click();
   await rental.getByLabel('Vehicle interface').check();
   await rental.getByLabel('Laptop', { exact: true }).check();

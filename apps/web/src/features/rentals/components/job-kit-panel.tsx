@@ -53,11 +53,6 @@ function RentalCard({ rentalId, canPay }: { rentalId: string; canPay: boolean })
         <Badge tone={r.state === 'closed' ? 'ok' : r.state === 'cancelled' ? 'neutral' : 'accent'}>{RENTAL_STATE_LABELS[r.state]}</Badge>
       </div>
       {r.nextStep && <p className="font-medium text-ink-900">{r.nextStep}</p>}
-      {r.trackingNumber && (
-        <p className="text-sm">
-          Shipped with {r.carrier}, tracking <span className="font-mono">{r.trackingNumber}</span>
-        </p>
-      )}
       <dl className="grid grid-cols-2 gap-2 text-sm sm:grid-cols-4">
         <div><dt className="text-ink-600">Dates</dt><dd>{formatDate(r.startDate)} – {formatDate(r.dueDate)}</dd></div>
         <div><dt className="text-ink-600">Rental fee</dt><dd>{money(r.feeMinor)}{r.feePaid ? ' (paid)' : ''}</dd></div>
