@@ -5,6 +5,7 @@ import {
   RENTAL_STATES,
   RETURN_CONDITIONS,
 } from '@revloop/domain/rentals';
+import { moneyMinorSchema } from '@revloop/domain/billing';
 import { z } from 'zod';
 
 // Flashing-kit rentals (issue 14). Dates are shop-local calendar days `YYYY-MM-DD`; money is integer minor units in the
@@ -12,11 +13,7 @@ import { z } from 'zod';
 
 /** A shop-local calendar day, ISO 8601 `YYYY-MM-DD`. */
 export const isoDaySchema = z.iso.date('Use a date written YYYY-MM-DD.');
-const minor = z
-  .number()
-  .int('Amounts are whole minor units (e.g. cents).')
-  .min(0, 'An amount cannot be negative.')
-  .max(Number.MAX_SAFE_INTEGER, 'That amount is too large.');
+const minor = moneyMinorSchema;
 const shortText = (max: number) => z.string().trim().max(max, `Keep this under ${max} characters.`);
 const idSchema = z.string().trim().min(1);
 
@@ -28,38 +25,34 @@ export const depositStatusSchema = z.enum(DEPOSIT_STATUSES);
 
 // ---------- kits ----------
 
-/** POST /api/kits. */
-export const kitCreateSchema = z.object({
+const kitFields = {
   name: shortText(120).min(1, 'Name the kit.'),
   interfaceSerial: shortText(80).min(1, "Enter the interface's serial number."),
-  laptopAssetTag: shortText(80).default(''),
+  laptopAssetTag: shortText(80),
   /** What goes in the box, checked off on return. */
-  contents: z.array(shortText(120).min(1)).max(50).default([]),
+  contents: z.array(shortText(120).min(1)).max(50),
   /** Platforms the kit serves: free text or engine families. */
-  platforms: z.array(shortText(80).min(1)).max(50).default([]),
-  conditionNotes: shortText(2000).default(''),
-  status: kitStatusSchema.default('available'),
+  platforms: z.array(shortText(80).min(1)).max(50),
+  conditionNotes: shortText(2000),
+  status: kitStatusSchema,
   weeklyPriceMinor: minor,
   depositMinor: minor,
   lateFeePerDayMinor: minor,
+};
+
+/** POST /api/kits. */
+export const kitCreateSchema = z.object({
+  ...kitFields,
+  laptopAssetTag: kitFields.laptopAssetTag.default(''),
+  contents: kitFields.contents.default([]),
+  platforms: kitFields.platforms.default([]),
+  conditionNotes: kitFields.conditionNotes.default(''),
+  status: kitFields.status.default('available'),
 });
 export type KitCreate = z.infer<typeof kitCreateSchema>;
 
 /** PATCH /api/kits/:id: any field of the create body. */
-export const kitPatchSchema = z
-  .object({
-    name: shortText(120).min(1, 'Name the kit.'),
-    interfaceSerial: shortText(80).min(1, "Enter the interface's serial number."),
-    laptopAssetTag: shortText(80),
-    contents: z.array(shortText(120).min(1)).max(50),
-    platforms: z.array(shortText(80).min(1)).max(50),
-    conditionNotes: shortText(2000),
-    status: kitStatusSchema,
-    weeklyPriceMinor: minor,
-    depositMinor: minor,
-    lateFeePerDayMinor: minor,
-  })
-  .partial();
+export const kitPatchSchema = z.object(kitFields).partial();
 export type KitPatch = z.infer<typeof kitPatchSchema>;
 
 export const kitSchema = z.object({

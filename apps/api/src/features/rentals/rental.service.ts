@@ -192,7 +192,7 @@ export async function createRental(deps: AppDeps, auth: ShopAuth, input: RentalC
   const text = kit ? `Kit ${kit.name} booked ${input.startDate} to ${input.dueDate}` : `Kit asked for ${input.startDate} to ${input.dueDate}`;
   if (kit) {
     const result = await insertRentalIfFree(deps.db, { ...row, kit_id: kit.id }, async (trx, rental) => {
-      await auditRental(trx, rental, auth.user.id, kit ? 'rental.booked' : 'rental.requested', text, now);
+      await auditRental(trx, rental, auth.user.id, 'rental.booked', text, now);
       await setKitStatusAfter(trx, rental, 'booked', now);
     });
     if (!result.ok) throw clashError(result.clashes);
@@ -224,7 +224,6 @@ export async function moveRental(deps: AppDeps, auth: ShopAuth, id: string, inpu
   const now = deps.clock.now();
   const at = now.toISOString();
   const { shippingDays, timeZone } = shopRentalSettings(auth.shop.settings);
-  const label = RENTAL_STATE_LABELS[input.to].toLowerCase();
   const moved = () => new DomainError('conflict', `The rental changed under you; it is no longer ${RENTAL_STATE_LABELS[row.state].toLowerCase()}.`);
 
   if (input.to === 'booked') {
@@ -288,7 +287,6 @@ export async function moveRental(deps: AppDeps, auth: ShopAuth, id: string, inpu
     await setKitStatusAfter(deps.db, updated, input.to, now);
   }
   await notifyRental(deps, row.id, row.shop_id, input.to);
-  deps.logger.debug({ rentalId: row.id, to: label }, 'rental moved');
   return (await findRental(deps.db, auth.shop.id, row.id))!;
 }
 

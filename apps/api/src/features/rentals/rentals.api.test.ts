@@ -146,7 +146,12 @@ describe('a rental from request to close', () => {
     expect((await customer.post(`/api/rentals/${id}/terms`).send({ accept: true })).status).toBe(200);
     await pay((await customer.post(`/api/rentals/${id}/fee/checkout`)).body.data.url);
     await pay((await customer.post(`/api/rentals/${id}/deposit/checkout`)).body.data.url);
+    // A replayed webhook changes nothing: still one fee line and one saved card.
+    for (const d of fake().deliveries().filter((x) => x.type === 'checkout.session.completed' || x.type === 'setup_intent.succeeded')) fake().resendEvent(d.eventId);
+    await fake().settle();
     const ready = await customer.get(`/api/rentals/${id}`);
+    expect(ready.body.data.entries.filter((e: { kind: string }) => e.kind === 'fee')).toHaveLength(1);
+    expect(ready.body.data.entries.filter((e: { kind: string }) => e.kind === 'card_saved')).toHaveLength(1);
     expect(ready.body.data).toMatchObject({ feePaid: true, deposit: { status: 'card_saved', heldMinor: 0 } });
 
     const shipped = await owner.post(`/api/rentals/${id}/transitions`).send({ to: 'shipped', carrier: 'DHL', trackingNumber: 'JD0001' });
