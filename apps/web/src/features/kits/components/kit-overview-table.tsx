@@ -6,6 +6,7 @@ import { ScrollRegion } from '../../../components/ui/scroll-region';
 import { TextLink } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
 import { formatDate } from '../../../lib/format';
+import { KitTableHead } from './kits-table';
 
 function RentalList({ title, rentals, empty }: { title: string; rentals: RentalSummary[]; empty: string }) {
   return (
@@ -40,15 +41,7 @@ export function KitOverviewView({ overview }: { overview: KitOverview }) {
           <caption className="p-2 text-left text-sm text-ink-600">
             Per kit from {formatDate(overview.from)} to {formatDate(overview.to)}: utilisation is days out ÷ days in service; revenue is rental fees, late fees and deposit captures ({overview.currency}).
           </caption>
-          <thead className="bg-ink-50 text-xs uppercase text-ink-600">
-            <tr>
-              {['Kit', 'Status', 'Days out', 'Days in service', 'Utilisation', 'Revenue'].map((h) => (
-                <th key={h} scope="col" className="px-4 py-2 font-medium">
-                  {h}
-                </th>
-              ))}
-            </tr>
-          </thead>
+          <KitTableHead columns={['Kit', 'Status', 'Days out', 'Days in service', 'Utilisation', 'Revenue']} />
           <tbody className="divide-y divide-ink-100">
             {overview.kits.map((k) => (
               <tr key={k.kitId}>

@@ -6,21 +6,28 @@ import { ScrollRegion } from '../../../components/ui/scroll-region';
 import { TextLink } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
 
+/** The column headings of the kit tables. */
+export function KitTableHead({ columns }: { columns: string[] }) {
+  return (
+    <thead className="bg-ink-50 text-xs uppercase text-ink-600">
+      <tr>
+        {columns.map((h) => (
+          <th key={h} scope="col" className="px-4 py-2 font-medium">
+            {h}
+          </th>
+        ))}
+      </tr>
+    </thead>
+  );
+}
+
 /** The shop's kits: what each is, where it is and what it costs to rent. Scrolls sideways on a phone. */
 export function KitsTable({ kits }: { kits: Kit[] }) {
   return (
     <ScrollRegion label="Kits">
       <table className="w-full min-w-[52rem] text-left text-sm">
         <caption className="sr-only">Flashing kits: serials, status and rental prices</caption>
-        <thead className="bg-ink-50 text-xs uppercase text-ink-600">
-          <tr>
-            {['Name', 'Interface serial', 'Laptop asset tag', 'Status', 'Per week', 'Deposit', 'Late fee / day'].map((h) => (
-              <th key={h} scope="col" className="px-4 py-2 font-medium">
-                {h}
-              </th>
-            ))}
-          </tr>
-        </thead>
+        <KitTableHead columns={['Name', 'Interface serial', 'Laptop asset tag', 'Status', 'Per week', 'Deposit', 'Late fee / day']} />
         <tbody className="divide-y divide-ink-100">
           {kits.map((kit) => (
             <tr key={kit.id}>
