@@ -21,6 +21,9 @@ const SHARED_FEATURE_MODULES = [
   'auth/api/get-me.ts',
   'customers/api/get-customers.ts',
   'jobs/api/get-jobs.ts',
+  'kits/api/get-kits.ts',
+  'kits/api/get-kit.ts',
+  'kits/api/get-kit-bookings.ts',
   'members/api/get-members.ts',
   'notifications/api/get-notifications.ts',
   'packages/api/get-packages.ts',
@@ -29,6 +32,7 @@ const SHARED_FEATURE_MODULES = [
   'jobs/components/intake-errors.ts',
   'jobs/components/cautions.tsx',
   'jobs/components/intake-vehicle-fields.tsx',
+  'kits/components/month-calendar.tsx',
   'vehicles/components/rolling-circumference-form.tsx',
   'vehicles/components/vehicle-units.ts',
 ];

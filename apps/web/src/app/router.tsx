@@ -43,6 +43,9 @@ export const router = createBrowserRouter([
           { path: paths.customer.path, lazy: screen(() => import('./routes/app/customers/detail'), (m) => m.CustomerRoute) },
           { path: paths.team.path, lazy: screen(() => import('./routes/app/team'), (m) => m.TeamRoute) },
           { path: paths.reports.path, lazy: screen(() => import('./routes/app/reports'), (m) => m.ReportsRoute) },
+          { path: paths.kits.list.path, lazy: screen(() => import('./routes/app/kits/list'), (m) => m.KitsRoute) },
+          { path: paths.kits.overview.path, lazy: screen(() => import('./routes/app/kits/overview'), (m) => m.KitOverviewRoute) },
+          { path: paths.kits.detail.path, lazy: screen(() => import('./routes/app/kits/detail'), (m) => m.KitRoute) },
           { path: paths.dealers.list.path, lazy: screen(() => import('./routes/app/dealers/list'), (m) => m.DealersRoute) },
           { path: paths.dealers.detail.path, lazy: screen(() => import('./routes/app/dealers/detail'), (m) => m.DealerRoute) },
           {

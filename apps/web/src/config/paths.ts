@@ -25,6 +25,11 @@ export const paths = {
   customer: { path: '/customers/:customerId', getHref: (customerId: string) => `/customers/${encodeURIComponent(customerId)}` },
   team: { path: '/team', getHref: () => '/team' },
   reports: { path: '/reports', getHref: () => '/reports' },
+  kits: {
+    list: { path: '/kits', getHref: () => '/kits' },
+    overview: { path: '/kits/overview', getHref: () => '/kits/overview' },
+    detail: { path: '/kits/:kitId', getHref: (kitId: string) => `/kits/${encodeURIComponent(kitId)}` },
+  },
   dealers: {
     list: { path: '/dealers', getHref: () => '/dealers' },
     detail: { path: '/dealers/:dealerId', getHref: (dealerId: string) => `/dealers/${encodeURIComponent(dealerId)}` },

@@ -18,14 +18,14 @@ const labels = (a: Actor, role: ShopRole | 'platform_admin' | null) => navItemsF
 describe('navItemsFor', () => {
   it('gives each role its own menu', () => {
     expect(labels(actor(null, { platformAdmin: true, shopId: null }), 'platform_admin')).toEqual(['Shops', 'Revenue']);
-    expect(labels(actor('owner'), 'owner')).toEqual(['Jobs', 'Customers', 'Team', 'Dealers', 'Reports', 'Billing', 'Settings']);
-    expect(labels(actor('tuner'), 'tuner')).toEqual(['Jobs', 'Customers', 'Team']);
+    expect(labels(actor('owner'), 'owner')).toEqual(['Jobs', 'Customers', 'Team', 'Dealers', 'Reports', 'Kits', 'Billing', 'Settings']);
+    expect(labels(actor('tuner'), 'tuner')).toEqual(['Jobs', 'Customers', 'Team', 'Kits']);
     expect(labels(actor('dealer'), 'dealer')).toEqual(['Jobs', 'Customers', 'Statement']);
     expect(labels(actor('customer'), 'customer')).toEqual(['My jobs', 'Vehicles']);
   });
 
   it('keeps the owner menu in a suspended shop, where only writes are forbidden', () => {
-    expect(labels(actor('owner', { shopReadOnly: true }), 'owner')).toEqual(['Jobs', 'Customers', 'Team', 'Dealers', 'Reports', 'Billing', 'Settings']);
+    expect(labels(actor('owner', { shopReadOnly: true }), 'owner')).toEqual(['Jobs', 'Customers', 'Team', 'Dealers', 'Reports', 'Kits', 'Billing', 'Settings']);
   });
 
   it('shows nothing to a user without a role', () => {

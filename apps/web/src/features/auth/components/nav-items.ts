@@ -23,6 +23,9 @@ export const screenAccess = {
   statement: (ability: AppAbility, viewer: Viewer) => viewer.role === 'dealer' && ability.can('read', 'Ledger'),
   mailbox: (ability: AppAbility) => ability.can('read', 'Mailbox'),
   reports: (ability: AppAbility) => ability.can('read', 'Report'),
+  // Customers and dealers read kits only to pick dates on a job; the kit pages are the shop's.
+  kits: (ability: AppAbility, viewer: Viewer) => (viewer.role === 'owner' || viewer.role === 'tuner') && ability.can('read', 'Kit'),
+  kitOverview: (ability: AppAbility, viewer: Viewer) => viewer.role === 'owner' && ability.can('update', 'Kit'),
 } satisfies Record<string, (ability: AppAbility, viewer: Viewer) => boolean>;
 
 export type Screen = keyof typeof screenAccess;
@@ -44,6 +47,7 @@ const NAV: Array<{ screen: Screen; label: (viewer: Viewer) => string; to: string
   { screen: 'dealers', label: () => 'Dealers', to: paths.dealers.list.getHref() },
   { screen: 'statement', label: () => 'Statement', to: paths.billing.myStatement.getHref() },
   { screen: 'reports', label: () => 'Reports', to: paths.reports.getHref() },
+  { screen: 'kits', label: () => 'Kits', to: paths.kits.list.getHref() },
   { screen: 'billing', label: () => 'Billing', to: paths.billing.shop.getHref() },
   { screen: 'shopSettings', label: () => 'Settings', to: paths.settings.shop.getHref() },
 ];

@@ -16,6 +16,7 @@ import { JobTimeline } from '../../../../features/jobs/components/job-timeline';
 import { LogRequestCard } from '../../../../features/jobs/components/log-request-card';
 import { MessageThread } from '../../../../features/jobs/components/message-thread';
 import { GoalsCard } from '../../../../features/jobs/components/special-requests-card';
+import { JobKitPanel } from '../../../../features/rentals/components/job-kit-panel';
 import { cn } from '../../../../lib/cn';
 import { errorMessage } from '../../../../lib/form-errors';
 
@@ -63,6 +64,7 @@ export function JobRoute() {
         </div>
         <div className="contents xl:flex xl:min-w-0 xl:flex-col xl:gap-6">
           <JobPaymentPanel jobId={data.id} job={data} />
+          <JobKitPanel jobId={data.id} />
           <MessageThread jobId={data.id} canPost={canPost} />
           <div className={later}>
             <JobTimeline entries={data.timeline} />

@@ -1,0 +1,131 @@
+import { expect, test, type Page } from '@playwright/test';
+import { LAPTOP, overflowPx, PHONE } from './a11y';
+import { signIn } from './support';
+
+// Issue 14's browser path: owner adds a kit; customer asks; owner books and ships; customer pays the fee and the
+// hold; the kit comes back damaged; the owner takes part of the deposit; the customer sees why.
+test.describe.configure({ mode: 'serial' });
+
+const KIT = `E2E kit ${Date.now()}`;
+const REASON = 'Cracked OBD connector housing';
+let jobId = '';
+
+async function payOnHostedPage(page: Page) {
+  await expect(page.getByText('Local test payment page.')).toBeVisible();
+  await page.getByRole('button', { name: /^(Pay|Save card)$/ }).click();
+}
+
+test('the owner adds a kit and sees it in the list at 1366 and 390 px', async ({ page }) => {
+  await page.setViewportSize(LAPTOP);
+  await signIn(page, 'owner@kestrel.test');
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Kits' }).click();
+  await expect(page.getByRole('heading', { level: 1, name: 'Kits' })).toBeVisible();
+  await page.getByRole('button', { name: 'Add kit' }).click();
+  await page.getByLabel('Name').fill(KIT);
+  await page.getByLabel('Interface serial number').fill('IF-E2E-0001');
+  await page.getByLabel('Laptop asset tag').fill('LT-E2E-01');
+  await page.getByLabel(/Price per week/).fill('120.00');
+  await page.getByLabel(/Deposit/).fill('500.00');
+  await page.getByLabel(/Late fee per day/).fill('15.00');
+  await page.getByLabel('Contents checklist').fill('Vehicle interface\nLaptop\nOBD cable\nBattery supporter');
+  await page.getByLabel('Platforms').fill('EA888 gen 3');
+  await page.getByRole('button', { name: 'Add kit', exact: true }).last().click();
+  const row = page.getByRole('row', { name: new RegExp(KIT) });
+  await expect(row).toBeVisible();
+  await expect(row.getByText('$120.00')).toBeVisible();
+  await page.screenshot({ path: '/tmp/rentals-kits-1366.png', fullPage: true });
+  await page.setViewportSize(PHONE);
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '/tmp/rentals-kits-390.png', fullPage: true });
+  await row.getByRole('link', { name: KIT }).click();
+  await expect(page.getByRole('heading', { level: 1, name: KIT })).toBeVisible();
+  await expect(page.getByRole('heading', { name: /^Bookings — / })).toBeVisible();
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '/tmp/rentals-kit-390.png', fullPage: true });
+});
+
+test('a customer asks for a kit on a job', async ({ page }) => {
+  await signIn(page, 'customer@kestrel.test');
+  // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
+  await page.setViewportSize(PHONE);
+  const jobs = (await (await page.request.get('/api/jobs?pageSize=100')).json()).data as Array<{ id: string; dealer: unknown; state: string }>;
+  const job = jobs.find((j) => j.dealer === null && j.state !== 'cancelled' && j.state !== 'dialed_in');
+  if (!job) throw new Error('no open direct job for the demo customer');
+  jobId = job.id;
+  await page.goto(`/jobs/${jobId}`);
+  await page.getByRole('button', { name: 'Ask for a kit' }).click();
+  await page.getByLabel('Start date').fill('2027-03-01');
+  await page.getByLabel('Due back').fill('2027-03-14');
+  await page.getByRole('form', { name: 'Ask for a kit' }).getByRole('button', { name: 'Ask for a kit' }).click();
+  await expect(page.getByRole('article', { name: /Kit rental: kit to be picked/ })).toBeVisible();
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '/tmp/rentals-ask-390.png', fullPage: true });
+});
+
+test('the owner books the new kit for the request', async ({ page }) => {
+  await page.setViewportSize(LAPTOP);
+  await signIn(page, 'owner@kestrel.test');
+  await page.goto(`/jobs/${jobId}`);
+  const rental = page.getByRole('article', { name: /Kit rental: kit to be picked/ }).last();
+  await rental.getByRole('button', { name: 'Book the kit' }).first().click();
+  await rental.getByLabel('Kit', { exact: true }).selectOption({ label: `${KIT} (IF-E2E-0001)` });
+  await rental.getByRole('button', { name: 'Book the kit' }).first().click();
+  await expect(page.getByRole('article', { name: `Kit rental: ${KIT}` })).toBeVisible();
+  await page.screenshot({ path: '/tmp/rentals-booked-1366.png', fullPage: true });
+});
+
+test('the customer agrees, pays the fee and authorises the deposit hold', async ({ page }) => {
+  await signIn(page, 'customer@kestrel.test');
+  // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
+  await page.setViewportSize(PHONE);
+  await page.goto(`/jobs/${jobId}`);
+  const rental = page.getByRole('article', { name: `Kit rental: ${KIT}` });
+  await expect(rental.getByText('$500.00')).toBeVisible();
+  await rental.getByLabel('I agree to the rental terms').check();
+  await rental.getByRole('button', { name: 'Agree to the terms' }).click();
+  await rental.getByRole('button', { name: /^Pay the rental fee/ }).click();
+  await payOnHostedPage(page);
+  await page.goto(`/jobs/${jobId}`);
+  await page.getByRole('article', { name: `Kit rental: ${KIT}` }).getByRole('button', { name: /^Authorise the deposit hold/ }).click();
+  await payOnHostedPage(page);
+  await page.goto(`/jobs/${jobId}`);
+  await expect(page.getByRole('article', { name: `Kit rental: ${KIT}` }).getByText('Rental fee paid')).toBeVisible({ timeout: 15_000 });
+  await page.screenshot({ path: '/tmp/rentals-paid-390.png', fullPage: true });
+});
+
+test('the owner ships, records a damaged return and captures part of the deposit', async ({ page }) => {
+  await page.setViewportSize(LAPTOP);
+  await signIn(page, 'owner@kestrel.test');
+  await page.goto(`/jobs/${jobId}`);
+  const rental = page.getByRole('article', { name: `Kit rental: ${KIT}` });
+  await rental.getByRole('button', { name: 'Mark shipped' }).first().click();
+  await rental.getByLabel('Carrier').fill('UPS');
+  await rental.getByLabel('Tracking number').fill('1Z999AA10123456784');
+  await rental.getByRole('button', { name: 'Mark shipped' }).first().click();
+  await expect(rental.getByText(/tracking UPS 1Z999AA10123456784/)).toBeVisible();
+  await rental.getByRole('button', { name: 'Kit received back' }).first().click();
+  await rental.getByLabel('Vehicle interface').check();
+  await rental.getByLabel('Laptop', { exact: true }).check();
+  await rental.getByLabel('Battery supporter').check();
+  await rental.getByLabel('Condition', { exact: true }).selectOption('damaged');
+  await rental.getByLabel('Condition notes').fill(REASON);
+  await rental.getByRole('button', { name: 'Kit received back' }).first().click();
+  await rental.getByRole('button', { name: 'Settle and close' }).first().click();
+  await rental.getByLabel(/Capture from the deposit/).fill('80.00');
+  await rental.getByLabel('Reason the customer sees').fill(REASON);
+  await rental.getByRole('button', { name: 'Settle and close' }).first().click();
+  await expect(rental.getByText('Closed', { exact: true })).toBeVisible();
+  await page.screenshot({ path: '/tmp/rentals-closed-1366.png', fullPage: true });
+});
+
+test('the customer sees why part of the deposit was taken', async ({ page }) => {
+  await signIn(page, 'customer@kestrel.test');
+  // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
+  await page.setViewportSize(PHONE);
+  await page.goto(`/jobs/${jobId}`);
+  const lines = page.getByRole('article', { name: `Kit rental: ${KIT}` }).getByRole('table', { name: 'Money lines' });
+  await expect(lines.getByText(new RegExp(REASON))).toBeVisible();
+  await expect(lines.getByText('$80.00')).toBeVisible();
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '/tmp/rentals-customer-390.png', fullPage: true });
+});
