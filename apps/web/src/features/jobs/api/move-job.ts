@@ -5,8 +5,9 @@ import { api, type ItemResponse } from '../../../lib/api-client';
 import { getNotificationsQueryOptions } from '../../notifications/api/get-notifications';
 import { jobsRootKey } from './get-jobs';
 
-export const moveJob = ({ jobId, to }: { jobId: string; to: JobState }) =>
-  api.post<ItemResponse<Job>>(`/api/jobs/${encodeURIComponent(jobId)}/transitions`, { to });
+/** `kitOutOverride`: the owner marks a job dialed in although its rental kit is still out (the server checks who). */
+export const moveJob = ({ jobId, to, kitOutOverride }: { jobId: string; to: JobState; kitOutOverride?: boolean }) =>
+  api.post<ItemResponse<Job>>(`/api/jobs/${encodeURIComponent(jobId)}/transitions`, { to, ...(kitOutOverride && { kitOutOverride }) });
 
 /** Moves a job by one of its allowed transitions; boards, lists and the job page refresh. */
 export function useMoveJob() {

@@ -103,6 +103,7 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
   const move = useMoveJob();
   const take = useTakeJob();
   const [confirming, setConfirming] = useState<AvailableTransition | null>(null);
+  const [kitOutOverride, setKitOutOverride] = useState(false);
   const [assigning, setAssigning] = useState(false);
   const subject = asSubject('Job', { shopId: me.shop?.id ?? '', assignedTunerId: job.tuner?.id ?? null, dealerId: job.dealer?.id ?? null, customerUserId: job.customer.id });
   const canTake = !job.tuner && ability.can('take', subject);
@@ -126,7 +127,10 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
     </Button>
   );
 
-  const run = (transition: AvailableTransition) => move.mutate({ jobId: job.id, to: transition.to }, { onSuccess: () => setConfirming(null) });
+  const run = (transition: AvailableTransition) =>
+    move.mutate({ jobId: job.id, to: transition.to, kitOutOverride: transition.to === 'dialed_in' && kitOutOverride }, { onSuccess: () => setConfirming(null) });
+  // Offered once the server has refused Dialed in (e.g. a rental kit still out); only the owner may override, the server decides.
+  const offerKitOverride = confirming?.to === 'dialed_in' && move.isError && me.role === 'owner';
 
   if (job.transitions.length === 0 && !canTake && !canAssign) return null;
   return (
@@ -161,10 +165,17 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
         onConfirm={() => confirming && run(confirming)}
         onCancel={() => {
           setConfirming(null);
+          setKitOutOverride(false);
           move.reset();
         }}
       >
         {confirming ? CONFIRMED[confirming.to] : null}
+        {offerKitOverride && (
+          <label className="mt-3 flex items-start gap-2 text-sm">
+            <input type="checkbox" className="mt-1" checked={kitOutOverride} onChange={(e) => setKitOutOverride(e.target.checked)} />
+            <span>Mark it dialed in anyway: the rental kit stays out and is still tracked on the job page.</span>
+          </label>
+        )}
       </ConfirmDialog>
       {canAssign && assigning && <AssignDialog job={job} open={assigning} onClose={() => setAssigning(false)} />}
     </div>
