@@ -1,15 +1,14 @@
 import { Router } from 'express';
-import { findShopById, insertShop, listShopsForPlatform, newId, setShopStatus, type ShopRow } from '@revloop/db';
+import { findShopById, listShopsForPlatform, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { emailSchema } from '@revloop/domain/auth';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
 import { platformRevenue } from '../billing/revenue.service';
-import { createInvitation } from '../invitations/invitation.service';
 import { nameSchema } from '@revloop/domain/text';
+import { changeShopStatus, createShop } from './admin.service';
 
 const createShopSchema = z.object({
   name: nameSchema(2, 80),
@@ -22,7 +21,7 @@ const shopRowToShop = (r: ShopRow) => ({ id: r.id, name: r.name, status: r.statu
 
 export function createAdminRouter(deps: AppDeps): Router {
   const router = Router();
-  const { db, clock, env, mailer } = deps;
+  const { db } = deps;
 
   router.get('/shops', async (req, res) => {
     const auth = requireAuth(req);
@@ -42,22 +41,7 @@ export function createAdminRouter(deps: AppDeps): Router {
     const auth = requireAuth(req);
     authorize(auth, 'create', 'Shop');
     const input = parseInput(createShopSchema, req.body);
-    const shop = await insertShop(db, {
-      id: newId(),
-      name: input.name,
-      currency: input.currency ?? 'USD',
-      created_at: clock.now().toISOString(),
-    });
-    await createInvitation(db, mailer, env.APP_ORIGIN, { shopId: shop.id, email: input.ownerEmail, role: 'owner', invitedBy: null }, clock.now());
-    await recordAudit(db, {
-      shopId: shop.id,
-      actorUserId: auth.user.id,
-      action: 'shop.created',
-      subjectType: 'Shop',
-      subjectId: shop.id,
-      details: { ownerEmail: input.ownerEmail, ownerName: input.ownerName },
-      at: clock.now(),
-    });
+    const shop = await createShop(deps, auth, input);
     res.status(201).json({ data: shopRowToShop(shop) });
   });
 
@@ -70,8 +54,7 @@ export function createAdminRouter(deps: AppDeps): Router {
       authorize(auth, 'suspend', 'Shop');
       const shop = await findShopById(db, req.params.id);
       if (!shop) throw new DomainError('not_found', 'Shop not found.');
-      const updated = await setShopStatus(db, shop.id, status, clock.now().toISOString());
-      await recordAudit(db, { shopId: shop.id, actorUserId: auth.user.id, action: `shop.${status}`, subjectType: 'Shop', subjectId: shop.id, at: clock.now() });
+      const updated = await changeShopStatus(deps, auth, shop.id, status);
       res.json({ data: shopRowToShop(updated!) });
     });
   }

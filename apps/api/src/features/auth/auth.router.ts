@@ -1,14 +1,13 @@
 import { Router } from 'express';
-import { findUserByEmail, updateUser } from '@revloop/db';
+import { findUserByEmail } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { resetConfirmSchema, resetRequestSchema, signInSchema, signUpSchema } from '@revloop/domain/auth';
 import type { AppDeps } from '../../context';
 import { requireAuth } from '../../http/auth-context';
 import { readCookie } from '../../http/cookies';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
 import { passwordResetMail, welcomeMail } from '../mail/mail-templates';
-import { finishPasswordReset, signInShopId, signUpShop, startPasswordReset } from './auth.service';
+import { finishPasswordReset, markSignedIn, signInShopId, signUpShop, startPasswordReset } from './auth.service';
 import { verifyPassword } from './password';
 import { clearSessionCookie, DEVICE_COOKIE, deviceCookie, invalidateSession } from './session.service';
 import { secureCookiesOf, startSession } from './start-session';
@@ -20,8 +19,7 @@ export function createAuthRouter(deps: AppDeps): Router {
 
   router.post('/sign-up', async (req, res) => {
     const input = parseInput(signUpSchema, req.body);
-    const { user, shopId } = await signUpShop(db, input, clock.now());
-    await recordAudit(db, { shopId, actorUserId: user.id, action: 'shop.created', subjectType: 'Shop', subjectId: shopId, at: clock.now() });
+    const { user, shopId } = await signUpShop(deps, input);
     await mailer.send(welcomeMail(user.email, { shopName: input.shopName, url: env.APP_ORIGIN }));
     await startSession(deps, req, res, user.id, shopId, 201);
   });
@@ -41,7 +39,7 @@ export function createAuthRouter(deps: AppDeps): Router {
     // This browser now has its own sign-in budget for the account (docs/decisions/002).
     res.append('Set-Cookie', deviceCookie(throttle.deviceToken(input.email), secure));
     const shopId = await signInShopId(db, user);
-    await updateUser(db, user.id, { last_sign_in_at: clock.now().toISOString() });
+    await markSignedIn(db, user.id, clock.now());
     await startSession(deps, req, res, user.id, shopId, 200);
   });
 

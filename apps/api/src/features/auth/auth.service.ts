@@ -13,22 +13,24 @@ import {
   type UserRow,
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
+import type { AppDeps } from '../../context';
+import { recordAudit } from '../audit/audit.service';
 import { hashPassword } from './password';
 import { generateToken, hashToken, invalidateUserSessions } from './session.service';
 
 const RESET_TTL_MS = 60 * 60_000;
 
+/** Opens a shop with its first owner, and audits it. */
 export async function signUpShop(
-  db: Db,
+  { db, clock }: AppDeps,
   input: { shopName: string; name: string; email: string; password: string },
-  now: Date,
 ): Promise<{ user: UserRow; shopId: string }> {
   if (await findUserByEmail(db, input.email)) {
     throw new DomainError('conflict', 'An account with this e-mail already exists. Sign in instead.');
   }
   const passwordHash = await hashPassword(input.password);
-  const at = now.toISOString();
-  return db.transaction().execute(async (trx) => {
+  const at = clock.now().toISOString();
+  const signedUp = await db.transaction().execute(async (trx) => {
     const shop = await insertShop(trx, { id: newId(), name: input.shopName, created_at: at });
     const user = await insertUser(trx, {
       id: newId(),
@@ -40,6 +42,8 @@ export async function signUpShop(
     await insertMembership(trx, { id: newId(), shop_id: shop.id, user_id: user.id, role: 'owner', created_at: at });
     return { user, shopId: shop.id };
   });
+  await recordAudit(db, { shopId: signedUp.shopId, actorUserId: signedUp.user.id, action: 'shop.created', subjectType: 'Shop', subjectId: signedUp.shopId, at: clock.now() });
+  return signedUp;
 }
 
 /** The shop a user signs in to: none for platform admins, else their oldest active membership. */
@@ -48,6 +52,11 @@ export async function signInShopId(db: Db, user: UserRow): Promise<string | null
   const membership = await findSignInMembership(db, user.id);
   if (!membership) throw new DomainError('forbidden', 'This account has no active shop membership. Ask the shop owner.');
   return membership.shop_id;
+}
+
+/** Notes when the user last signed in. */
+export async function markSignedIn(db: Db, userId: string, now: Date): Promise<void> {
+  await updateUser(db, userId, { last_sign_in_at: now.toISOString() });
 }
 
 /** Returns the token to mail, or null when there is no such account (the caller answers the same either way). */

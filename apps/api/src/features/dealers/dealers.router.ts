@@ -1,13 +1,13 @@
 import { Router } from 'express';
-import { countJobs, dealerBalance, findDealer, insertDealer, listDealers, listMembers, newId, type DealerRow } from '@revloop/db';
+import { countJobs, dealerBalance, findDealer, listDealers, listMembers, type DealerRow } from '@revloop/db';
 import { asSubject, emailSchema, jobScopeFor } from '@revloop/domain/auth';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
 import { dealerLedger, dealerStatementCsv } from '../billing/ledger.service';
 import { nameSchema } from '@revloop/domain/text';
+import { createDealer } from './dealers.service';
 
 const dealerInputSchema = z.object({
   name: nameSchema(2, 100),
@@ -27,7 +27,7 @@ const dealerRowToDealer = (r: DealerRow) => ({
 
 export function createDealersRouter(deps: AppDeps): Router {
   const router = Router();
-  const { db, clock } = deps;
+  const { db } = deps;
 
   router.get('/', async (req, res) => {
     const auth = requireShop(req);
@@ -45,16 +45,7 @@ export function createDealersRouter(deps: AppDeps): Router {
     const auth = requireShop(req);
     authorize(auth, 'create', 'Dealer');
     const input = parseInput(dealerInputSchema, req.body);
-    const dealer = await insertDealer(db, {
-      id: newId(),
-      shop_id: auth.shop.id,
-      name: input.name,
-      contact_name: input.contactName,
-      contact_email: input.contactEmail,
-      phone: input.phone ?? null,
-      created_at: clock.now().toISOString(),
-    });
-    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'dealer.created', subjectType: 'Dealer', subjectId: dealer.id, at: clock.now() });
+    const dealer = await createDealer(deps, auth, input);
     res.status(201).json({ data: dealerRowToDealer(dealer) });
   });
 

@@ -1,10 +1,9 @@
 import { Router } from 'express';
-import { updateUser } from '@revloop/db';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { loadAuthContext, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { toMe } from './me.service';
+import { toMe, updateMe } from './me.service';
 import { nameSchema } from '@revloop/domain/text';
 
 const updateMeSchema = z.object({
@@ -27,10 +26,7 @@ export function createMeRouter({ db }: AppDeps): Router {
   router.patch('/', async (req, res) => {
     const auth = requireAuth(req);
     const input = parseInput(updateMeSchema, req.body);
-    await updateUser(db, auth.user.id, {
-      ...(input.name !== undefined && { name: input.name }),
-      ...(input.unitSystem !== undefined && { unit_system: input.unitSystem }),
-    });
+    await updateMe(db, auth.user.id, input);
     const fresh = await loadAuthContext(db, auth.sessionId, auth.user.id, auth.shop?.id ?? null);
     res.json(await toMe(db, fresh ?? auth));
   });

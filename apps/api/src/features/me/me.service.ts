@@ -1,5 +1,5 @@
 import type { Me } from '@revloop/contract';
-import { findDealer, type Db } from '@revloop/db';
+import { findDealer, updateUser, type Db } from '@revloop/db';
 import type { AuthContext } from '../../http/auth-context';
 
 /** The `/api/me` shape: who is signed in, in which shop and role, and the actor the web builds its ability from. */
@@ -16,4 +16,12 @@ export async function toMe(db: Db, auth: AuthContext): Promise<Me> {
     dealer: dealer ? { id: dealer.id, name: dealer.name } : null,
     actor,
   };
+}
+
+/** Saves the signed-in user's own name and unit system; what is left out stays. */
+export async function updateMe(db: Db, userId: string, input: { name?: string; unitSystem?: 'metric' | 'imperial' }): Promise<void> {
+  await updateUser(db, userId, {
+    ...(input.name !== undefined && { name: input.name }),
+    ...(input.unitSystem !== undefined && { unit_system: input.unitSystem }),
+  });
 }

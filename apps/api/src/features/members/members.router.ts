@@ -4,7 +4,6 @@ import {
   findDealer,
   findMembership,
   listMembers,
-  updateMembership,
   type MemberListRow,
   type MembershipRow,
 } from '@revloop/db';
@@ -14,9 +13,8 @@ import { asSubject, STAFF_ROLES } from '@revloop/domain/auth';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
 import { assertSeatFor } from '../billing/plan-limits.service';
-import { invalidateUserSessions } from '../auth/session.service';
+import { changeMemberRole, setMemberStatus } from './members.service';
 
 /** Owners and tuners work the bench, so they fill the plan's tuner seats. */
 const takesSeat = (role: string) => role === 'owner' || role === 'tuner';
@@ -33,7 +31,8 @@ const memberRowToMember = (r: MemberListRow): Member => ({
   lastSignInAt: r.last_sign_in_at,
 });
 
-export function createMembersRouter({ db, clock }: AppDeps): Router {
+export function createMembersRouter(deps: AppDeps): Router {
+  const { db, clock } = deps;
   const router = Router();
 
   async function loadForChange(auth: AuthContext & { shop: { id: string } }, id: string): Promise<MembershipRow> {
@@ -74,17 +73,7 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
     const dealerId = input.role === 'dealer' || input.role === 'customer' ? (input.dealerId ?? (input.role === 'customer' ? row.dealer_id : null)) : null;
     if (input.role === 'dealer' && !dealerId) throw new DomainError('validation', 'Choose the dealer account this user acts for.');
     if (dealerId && !(await findDealer(db, auth.shop.id, dealerId))) throw new DomainError('validation', 'That dealer is not part of this shop.');
-    await updateMembership(db, auth.shop.id, row.id, { role: input.role, dealer_id: dealerId });
-    await invalidateUserSessions(db, row.user_id, auth.shop.id);
-    await recordAudit(db, {
-      shopId: auth.shop.id,
-      actorUserId: auth.user.id,
-      action: 'member.role_changed',
-      subjectType: 'Member',
-      subjectId: row.id,
-      details: { from: row.role, to: input.role },
-      at: clock.now(),
-    });
+    await changeMemberRole(deps, auth, row, input.role, dealerId);
     res.json(await respond(auth.shop.id, row.id));
   });
 
@@ -96,20 +85,8 @@ export function createMembersRouter({ db, clock }: AppDeps): Router {
       const auth = requireShop(req);
       const row = await loadForChange(auth, req.params.id);
       if (status === 'active' && row.status !== 'active' && takesSeat(row.role)) await assertSeatFor(db, auth.shop.id, clock.now());
-      if (status === 'deactivated') {
-        await assertNotLastOwner(auth.shop.id, row);
-        // Deactivating ends the member's sessions in this shop at once, not at their next expiry.
-        await invalidateUserSessions(db, row.user_id, auth.shop.id);
-      }
-      await updateMembership(db, auth.shop.id, row.id, { status });
-      await recordAudit(db, {
-        shopId: auth.shop.id,
-        actorUserId: auth.user.id,
-        action: `member.${path}d`,
-        subjectType: 'Member',
-        subjectId: row.id,
-        at: clock.now(),
-      });
+      if (status === 'deactivated') await assertNotLastOwner(auth.shop.id, row);
+      await setMemberStatus(deps, auth, row, path);
       res.json(await respond(auth.shop.id, row.id));
     });
   }

@@ -1,9 +1,10 @@
 import { Router } from 'express';
-import { countUnreadNotifications, listNotifications, markNotificationsRead, updateUser } from '@revloop/db';
+import { countUnreadNotifications, listNotifications } from '@revloop/db';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { requireAuth, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
+import { markRead, saveNotificationPrefs } from './notifications.service';
 import { NOTIFICATION_KINDS, NOTIFICATION_LABELS, parseNotificationPrefs } from './notify.service';
 
 const readSchema = z.object({ ids: z.array(z.string().min(1)).max(500).optional() });
@@ -11,7 +12,8 @@ const prefsSchema = z.object({
   prefs: z.partialRecord(z.enum(NOTIFICATION_KINDS), z.object({ email: z.boolean() })),
 });
 
-export function createNotificationsRouter({ db, clock }: AppDeps): Router {
+export function createNotificationsRouter(deps: AppDeps): Router {
+  const { db } = deps;
   const router = Router();
 
   router.get('/', async (req, res) => {
@@ -27,7 +29,7 @@ export function createNotificationsRouter({ db, clock }: AppDeps): Router {
   router.post('/read', async (req, res) => {
     const auth = requireShop(req);
     const { ids } = parseInput(readSchema, req.body ?? {});
-    await markNotificationsRead(db, auth.shop.id, auth.user.id, clock.now().toISOString(), ids);
+    await markRead(deps, auth.shop.id, auth.user.id, ids);
     res.json({ data: { unread: await countUnreadNotifications(db, auth.shop.id, auth.user.id) } });
   });
 
@@ -40,8 +42,7 @@ export function createNotificationsRouter({ db, clock }: AppDeps): Router {
   router.put('/preferences', async (req, res) => {
     const auth = requireAuth(req);
     const { prefs } = parseInput(prefsSchema, req.body);
-    const merged = { ...parseNotificationPrefs(auth.user.notification_prefs), ...prefs };
-    await updateUser(db, auth.user.id, { notification_prefs: JSON.stringify(merged) });
+    const merged = await saveNotificationPrefs(db, auth.user, prefs);
     res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: merged[kind].email })) });
   });
 

@@ -1,11 +1,11 @@
 import { Router } from 'express';
-import { findPackage, insertPackage, listPackages, newId, updatePackage, type PackageRow } from '@revloop/db';
+import { findPackage, listPackages, type PackageRow } from '@revloop/db';
 import { packageInputSchema } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
+import { createPackage, editPackage, setPackageActive } from './packages.service';
 
 /** Dealers see their wholesale price; customers never see it. */
 function packageRowToPackage(row: PackageRow, role: string | null) {
@@ -24,7 +24,8 @@ function packageRowToPackage(row: PackageRow, role: string | null) {
 
 const patchSchema = z.object({ active: z.boolean() });
 
-export function createPackagesRouter({ db, clock }: AppDeps): Router {
+export function createPackagesRouter(deps: AppDeps): Router {
+  const { db } = deps;
   const router = Router();
 
   router.get('/', async (req, res) => {
@@ -38,18 +39,7 @@ export function createPackagesRouter({ db, clock }: AppDeps): Router {
     const auth = requireShop(req);
     authorize(auth, 'create', 'Package');
     const input = parseInput(packageInputSchema, req.body);
-    const row = await insertPackage(db, {
-      id: newId(),
-      shop_id: auth.shop.id,
-      name: input.name,
-      description: input.description,
-      modules: JSON.stringify(input.modules),
-      retail_price_minor: input.retailPriceMinor,
-      dealer_price_minor: input.dealerPriceMinor,
-      rounds_included: input.roundsIncluded,
-      created_at: clock.now().toISOString(),
-    });
-    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'package.created', subjectType: 'Package', subjectId: row.id, at: clock.now() });
+    const row = await createPackage(deps, auth, input);
     res.status(201).json({ data: packageRowToPackage(row, auth.actor.role) });
   });
 
@@ -58,14 +48,7 @@ export function createPackagesRouter({ db, clock }: AppDeps): Router {
     const row = await findPackage(db, auth.shop.id, req.params.id);
     authorizeRow(auth, 'update', 'Package', row && { shopId: row.shop_id });
     const input = parseInput(packageInputSchema, req.body);
-    const updated = await updatePackage(db, auth.shop.id, row!.id, {
-      name: input.name,
-      description: input.description,
-      modules: JSON.stringify(input.modules),
-      retail_price_minor: input.retailPriceMinor,
-      dealer_price_minor: input.dealerPriceMinor,
-      rounds_included: input.roundsIncluded,
-    });
+    const updated = await editPackage(deps, auth.shop.id, row!.id, input);
     res.json({ data: packageRowToPackage(updated!, auth.actor.role) });
   });
 
@@ -74,7 +57,7 @@ export function createPackagesRouter({ db, clock }: AppDeps): Router {
     const row = await findPackage(db, auth.shop.id, req.params.id);
     authorizeRow(auth, 'update', 'Package', row && { shopId: row.shop_id });
     const { active } = parseInput(patchSchema, req.body);
-    const updated = await updatePackage(db, auth.shop.id, row!.id, { active: active ? 1 : 0 });
+    const updated = await setPackageActive(deps, auth.shop.id, row!.id, active);
     res.json({ data: packageRowToPackage(updated!, auth.actor.role) });
   });
 

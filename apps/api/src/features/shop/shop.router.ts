@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { isSlugTaken, updateShop, type ShopRow } from '@revloop/db';
+import type { ShopRow } from '@revloop/db';
 import { shopFrontDoorPatchSchema } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings, shopSettingsPatchSchema } from '@revloop/domain/shops';
@@ -7,9 +7,9 @@ import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
 import { nameSchema } from '@revloop/domain/text';
 import { shopSetup } from './shop-setup.service';
+import { changeShop } from './shop.service';
 
 const patchSchema = z.object({ name: nameSchema(2, 80).optional(), settings: shopSettingsPatchSchema.optional() }).extend(shopFrontDoorPatchSchema.shape);
 
@@ -25,7 +25,8 @@ const shopView = (shop: ShopRow, auth: AuthContext) => ({
   publicPage: shop.public_page === 1,
 });
 
-export function createShopRouter({ db, clock }: AppDeps): Router {
+export function createShopRouter(deps: AppDeps): Router {
+  const { db, clock } = deps;
   const router = Router();
 
   router.get('/', (req, res) => {
@@ -41,21 +42,7 @@ export function createShopRouter({ db, clock }: AppDeps): Router {
     const slug = input.slug === undefined ? auth.shop.slug : input.slug;
     const publicPage = slug !== null && (input.publicPage ?? auth.shop.public_page === 1);
     if (input.publicPage && slug === null) throw new DomainError('validation', 'Choose the page address before turning the public page on.');
-    const clash = () => new DomainError('conflict', `Another shop already uses the address /s/${slug}. Choose another.`);
-    if (slug !== null && slug !== auth.shop.slug && (await isSlugTaken(db, slug, auth.shop.id))) throw clash();
-    const shop = await updateShop(db, auth.shop.id, {
-      ...(input.name && { name: input.name }),
-      settings: JSON.stringify(settings),
-      slug,
-      public_page: publicPage ? 1 : 0,
-      ...(input.description !== undefined && { description: input.description }),
-    }).catch((error: unknown) => {
-      // Two owners taking the same address at once: the unique index decides, and the loser hears the same 409.
-      if (error instanceof Error && /UNIQUE|unique/.test(error.message) && /slug/.test(error.message)) throw clash();
-      throw error;
-    });
-    if (!shop) throw new DomainError('not_found', 'Shop not found.');
-    await recordAudit(db, { shopId: shop.id, actorUserId: auth.user.id, action: 'shop.settings_changed', subjectType: 'Shop', subjectId: shop.id, at: clock.now() });
+    const shop = await changeShop(deps, auth, { name: input.name, settings, slug, publicPage, description: input.description });
     res.json({ data: shopView(shop, auth) });
   });
 

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { findMembershipOfUser, findVehicle, insertVehicle, listVehicles, newId, updateVehicle, vehicleColumns, type VehicleListRow, type VehicleScope } from '@revloop/db';
+import { findMembershipOfUser, findVehicle, listVehicles, type VehicleListRow, type VehicleScope } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { Actor } from '@revloop/domain/auth';
 import { checkVin, parseTyreSize, rollingCircumference, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type CircumferenceSource, type VehicleInput } from '@revloop/domain/vehicles';
@@ -7,8 +7,8 @@ import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
-import { recordAudit } from '../audit/audit.service';
 import { vehicleHistory } from './vehicle-history.service';
+import { createVehicle, editVehicle } from './vehicles.service';
 
 const scopeOf = (actor: Actor): VehicleScope =>
   actor.role === 'customer' ? { kind: 'owner', userId: actor.userId } : actor.role === 'dealer' && actor.dealerId ? { kind: 'dealer', dealerId: actor.dealerId } : { kind: 'shop' };
@@ -63,7 +63,8 @@ function vehicleRowToVehicle(row: VehicleListRow) {
 
 const createSchema = z.object({ ownerUserId: z.string().min(1).optional(), vehicle: vehicleInputSchema });
 
-export function createVehiclesRouter({ db, clock }: AppDeps): Router {
+export function createVehiclesRouter(deps: AppDeps): Router {
+  const { db } = deps;
   const router = Router();
 
   router.get('/', async (req, res) => {
@@ -96,18 +97,8 @@ export function createVehiclesRouter({ db, clock }: AppDeps): Router {
     const membership = await findMembershipOfUser(db, auth.shop.id, owner);
     if (!membership || membership.role !== 'customer') throw new DomainError('validation', 'The owner must be a customer of this shop.');
     authorizeRow(auth, 'create', 'Vehicle', { shopId: auth.shop.id, ownerUserId: owner, dealerId: membership.dealer_id });
-    const at = clock.now().toISOString();
-    const row = await insertVehicle(db, {
-      id: newId(),
-      shop_id: auth.shop.id,
-      owner_user_id: owner,
-      dealer_id: membership.dealer_id,
-      ...vehicleColumns(vehicle),
-      created_at: at,
-      updated_at: at,
-    });
-    await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'vehicle.created', subjectType: 'Vehicle', subjectId: row.id, at: clock.now() });
-    res.status(201).json({ data: vehicleRowToVehicle((await findVehicle(db, auth.shop.id, row.id))!) });
+    const id = await createVehicle(deps, auth, { userId: owner, dealerId: membership.dealer_id }, vehicle);
+    res.status(201).json({ data: vehicleRowToVehicle((await findVehicle(db, auth.shop.id, id))!) });
   });
 
   router.put('/:id', async (req, res) => {
@@ -115,7 +106,7 @@ export function createVehiclesRouter({ db, clock }: AppDeps): Router {
     const row = await findVehicle(db, auth.shop.id, req.params.id);
     authorizeRow(auth, 'update', 'Vehicle', row && vehicleSubject(row));
     const vehicle = parseInput(vehicleInputSchema, req.body);
-    await updateVehicle(db, auth.shop.id, row!.id, { ...vehicleColumns(vehicle), updated_at: clock.now().toISOString() });
+    await editVehicle(deps, auth.shop.id, row!.id, vehicle);
     res.json({ data: vehicleRowToVehicle((await findVehicle(db, auth.shop.id, row!.id))!) });
   });
 

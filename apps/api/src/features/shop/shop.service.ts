@@ -1,0 +1,35 @@
+import { isSlugTaken, updateShop, type ShopRow } from '@revloop/db';
+import { DomainError } from '@revloop/domain';
+import type { ShopSettings } from '@revloop/domain/shops';
+import type { AppDeps } from '../../context';
+import type { AuthContext } from '../../http/auth-context';
+import { recordAudit } from '../audit/audit.service';
+
+export interface ShopChange {
+  name?: string;
+  settings: ShopSettings;
+  slug: string | null;
+  publicPage: boolean;
+  description?: string;
+}
+
+/** Saves the shop's name, settings and public page, refusing an address another shop uses; audits the change. */
+export async function changeShop({ db, clock }: AppDeps, auth: AuthContext & { shop: ShopRow }, change: ShopChange): Promise<ShopRow> {
+  const { slug } = change;
+  const clash = () => new DomainError('conflict', `Another shop already uses the address /s/${slug}. Choose another.`);
+  if (slug !== null && slug !== auth.shop.slug && (await isSlugTaken(db, slug, auth.shop.id))) throw clash();
+  const shop = await updateShop(db, auth.shop.id, {
+    ...(change.name && { name: change.name }),
+    settings: JSON.stringify(change.settings),
+    slug,
+    public_page: change.publicPage ? 1 : 0,
+    ...(change.description !== undefined && { description: change.description }),
+  }).catch((error: unknown) => {
+    // Two owners taking the same address at once: the unique index decides, and the loser hears the same 409.
+    if (error instanceof Error && /UNIQUE|unique/.test(error.message) && /slug/.test(error.message)) throw clash();
+    throw error;
+  });
+  if (!shop) throw new DomainError('not_found', 'Shop not found.');
+  await recordAudit(db, { shopId: shop.id, actorUserId: auth.user.id, action: 'shop.settings_changed', subjectType: 'Shop', subjectId: shop.id, at: clock.now() });
+  return shop;
+}
