@@ -9,6 +9,7 @@ import {
   insertUser,
   markInvitationAccepted,
   newId,
+  revokeInvitation,
   updateMembership,
   updateUser,
   type Db,
@@ -17,6 +18,8 @@ import {
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
+import type { AppDeps } from '../../context';
+import { recordAudit } from '../audit/audit.service';
 import { assertSeatFor } from '../billing/plan-limits.service';
 import type { Mailer } from '../mail/mailer';
 import { invitationMail } from '../mail/mail-templates';
@@ -145,4 +148,47 @@ export async function acceptInvitation(
     return user.id;
   });
   return { userId, shopId: invitation.shop_id, invitation };
+}
+
+type Recorder = Pick<AppDeps, 'db' | 'clock'>;
+
+/** Accepts an invitation and records it in the shop's audit trail. */
+export async function acceptInvitationRecorded(deps: Recorder, token: string, input: { name: string; password: string }) {
+  const accepted = await acceptInvitation(deps.db, token, input, deps.clock.now());
+  await recordAudit(deps.db, {
+    shopId: accepted.shopId,
+    actorUserId: accepted.userId,
+    action: 'invitation.accepted',
+    subjectType: 'Invitation',
+    subjectId: accepted.invitation.id,
+    details: { role: accepted.invitation.role },
+    at: deps.clock.now(),
+  });
+  return accepted;
+}
+
+/** Sends an invitation from a member of the shop and records it. */
+export async function sendInvitation(
+  deps: Recorder & Pick<AppDeps, 'mailer' | 'env'>,
+  invite: InviteInput & { invitedBy: { id: string } },
+) {
+  const invitation = await createInvitation(deps.db, deps.mailer, deps.env.APP_ORIGIN, invite, deps.clock.now());
+  await recordAudit(deps.db, {
+    shopId: invite.shopId,
+    actorUserId: invite.invitedBy.id,
+    action: 'invitation.sent',
+    subjectType: 'Invitation',
+    subjectId: invitation.id,
+    details: { email: invitation.email, role: invitation.role },
+    at: deps.clock.now(),
+  });
+  return invitation;
+}
+
+/** Revokes a pending invitation (409 when it was already used or revoked) and records it. */
+export async function withdrawInvitation(deps: Recorder, shopId: string, actorUserId: string, invitationId: string): Promise<void> {
+  if (!(await revokeInvitation(deps.db, shopId, invitationId, deps.clock.now().toISOString()))) {
+    throw new DomainError('conflict', 'This invitation was already used or revoked.');
+  }
+  await recordAudit(deps.db, { shopId, actorUserId, action: 'invitation.revoked', subjectType: 'Invitation', subjectId: invitationId, at: deps.clock.now() });
 }
