@@ -4,8 +4,8 @@ import { linkFromMailbox, signIn } from './support';
 /** What each demo role's main navigation shows (DESIGN roles table; the nav follows the ability). */
 const NAV: Array<[email: string, links: string[]]> = [
   ['admin@revloop.test', ['Shops']],
-  ['owner@kestrel.test', ['Jobs', 'Team', 'Dealers', 'Settings']],
-  ['tuner@kestrel.test', ['Jobs', 'Team']],
+  ['owner@kestrel.test', ['Jobs', 'Customers', 'Team', 'Dealers', 'Reports', 'Kits', 'Settings']],
+  ['tuner@kestrel.test', ['Jobs', 'Customers', 'Team', 'Kits']],
   ['dealer@kestrel.test', ['Jobs', 'Customers']],
   ['customer@kestrel.test', ['My jobs', 'Vehicles']],
 ];
@@ -16,7 +16,7 @@ for (const [email, links] of NAV) {
     const nav = page.getByRole('navigation', { name: 'Main' });
     for (const label of links) await expect(nav.getByRole('link', { name: label, exact: true })).toBeVisible();
     const all = await nav.getByRole('link').allInnerTexts();
-    for (const other of ['Shops', 'Jobs', 'My jobs', 'Team', 'Dealers', 'Customers', 'Vehicles', 'Settings'].filter((l) => !links.includes(l))) {
+    for (const other of ['Shops', 'Jobs', 'My jobs', 'Team', 'Dealers', 'Customers', 'Vehicles', 'Reports', 'Kits', 'Settings'].filter((l) => !links.includes(l))) {
       expect(all.map((t) => t.trim())).not.toContain(other);
     }
   });
