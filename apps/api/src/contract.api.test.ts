@@ -4,18 +4,26 @@ import {
   datalogMappingResponseSchema,
   datalogSeriesResponseSchema,
   dealerBalancesResponseSchema,
+  dealerDetailResponseSchema,
+  dealersResponseSchema,
   dealerLedgerResponseSchema,
   diffHexResponseSchema,
   fileDiffResponseSchema,
+  invitationsResponseSchema,
   jobDatalogsResponseSchema,
   jobDetailResponseSchema,
   jobFilesResponseSchema,
   jobListResponseSchema,
   jobMessagesResponseSchema,
   jobPaymentsResponseSchema,
+  mailboxResponseSchema,
   meSessionResponseSchema,
   membersResponseSchema,
+  notificationsResponseSchema,
+  packagesResponseSchema,
+  platformShopsResponseSchema,
   revenueResponseSchema,
+  shopResponseSchema,
   subscriptionResponseSchema,
   verificationResponseSchema,
   type JobSortKey,
@@ -132,5 +140,22 @@ describe('the API answers in the shapes of @revloop/contract', () => {
       await expectParses(await signIn(t.app, email), '/api/me/session', meSessionResponseSchema);
     }
     await expectParses(request.agent(t.app), '/api/me/session', meSessionResponseSchema);
+  });
+
+  it('shop, packages, dealers, invitations, notifications, the platform’s shops and the development mailbox', async () => {
+    await owner.post('/api/invitations').send({ email: 'contract@invite.test', role: 'dealer', dealerId: w.dealer.id }).expect(201);
+    await expectParses(owner, '/api/shop', shopResponseSchema);
+    await expectParses(owner, '/api/packages', packagesResponseSchema);
+    await expectParses(await signIn(t.app, w.people.customer.email), '/api/packages', packagesResponseSchema);
+    await expectParses(owner, '/api/dealers', dealersResponseSchema);
+    await expectParses(owner, `/api/dealers/${w.dealer.id}`, dealerDetailResponseSchema);
+    await expectParses(await signIn(t.app, w.people.tuner.email), `/api/dealers/${w.dealer.id}`, dealerDetailResponseSchema);
+    await expectParses(owner, '/api/invitations', invitationsResponseSchema);
+    const notices = (await expectParses(await signIn(t.app, w.people.tuner.email), '/api/notifications', notificationsResponseSchema)) as { data: unknown[] };
+    expect(notices.data.length).toBeGreaterThan(0);
+    const admin = await signIn(t.app, w.admin.email);
+    await expectParses(admin, '/api/admin/shops', platformShopsResponseSchema);
+    const mails = (await expectParses(admin, '/api/dev/mailbox', mailboxResponseSchema)) as { data: unknown[] };
+    expect(mails.data.length).toBeGreaterThan(0);
   });
 });

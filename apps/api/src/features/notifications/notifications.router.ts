@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import type { Notification } from '@revloop/contract';
 import { countUnreadNotifications, listNotifications } from '@revloop/db';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
@@ -21,7 +22,7 @@ export function createNotificationsRouter(deps: AppDeps): Router {
     const rows = await listNotifications(db, auth.shop.id, auth.user.id);
     const unread = await countUnreadNotifications(db, auth.shop.id, auth.user.id);
     res.json({
-      data: rows.map((r) => ({ id: r.id, kind: r.kind, title: r.title, body: r.body, jobId: r.job_id, readAt: r.read_at, createdAt: r.created_at })),
+      data: rows.map((r): Notification => ({ id: r.id, kind: r.kind, title: r.title, body: r.body, jobId: r.job_id, readAt: r.read_at, createdAt: r.created_at })),
       meta: { total: rows.length, unread },
     });
   });

@@ -1,0 +1,18 @@
+import { z } from 'zod';
+import { listWithMeta, timestamp } from './envelope';
+
+/** One in-app notice of the signed-in user. */
+export const notificationSchema = z.object({
+  id: z.string(),
+  kind: z.string(),
+  title: z.string(),
+  body: z.string(),
+  jobId: z.string().nullable(),
+  readAt: timestamp.nullable(),
+  createdAt: timestamp,
+});
+export type Notification = z.infer<typeof notificationSchema>;
+
+/** `GET /api/notifications`: the user's notices and how many are unread. */
+export const notificationsResponseSchema = listWithMeta(notificationSchema, z.object({ total: z.number(), unread: z.number() }));
+export type NotificationsResponse = z.infer<typeof notificationsResponseSchema>;
