@@ -9,6 +9,7 @@ import {
   dealerLedgerResponseSchema,
   diffHexResponseSchema,
   fileDiffResponseSchema,
+  invitationLookupResponseSchema,
   invitationsResponseSchema,
   jobDatalogsResponseSchema,
   jobDetailResponseSchema,
@@ -19,6 +20,7 @@ import {
   mailboxResponseSchema,
   meSessionResponseSchema,
   membersResponseSchema,
+  notificationPreferencesResponseSchema,
   notificationsResponseSchema,
   packagesResponseSchema,
   platformShopsResponseSchema,
@@ -35,7 +37,7 @@ import { afterAll, beforeAll, describe, expect, expectTypeOf, it } from 'vitest'
 import type { z } from 'zod';
 import type { Verification as ApiVerification } from './features/files/file-verify.service';
 import { createCustomer, createJob, createLedgerEntry, createPayment, createPlatformAdmin, createTwoShops } from './testing/factories';
-import { createTestApp, signIn, type TestApp } from './testing/test-app';
+import { createTestApp, linkFromMail, signIn, type TestApp } from './testing/test-app';
 
 // Every answer below is what the web reads; each must parse with the contract schema the web is typed by.
 let t: TestApp;
@@ -151,6 +153,9 @@ describe('the API answers in the shapes of @revloop/contract', () => {
     await expectParses(owner, `/api/dealers/${w.dealer.id}`, dealerDetailResponseSchema);
     await expectParses(await signIn(t.app, w.people.tuner.email), `/api/dealers/${w.dealer.id}`, dealerDetailResponseSchema);
     await expectParses(owner, '/api/invitations', invitationsResponseSchema);
+    const token = linkFromMail(t.mailbox, 'contract@invite.test').split('/invitations/')[1]!;
+    await expectParses(request.agent(t.app), `/api/invitations/lookup/${token}`, invitationLookupResponseSchema);
+    await expectParses(owner, '/api/notifications/preferences', notificationPreferencesResponseSchema);
     const notices = (await expectParses(await signIn(t.app, w.people.tuner.email), '/api/notifications', notificationsResponseSchema)) as { data: unknown[] };
     expect(notices.data.length).toBeGreaterThan(0);
     const admin = await signIn(t.app, w.admin.email);

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import type { Notification } from '@revloop/contract';
+import type { Notification, NotificationPreference } from '@revloop/contract';
 import { countUnreadNotifications, listNotifications } from '@revloop/db';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
@@ -37,14 +37,14 @@ export function createNotificationsRouter(deps: AppDeps): Router {
   router.get('/preferences', (req, res) => {
     const auth = requireAuth(req);
     const prefs = parseNotificationPrefs(auth.user.notification_prefs);
-    res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: prefs[kind].email })) });
+    res.json({ data: NOTIFICATION_KINDS.map((kind): NotificationPreference => ({ kind, label: NOTIFICATION_LABELS[kind], email: prefs[kind].email })) });
   });
 
   router.put('/preferences', async (req, res) => {
     const auth = requireAuth(req);
     const { prefs } = parseInput(prefsSchema, req.body);
     const merged = await saveNotificationPrefs(db, auth.user, prefs);
-    res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: merged[kind].email })) });
+    res.json({ data: NOTIFICATION_KINDS.map((kind): NotificationPreference => ({ kind, label: NOTIFICATION_LABELS[kind], email: merged[kind].email })) });
   });
 
   return router;
