@@ -4,18 +4,28 @@ import {
   datalogMappingResponseSchema,
   datalogSeriesResponseSchema,
   dealerBalancesResponseSchema,
+  dealerDetailResponseSchema,
+  dealersResponseSchema,
   dealerLedgerResponseSchema,
   diffHexResponseSchema,
   fileDiffResponseSchema,
+  invitationLookupResponseSchema,
+  invitationsResponseSchema,
   jobDatalogsResponseSchema,
   jobDetailResponseSchema,
   jobFilesResponseSchema,
   jobListResponseSchema,
   jobMessagesResponseSchema,
   jobPaymentsResponseSchema,
+  mailboxResponseSchema,
   meSessionResponseSchema,
   membersResponseSchema,
+  notificationPreferencesResponseSchema,
+  notificationsResponseSchema,
+  packagesResponseSchema,
+  platformShopsResponseSchema,
   revenueResponseSchema,
+  shopResponseSchema,
   subscriptionResponseSchema,
   verificationResponseSchema,
   type JobSortKey,
@@ -26,15 +36,28 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, expectTypeOf, it } from 'vitest';
 import type { z } from 'zod';
 import type { Verification as ApiVerification } from './features/files/file-verify.service';
-import { createDemoTestApp } from './testing/demo-fixture';
-import { signIn } from './testing/test-app';
+import { createCustomer, createJob, createLedgerEntry, createPayment, createPlatformAdmin, createTwoShops } from './testing/factories';
+import { createTestApp, linkFromMail, signIn, type TestApp } from './testing/test-app';
 
 // Every answer below is what the web reads; each must parse with the contract schema the web is typed by.
-let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let t: TestApp;
+let w: Awaited<ReturnType<typeof world>>;
 let owner: Awaited<ReturnType<typeof signIn>>;
+
+/** A shop with every role, a job two rounds in (two reads of the unit's files, two logs), a paid job, a dealer's job; an admin. */
+async function world() {
+  const two = await createTwoShops(t);
+  await createLedgerEntry(t, two.dealer);
+  const twoRounds = await createJob(t, two.shop, { customer: two.people.customer, state: 'log_review', round: 2 });
+  await createPayment(t, twoRounds);
+  await createJob(t, two.shop, { customer: await createCustomer(t, two.shop, { dealer: two.dealer }) });
+  return { ...two, twoRounds, admin: await createPlatformAdmin(t) };
+}
+
 beforeAll(async () => {
-  t = await createDemoTestApp();
-  owner = await signIn(t.app, 'owner@kestrel.test');
+  t = await createTestApp();
+  w = await world();
+  owner = await signIn(t.app, w.shop.owner.email);
 });
 afterAll(async () => {
   await t.close();
@@ -64,7 +87,7 @@ describe('the API answers in the shapes of @revloop/contract', () => {
       await expectParses(owner, `/api/jobs/${id}`, jobDetailResponseSchema);
       await expectParses(owner, `/api/jobs/${id}/messages`, jobMessagesResponseSchema);
     }
-    const customer = await signIn(t.app, 'customer@kestrel.test');
+    const customer = await signIn(t.app, w.people.customer.email);
     await expectParses(customer, '/api/jobs', jobListResponseSchema);
   });
 
@@ -74,7 +97,7 @@ describe('the API answers in the shapes of @revloop/contract', () => {
       .innerJoin('calibration_files as b', (j) => j.onRef('a.job_id', '=', 'b.job_id').onRef('a.module', '=', 'b.module').onRef('a.id', '<', 'b.id'))
       .innerJoin('jobs', 'jobs.id', 'a.job_id')
       .select(['a.id as a', 'b.id as b', 'a.job_id as jobId'])
-      .where('jobs.shop_id', '=', t.ids.kestrel.shopId)
+      .where('jobs.shop_id', '=', w.shop.id)
       .executeTakeFirstOrThrow();
     await expectParses(owner, `/api/jobs/${pair.jobId}/files`, jobFilesResponseSchema);
     await expectParses(owner, `/api/files/${pair.a}/verify`, verificationResponseSchema);
@@ -89,16 +112,17 @@ describe('the API answers in the shapes of @revloop/contract', () => {
       .innerJoin('jobs', 'jobs.id', 'datalogs.job_id')
       .select(['datalogs.id', 'datalogs.job_id as jobId'])
       .where('datalogs.status', '=', 'ready')
-      .where('jobs.shop_id', '=', t.ids.kestrel.shopId)
+      .where('jobs.shop_id', '=', w.shop.id)
       .execute();
     const [first] = logs;
-    if (!first) throw new Error('the demo has no ready log');
+    if (!first) throw new Error('the world has no ready log');
     await expectParses(owner, `/api/jobs/${first.jobId}/datalogs`, jobDatalogsResponseSchema);
     await expectParses(owner, `/api/datalogs/${first.id}`, datalogDetailResponseSchema);
     await expectParses(owner, `/api/datalogs/${first.id}/series?channels=rpm,map`, datalogSeriesResponseSchema);
     await expectParses(owner, `/api/datalogs/${first.id}/series?channels=rpm,map&sampling=rows`, datalogSeriesResponseSchema);
     await expectParses(owner, `/api/datalogs/${first.id}/mapping`, datalogMappingResponseSchema);
     const other = logs.find((l) => l.jobId === first.jobId && l.id !== first.id);
+    expect(other).toBeDefined();
     if (other) await expectParses(owner, `/api/datalogs/${first.id}/compare/${other.id}`, datalogComparisonResponseSchema);
   });
 
@@ -106,18 +130,37 @@ describe('the API answers in the shapes of @revloop/contract', () => {
     await expectParses(owner, '/api/billing/subscription', subscriptionResponseSchema);
     const balances = (await expectParses(owner, '/api/billing/dealer-balances', dealerBalancesResponseSchema)) as { data: { id: string }[] };
     for (const { id } of balances.data) await expectParses(owner, `/api/dealers/${id}/ledger`, dealerLedgerResponseSchema);
-    const paid = await t.db.selectFrom('payments').select('job_id').where('shop_id', '=', t.ids.kestrel.shopId).executeTakeFirst();
-    const jobId = paid?.job_id ?? t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId)!.id;
-    await expectParses(owner, `/api/billing/jobs/${jobId}/payments`, jobPaymentsResponseSchema);
-    const admin = await signIn(t.app, 'admin@revloop.test');
+    expect(balances.data.map((d) => d.id)).toEqual([w.dealer.id]);
+    await expectParses(owner, `/api/billing/jobs/${w.twoRounds.id}/payments`, jobPaymentsResponseSchema);
+    const admin = await signIn(t.app, w.admin.email);
     await expectParses(admin, '/api/admin/revenue', revenueResponseSchema);
   });
 
   it('members and the session', async () => {
     await expectParses(owner, '/api/members', membersResponseSchema);
-    for (const email of ['owner@kestrel.test', 'dealer@kestrel.test', 'customer@kestrel.test', 'admin@revloop.test']) {
+    for (const { email } of [w.shop.owner, w.people.dealer, w.people.customer, w.admin]) {
       await expectParses(await signIn(t.app, email), '/api/me/session', meSessionResponseSchema);
     }
     await expectParses(request.agent(t.app), '/api/me/session', meSessionResponseSchema);
+  });
+
+  it('shop, packages, dealers, invitations, notifications, the platform’s shops and the development mailbox', async () => {
+    await owner.post('/api/invitations').send({ email: 'contract@invite.test', role: 'dealer', dealerId: w.dealer.id }).expect(201);
+    await expectParses(owner, '/api/shop', shopResponseSchema);
+    await expectParses(owner, '/api/packages', packagesResponseSchema);
+    await expectParses(await signIn(t.app, w.people.customer.email), '/api/packages', packagesResponseSchema);
+    await expectParses(owner, '/api/dealers', dealersResponseSchema);
+    await expectParses(owner, `/api/dealers/${w.dealer.id}`, dealerDetailResponseSchema);
+    await expectParses(await signIn(t.app, w.people.tuner.email), `/api/dealers/${w.dealer.id}`, dealerDetailResponseSchema);
+    await expectParses(owner, '/api/invitations', invitationsResponseSchema);
+    const token = linkFromMail(t.mailbox, 'contract@invite.test').split('/invitations/')[1]!;
+    await expectParses(request.agent(t.app), `/api/invitations/lookup/${token}`, invitationLookupResponseSchema);
+    await expectParses(owner, '/api/notifications/preferences', notificationPreferencesResponseSchema);
+    const notices = (await expectParses(await signIn(t.app, w.people.tuner.email), '/api/notifications', notificationsResponseSchema)) as { data: unknown[] };
+    expect(notices.data.length).toBeGreaterThan(0);
+    const admin = await signIn(t.app, w.admin.email);
+    await expectParses(admin, '/api/admin/shops', platformShopsResponseSchema);
+    const mails = (await expectParses(admin, '/api/dev/mailbox', mailboxResponseSchema)) as { data: unknown[] };
+    expect(mails.data.length).toBeGreaterThan(0);
   });
 });

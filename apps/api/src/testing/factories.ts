@@ -1,5 +1,5 @@
-import { insertDealer, insertMembership, insertPackage, insertShop, insertShopSubscription, insertUser, insertVehicle, newId, type CalibrationModule } from '@revloop/db';
-import type { PlanId, SubscriptionStatus } from '@revloop/domain/billing';
+import { appendLedgerEntry, insertDealer, insertMembership, insertPayment, insertPackage, insertShop, insertShopSubscription, insertUser, insertVehicle, newId, type CalibrationModule } from '@revloop/db';
+import type { LedgerKind, PlanId, SubscriptionStatus } from '@revloop/domain/billing';
 import type { ShopRole } from '@revloop/domain/auth';
 import { generateLog } from '@revloop/domain/datalog/testing';
 import type { JobState } from '@revloop/domain/jobs';
@@ -265,4 +265,39 @@ export async function createTwoShops(t: TestApp) {
   };
   const other = await createShop(t);
   return { shop, dealer, people, other };
+}
+
+/** One entry on the dealer's statement (a top-up unless said), so jobs for the dealer's customers can be debited. */
+export async function createLedgerEntry(t: TestApp, dealer: TestDealer, fields: { amountMinor?: number; kind?: LedgerKind; currency?: string } = {}): Promise<{ id: string; balanceAfterMinor: number }> {
+  const row = await appendLedgerEntry(t.db, {
+    shopId: dealer.shopId,
+    dealerId: dealer.id,
+    kind: fields.kind ?? 'top_up',
+    amountMinor: fields.amountMinor ?? 200_000,
+    currency: fields.currency ?? 'USD',
+    memo: 'Factory entry',
+    at: now(t),
+  });
+  return { id: row.id, balanceAfterMinor: row.balance_after_minor };
+}
+
+/** A job payment the provider has confirmed, as the webhook leaves it (for tests that read money, not take it). */
+export async function createPayment(t: TestApp, job: TestJob, fields: { amountMinor?: number } = {}): Promise<{ id: string; amountMinor: number }> {
+  const n = next();
+  const row = await insertPayment(t.db, {
+    id: newId(),
+    shop_id: job.shop.id,
+    purpose: 'job',
+    job_id: job.id,
+    dealer_id: null,
+    payer_user_id: job.customer.id,
+    amount_minor: fields.amountMinor ?? job.package.retailPriceMinor,
+    currency: job.shop.currency,
+    status: 'paid',
+    stripe_checkout_session_id: `cs_factory_${n}`,
+    stripe_payment_intent_id: `pi_factory_${n}`,
+    created_at: now(t),
+    paid_at: now(t),
+  });
+  return { id: row.id, amountMinor: row.amount_minor };
 }

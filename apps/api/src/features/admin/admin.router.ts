@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import type { PlatformShop, PlatformShopListItem } from '@revloop/contract';
 import { findShopById, listShopsForPlatform, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { emailSchema } from '@revloop/domain/auth';
@@ -17,7 +18,7 @@ const createShopSchema = z.object({
   currency: z.string().length(3).toUpperCase().optional(),
 });
 
-const shopRowToShop = (r: ShopRow) => ({ id: r.id, name: r.name, status: r.status, currency: r.currency, createdAt: r.created_at, suspendedAt: r.suspended_at });
+const shopRowToShop = (r: ShopRow): PlatformShop => ({ id: r.id, name: r.name, status: r.status, currency: r.currency, createdAt: r.created_at, suspendedAt: r.suspended_at });
 
 export function createAdminRouter(deps: AppDeps): Router {
   const router = Router();
@@ -28,7 +29,7 @@ export function createAdminRouter(deps: AppDeps): Router {
     authorize(auth, 'manage', 'Platform');
     const rows = await listShopsForPlatform(db);
     res.json({
-      data: rows.map((r) => ({
+      data: rows.map((r): PlatformShopListItem => ({
         ...shopRowToShop(r),
         owner: r.owner_email ? { name: r.owner_name, email: r.owner_email } : null,
         memberCount: Number(r.member_count),

@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import type { Dealer, DealerDetail, DealerListItem } from '@revloop/contract';
 import { countJobs, dealerBalance, findDealer, listDealers, listMembers, type DealerRow } from '@revloop/db';
 import { asSubject, emailSchema, jobScopeFor } from '@revloop/domain/auth';
 import { z } from 'zod';
@@ -16,7 +17,7 @@ const dealerInputSchema = z.object({
   phone: z.string().trim().max(40).nullish(),
 });
 
-const dealerRowToDealer = (r: DealerRow) => ({
+const dealerRowToDealer = (r: DealerRow): Dealer => ({
   id: r.id,
   name: r.name,
   contactName: r.contact_name,
@@ -36,7 +37,7 @@ export function createDealersRouter(deps: AppDeps): Router {
       auth.ability.can('read', asSubject('Dealer', { id: r.id, shopId: r.shop_id })),
     );
     res.json({
-      data: rows.map((r) => ({ ...dealerRowToDealer(r), userCount: Number(r.user_count), customerCount: Number(r.customer_count) })),
+      data: rows.map((r): DealerListItem => ({ ...dealerRowToDealer(r), userCount: Number(r.user_count), customerCount: Number(r.customer_count) })),
       meta: { total: rows.length },
     });
   });
@@ -66,7 +67,7 @@ export function createDealersRouter(deps: AppDeps): Router {
           open: await countJobs(db, auth.shop.id, scope, { dealerId: dealer!.id, open: true }),
           total: await countJobs(db, auth.shop.id, scope, { dealerId: dealer!.id }),
         },
-      },
+      } satisfies DealerDetail,
     });
   });
 

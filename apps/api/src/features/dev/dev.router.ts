@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import type { Mail } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import type { Mailbox } from '@revloop/stand-ins/smtp';
 
@@ -15,7 +16,7 @@ export function createDevRouter(mailbox: Mailbox): Router {
     next();
   });
   router.get('/mailbox', (_req, res) => {
-    const mails = mailbox.list();
+    const mails: Mail[] = mailbox.list();
     res.json({ data: mails, meta: { total: mails.length } });
   });
   router.delete('/mailbox', (_req, res) => {

@@ -15,6 +15,7 @@ import {
   type Db,
   type InvitationRow,
 } from '@revloop/db';
+import type { InvitationLookup } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
@@ -86,7 +87,7 @@ export async function createInvitation(
   return invitation;
 }
 
-export async function lookupInvitation(db: Db, token: string, now: Date) {
+export async function lookupInvitation(db: Db, token: string, now: Date): Promise<{ invitation: InvitationRow; view: InvitationLookup }> {
   const invitation = await findLiveInvitationByTokenHash(db, hashToken(token), now.toISOString());
   if (!invitation) throw new DomainError('not_found', 'This invitation is invalid, used or expired. Ask for a new one.');
   const shop = await findShopById(db, invitation.shop_id);

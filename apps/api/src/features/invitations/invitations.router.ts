@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import type { Invitation, SentInvitation } from '@revloop/contract';
 import { findInvitation, listPendingInvitations } from '@revloop/db';
 import { acceptInvitationSchema, emailSchema, SHOP_ROLES } from '@revloop/domain/auth';
 import { z } from 'zod';
@@ -35,7 +36,7 @@ export function createInvitationsRouter(deps: AppDeps): Router {
     authorize(auth, 'read', 'Invitation');
     const rows = await listPendingInvitations(db, auth.shop.id, clock.now().toISOString());
     res.json({
-      data: rows.map((r) => ({
+      data: rows.map((r): Invitation => ({
         id: r.id,
         email: r.email,
         role: r.role,
@@ -53,7 +54,7 @@ export function createInvitationsRouter(deps: AppDeps): Router {
     const input = parseInput(inviteSchema, req.body);
     const invitation = await sendInvitation(deps, { shopId: auth.shop.id, email: input.email, role: input.role, dealerId: input.dealerId, invitedBy: auth.user });
     res.status(201).json({
-      data: { id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expires_at },
+      data: { id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expires_at } satisfies SentInvitation,
     });
   });
 

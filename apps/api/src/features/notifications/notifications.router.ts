@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import type { Notification, NotificationPreference } from '@revloop/contract';
 import { countUnreadNotifications, listNotifications } from '@revloop/db';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
@@ -21,7 +22,7 @@ export function createNotificationsRouter(deps: AppDeps): Router {
     const rows = await listNotifications(db, auth.shop.id, auth.user.id);
     const unread = await countUnreadNotifications(db, auth.shop.id, auth.user.id);
     res.json({
-      data: rows.map((r) => ({ id: r.id, kind: r.kind, title: r.title, body: r.body, jobId: r.job_id, readAt: r.read_at, createdAt: r.created_at })),
+      data: rows.map((r): Notification => ({ id: r.id, kind: r.kind, title: r.title, body: r.body, jobId: r.job_id, readAt: r.read_at, createdAt: r.created_at })),
       meta: { total: rows.length, unread },
     });
   });
@@ -36,14 +37,14 @@ export function createNotificationsRouter(deps: AppDeps): Router {
   router.get('/preferences', (req, res) => {
     const auth = requireAuth(req);
     const prefs = parseNotificationPrefs(auth.user.notification_prefs);
-    res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: prefs[kind].email })) });
+    res.json({ data: NOTIFICATION_KINDS.map((kind): NotificationPreference => ({ kind, label: NOTIFICATION_LABELS[kind], email: prefs[kind].email })) });
   });
 
   router.put('/preferences', async (req, res) => {
     const auth = requireAuth(req);
     const { prefs } = parseInput(prefsSchema, req.body);
     const merged = await saveNotificationPrefs(db, auth.user, prefs);
-    res.json({ data: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_LABELS[kind], email: merged[kind].email })) });
+    res.json({ data: NOTIFICATION_KINDS.map((kind): NotificationPreference => ({ kind, label: NOTIFICATION_LABELS[kind], email: merged[kind].email })) });
   });
 
   return router;

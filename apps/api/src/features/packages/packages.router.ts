@@ -1,6 +1,7 @@
 import { Router } from 'express';
+import type { Package } from '@revloop/contract';
 import { findPackage, listPackages, type PackageRow } from '@revloop/db';
-import { packageInputSchema } from '@revloop/domain/jobs';
+import { packageInputSchema, type PackageModule } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
@@ -8,12 +9,12 @@ import { parseInput } from '../../http/validate';
 import { createPackage, editPackage, setPackageActive } from './packages.service';
 
 /** Dealers see their wholesale price; customers never see it. */
-function packageRowToPackage(row: PackageRow, role: string | null) {
+function packageRowToPackage(row: PackageRow, role: string | null): Package {
   return {
     id: row.id,
     name: row.name,
     description: row.description,
-    modules: JSON.parse(row.modules) as string[],
+    modules: JSON.parse(row.modules) as PackageModule[],
     retailPriceMinor: row.retail_price_minor,
     dealerPriceMinor: role === 'customer' ? null : row.dealer_price_minor,
     roundsIncluded: row.rounds_included,

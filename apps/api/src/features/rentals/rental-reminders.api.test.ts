@@ -1,36 +1,38 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findShopById, updateShop } from '@revloop/db';
 import { addDays, localDay } from '@revloop/domain/rentals';
-import { createDemoTestApp } from '../../testing/demo-fixture';
-import { signIn } from '../../testing/test-app';
+import { createJob, createShop, type TestJob } from '../../testing/factories';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 import { runRentalSweep } from './rental-notices';
 
-let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let t: TestApp;
+let job: TestJob;
 type Agent = Awaited<ReturnType<typeof signIn>>;
 let owner: Agent, customer: Agent;
 const TZ = 'America/New_York';
 const LIMIT = 2;
 
 beforeAll(async () => {
-  t = await createDemoTestApp();
-  const shop = (await findShopById(t.db, t.ids.kestrel.shopId))!;
+  t = await createTestApp();
+  const made = await createShop(t);
+  const shop = (await findShopById(t.db, made.id))!;
   await updateShop(t.db, shop.id, { settings: JSON.stringify({ ...JSON.parse(shop.settings), timeZone: TZ, rentalOverdueReminderLimit: LIMIT }) });
-  owner = await signIn(t.app, 'owner@kestrel.test');
-  customer = await signIn(t.app, 'customer@kestrel.test');
+  job = await createJob(t, made);
+  owner = await signIn(t.app, made.owner.email);
+  customer = await signIn(t.app, job.customer.email);
 });
 afterAll(() => t.close());
 
 /** Sets the app's clock to an instant (the fake clock only moves by differences); sessions idle that long end, so sign in again. */
 async function setNow(iso: string) {
   t.clock.advance(new Date(iso).getTime() - t.clock.now().getTime());
-  owner = await signIn(t.app, 'owner@kestrel.test');
-  customer = await signIn(t.app, 'customer@kestrel.test');
+  owner = await signIn(t.app, job.shop.owner.email);
+  customer = await signIn(t.app, job.customer.email);
 }
 const mails = (to: string, subject: RegExp) => t.mailbox.list().filter((m) => m.to.includes(to) && subject.test(m.subject));
 
 describe('rental reminders and late days on the shop’s days', () => {
   it('sends each reminder once at the shop-local day boundary; overdue up to the limit; late days turn at local midnight', async () => {
-    const job = t.ids.jobs.find((j) => j.shopId === t.ids.kestrel.shopId && j.customerUserId === t.ids.kestrel.customerIds[0] && j.dealerId === null && j.state !== 'cancelled' && j.state !== 'dialed_in')!;
     // A kit rented at no fee and no deposit ships without payments, so this test needs no payment stand-in.
     const kit = await owner.post('/api/kits').send({ name: 'Kit reminders', interfaceSerial: 'IF-2001', weeklyPriceMinor: 0, depositMinor: 0, lateFeePerDayMinor: 1500 });
     const today = localDay(t.clock.now(), TZ);
@@ -41,7 +43,7 @@ describe('rental reminders and late days on the shop’s days', () => {
     expect((await customer.post(`/api/rentals/${id}/terms`).send({ accept: true })).status).toBe(200);
     t.mailbox.clear();
     expect((await owner.post(`/api/rentals/${id}/transitions`).send({ to: 'shipped', carrier: 'UPS', trackingNumber: '1Z999' })).status).toBe(200);
-    expect(mails('customer@kestrel.test', /on its way/)).toHaveLength(1);
+    expect(mails(job.customer.email, /on its way/)).toHaveLength(1);
 
     // [STD] New York keeps EST (UTC−5) in winter months, so local midnight is 05:00Z. [CALC] due − 2 days turns at
     // 05:00Z of that day. The test dates are at least 10 days ahead of now (December to March): all EST.
@@ -49,15 +51,15 @@ describe('rental reminders and late days on the shop’s days', () => {
     const sweep = () => runRentalSweep(t.deps);
     await setNow(at(addDays(due, -2), '04:59:59'));
     await sweep();
-    expect(mails('customer@kestrel.test', /due back in 2 days/)).toHaveLength(0);
+    expect(mails(job.customer.email, /due back in 2 days/)).toHaveLength(0);
     await setNow(at(addDays(due, -2), '05:00:00'));
     await sweep();
     await sweep();
-    expect(mails('customer@kestrel.test', /due back in 2 days/)).toHaveLength(1);
+    expect(mails(job.customer.email, /due back in 2 days/)).toHaveLength(1);
     await setNow(at(due, '05:00:00'));
     await sweep();
     await sweep();
-    expect(mails('customer@kestrel.test', /due back today/)).toHaveLength(1);
+    expect(mails(job.customer.email, /due back today/)).toHaveLength(1);
 
     // Late days: none until New York midnight after the due day, then one more per local midnight.
     await setNow(at(addDays(due, 1), '04:59:59'));
@@ -71,9 +73,8 @@ describe('rental reminders and late days on the shop’s days', () => {
       await sweep();
       await sweep();
     }
-    expect(mails('customer@kestrel.test', /overdue/)).toHaveLength(LIMIT);
-    // The demo has an overdue kit of its own: count this job's only.
-    expect(mails('owner@kestrel.test', new RegExp(`Overdue kit on job ${job.number}$`))).toHaveLength(4);
+    expect(mails(job.customer.email, /overdue/)).toHaveLength(LIMIT);
+    expect(mails(job.shop.owner.email, new RegExp(`Overdue kit on job ${job.number}$`))).toHaveLength(4);
     const overview = await owner.get(`/api/kits/overview?from=${today}&to=${addDays(due, 4)}`);
     expect(overview.status).toBe(200);
     expect(overview.body.data.overdue.map((r: { id: string }) => r.id)).toContain(id);

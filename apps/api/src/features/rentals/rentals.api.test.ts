@@ -1,21 +1,31 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MERCHANT_HOLD_MS, addDays, localDay } from '@revloop/domain/rentals';
-import { createDemoTestApp } from '../../testing/demo-fixture';
-import { signIn } from '../../testing/test-app';
+import { createCustomer, createJob, createTwoShops, type TestJob, type TestMember } from '../../testing/factories';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 import { runRentalSweep } from './rental-notices';
 
-let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let t: TestApp;
 type Agent = Awaited<ReturnType<typeof signIn>>;
-let owner: Agent, tuner: Agent, customer: Agent, otherCustomer: Agent, harborOwner: Agent;
+let owner: Agent, tuner: Agent, customer: Agent, otherCustomer: Agent, otherOwner: Agent;
+/** Open jobs of the shop: two of the first customer, one of another. */
+let jobs: { mine: TestJob; mineToo: TestJob; theirs: TestJob };
+let rileyMoss: TestMember;
 
 beforeAll(async () => {
-  t = await createDemoTestApp({}, { stripe: true });
-  owner = await signIn(t.app, 'owner@kestrel.test');
-  tuner = await signIn(t.app, 'tuner@kestrel.test');
-  customer = await signIn(t.app, 'customer@kestrel.test');
-  otherCustomer = await signIn(t.app, 'riley.moss@kestrel.test');
-  harborOwner = await signIn(t.app, 'owner@harbor.test');
+  t = await createTestApp({}, { stripe: true });
+  const { shop, people, other } = await createTwoShops(t);
+  rileyMoss = await createCustomer(t, shop, { name: 'Riley Moss' });
+  jobs = {
+    mine: await createJob(t, shop, { customer: people.customer }),
+    mineToo: await createJob(t, shop, { customer: people.customer }),
+    theirs: await createJob(t, shop, { customer: rileyMoss }),
+  };
+  owner = await signIn(t.app, shop.owner.email);
+  tuner = await signIn(t.app, people.tuner.email);
+  customer = await signIn(t.app, people.customer.email);
+  otherCustomer = await signIn(t.app, rileyMoss.email);
+  otherOwner = await signIn(t.app, other.owner.email);
 });
 afterAll(() => t.close());
 
@@ -40,8 +50,8 @@ async function pay(url: string) {
   await fake().settle();
 }
 
-const openJobs = () => t.ids.jobs.filter((j) => j.shopId === t.ids.kestrel.shopId && j.state !== 'cancelled' && j.state !== 'dialed_in');
-const customerJob = () => openJobs().find((j) => j.customerUserId === t.ids.kestrel.customerIds[0] && j.dealerId === null)!;
+const openJobs = () => [jobs.mine, jobs.mineToo, jobs.theirs];
+const customerJob = () => jobs.mine;
 
 const KIT = { name: 'Kit A', interfaceSerial: 'IF-1001', weeklyPriceMinor: 9000, depositMinor: 30000, lateFeePerDayMinor: 1500, contents: ['Interface', 'Laptop', 'OBD-II cable', 'Battery supporter'] };
 
@@ -68,12 +78,12 @@ describe('kits', () => {
     const job = openJobs()[1]!;
     const rental = await owner.post('/api/rentals').send({ jobId: job.id, kitId: id, startDate: addDays(today(), 200), dueDate: addDays(today(), 206) });
     expect(rental.status).toBe(201);
-    expect((await harborOwner.get(`/api/kits/${id}`)).status).toBe(404);
-    expect((await harborOwner.patch(`/api/kits/${id}`).send({ name: 'x' })).status).toBe(404);
-    expect((await harborOwner.get(`/api/kits/${id}/bookings?from=${today()}&to=${addDays(today(), 300)}`)).status).toBe(404);
-    expect((await harborOwner.get(`/api/rentals/${rental.body.data.id}`)).status).toBe(404);
-    expect((await harborOwner.post(`/api/rentals/${rental.body.data.id}/transitions`).send({ to: 'cancelled' })).status).toBe(404);
-    expect((await harborOwner.post('/api/rentals').send({ jobId: job.id, kitId: id, startDate: addDays(today(), 300), dueDate: addDays(today(), 301) })).status).toBe(404);
+    expect((await otherOwner.get(`/api/kits/${id}`)).status).toBe(404);
+    expect((await otherOwner.patch(`/api/kits/${id}`).send({ name: 'x' })).status).toBe(404);
+    expect((await otherOwner.get(`/api/kits/${id}/bookings?from=${today()}&to=${addDays(today(), 300)}`)).status).toBe(404);
+    expect((await otherOwner.get(`/api/rentals/${rental.body.data.id}`)).status).toBe(404);
+    expect((await otherOwner.post(`/api/rentals/${rental.body.data.id}/transitions`).send({ to: 'cancelled' })).status).toBe(404);
+    expect((await otherOwner.post('/api/rentals').send({ jobId: job.id, kitId: id, startDate: addDays(today(), 300), dueDate: addDays(today(), 301) })).status).toBe(404);
   });
 });
 
@@ -108,7 +118,7 @@ describe('no double booking', () => {
 
   it('customers see busy days only, never other customers’ bookings', async () => {
     const kitId = await newKit('Kit calendar');
-    const job = openJobs().find((j) => j.customerUserId !== t.ids.kestrel.customerIds[0])!;
+    const job = jobs.theirs;
     const start = addDays(today(), 20);
     await owner.post('/api/rentals').send({ jobId: job.id, kitId, startDate: start, dueDate: addDays(start, 6) });
     const range = `from=${today()}&to=${addDays(today(), 60)}`;
@@ -116,7 +126,7 @@ describe('no double booking', () => {
     expect(seen.status).toBe(200);
     expect(seen.body.data.busy).toEqual([{ from: addDays(start, -2), to: addDays(start, 8) }]);
     expect(seen.body.data.bookings).toEqual([]);
-    expect(JSON.stringify(seen.body)).not.toContain(job.customerName);
+    expect(JSON.stringify(seen.body)).not.toContain(rileyMoss.name);
     const staff = await owner.get(`/api/kits/${kitId}/bookings?${range}`);
     expect(staff.body.data.bookings).toHaveLength(1);
     expect((await customer.get(`/api/kits/${kitId}`)).status).toBe(404);
@@ -214,8 +224,16 @@ describe('a rental from request to close', () => {
 
 describe('dialed-in guard for a job whose kit is out', () => {
   it('refuses Dialed in while the kit is away, unless the owner overrides', async () => {
+    // A kit at no fee and no deposit ships without payments; the customer says it arrived.
+    const kit = await owner.post('/api/kits').send({ ...KIT, name: 'Kit away', weeklyPriceMinor: 0, depositMinor: 0 });
+    const start = addDays(today(), 400);
+    const booked = await owner.post('/api/rentals').send({ jobId: jobs.mineToo.id, kitId: kit.body.data.id, startDate: start, dueDate: addDays(start, 6) });
+    expect(booked.status).toBe(201);
+    expect((await customer.post(`/api/rentals/${booked.body.data.id}/terms`).send({ accept: true })).status).toBe(200);
+    expect((await owner.post(`/api/rentals/${booked.body.data.id}/transitions`).send({ to: 'shipped', carrier: 'UPS', trackingNumber: '1Z998' })).status).toBe(200);
+    expect((await customer.post(`/api/rentals/${booked.body.data.id}/transitions`).send({ to: 'with_customer' })).status).toBe(200);
     const away = (await owner.get('/api/rentals?state=with_customer')).body.data[0];
-    expect(away).toBeDefined();
+    expect(away).toMatchObject({ id: booked.body.data.id, jobId: jobs.mineToo.id });
     // Test set-up: put the job where a decision is due (log review); the move under test goes through the route.
     await t.db.updateTable('jobs').set({ state: 'log_review', has_log_for_round: 1 }).where('id', '=', away.jobId).execute();
     const tunerTry = await tuner.post(`/api/jobs/${away.jobId}/transitions`).send({ to: 'dialed_in', kitOutOverride: true });

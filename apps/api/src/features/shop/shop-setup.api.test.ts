@@ -1,12 +1,12 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { updateShopSubscription } from '@revloop/db';
-import { createDemoTestApp } from '../../testing/demo-fixture';
-import { signIn } from '../../testing/test-app';
+import { createTwoShops } from '../../testing/factories';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 
-let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let t: TestApp;
 beforeEach(async () => {
-  t = await createDemoTestApp();
+  t = await createTestApp();
 });
 afterEach(async () => {
   await t.close();
@@ -55,8 +55,9 @@ describe('GET /api/shop/setup: the first-run checklist, derived from data', () =
     await owner.delete(`/api/invitations/${invitation.body.data.id}`).expect(204);
     expect(ticks(await owner.get('/api/shop/setup')).tuner).toBe(false);
 
-    for (const email of ['tuner@kestrel.test', 'customer@kestrel.test', 'dealer@kestrel.test']) {
-      const agent = await signIn(t.app, email);
+    const { people } = await createTwoShops(t);
+    for (const person of [people.tuner, people.customer, people.dealer]) {
+      const agent = await signIn(t.app, person.email);
       expect((await agent.get('/api/shop/setup')).status).toBe(403);
     }
   });

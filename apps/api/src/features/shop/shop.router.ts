@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import type { ShopRow } from '@revloop/db';
-import { shopFrontDoorPatchSchema } from '@revloop/contract';
+import { shopFrontDoorPatchSchema, type Shop } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings, shopSettingsPatchSchema } from '@revloop/domain/shops';
 import { z } from 'zod';
@@ -13,7 +13,7 @@ import { changeShop } from './shop.service';
 
 const patchSchema = z.object({ name: nameSchema(2, 80).optional(), settings: shopSettingsPatchSchema.optional() }).extend(shopFrontDoorPatchSchema.shape);
 
-const shopView = (shop: ShopRow, auth: AuthContext) => ({
+const shopView = (shop: ShopRow, auth: AuthContext): Shop => ({
   id: shop.id,
   name: shop.name,
   currency: shop.currency,

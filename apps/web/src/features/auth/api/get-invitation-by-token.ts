@@ -1,14 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ShopRole } from '@revloop/domain/auth';
+import type { InvitationLookup } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-
-export interface InvitationLookup {
-  email: string;
-  role: ShopRole;
-  shopName: string;
-  dealerName: string | null;
-  expiresAt: string;
-}
 
 /** What an invitation link offers, read before the invitee has an account. */
 export const getInvitationByToken = (token: string) =>

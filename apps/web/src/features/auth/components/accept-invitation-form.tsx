@@ -10,7 +10,7 @@ import { Input } from '../../../components/ui/input';
 import { formatDateTime } from '../../../lib/format';
 import { applyFieldErrors, errorMessage, summaryItems } from '../../../lib/form-errors';
 import { acceptInvitationSchema, useAcceptInvitation } from '../api/accept-invitation';
-import type { InvitationLookup } from '../api/get-invitation-by-token';
+import type { InvitationLookup } from '@revloop/contract';
 
 const FIELDS = ['name', 'password'] as const;
 

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { emailSchema } from '@revloop/domain/auth';
+import type { Dealer } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getDealersQueryOptions, type Dealer } from './get-dealers';
+import { getDealersQueryOptions } from './get-dealers';
 
 export const createDealerSchema = z.object({
   name: z.string().trim().min(2, 'Enter a dealer name of at least 2 characters.').max(80, 'Use at most 80 characters.'),

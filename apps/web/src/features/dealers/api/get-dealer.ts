@@ -1,20 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { DealerDetail } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getDealersQueryOptions, type Dealer } from './get-dealers';
-
-export interface DealerUser {
-  id: string;
-  name: string;
-  email: string;
-  status: 'active' | 'deactivated';
-}
-
-export interface DealerDetail extends Dealer {
-  users: DealerUser[];
-  /** Null for viewers who may not read the dealer's ledger (tuners). */
-  balance: { balanceMinor: number; currency: string } | null;
-  jobs: { open: number; total: number };
-}
+import { getDealersQueryOptions } from './get-dealers';
 
 export const getDealer = (dealerId: string) => api.get<ItemResponse<DealerDetail>>(`/api/dealers/${encodeURIComponent(dealerId)}`);
 

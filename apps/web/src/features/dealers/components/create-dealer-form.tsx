@@ -7,7 +7,7 @@ import { FormErrorSummary } from '../../../components/ui/form-error-summary';
 import { Input } from '../../../components/ui/input';
 import { applyFieldErrors, errorMessage, summaryItems } from '../../../lib/form-errors';
 import { createDealerSchema, useCreateDealer } from '../api/create-dealer';
-import type { Dealer } from '../api/get-dealers';
+import type { Dealer } from '@revloop/contract';
 
 const FIELDS = ['name', 'contactName', 'contactEmail', 'phone'] as const;
 

@@ -1,6 +1,6 @@
 import { Badge } from '../../../components/ui/badge';
 import { EmptyState } from '../../../components/ui/empty-state';
-import type { DealerUser } from '../api/get-dealer';
+import type { DealerUser } from '@revloop/contract';
 
 export function DealerUsers({ users }: { users: DealerUser[] }) {
   if (users.length === 0) return <EmptyState title="No users yet">Invite someone from the dealer below.</EmptyState>;

@@ -5,9 +5,9 @@ import { SearchInput } from '../../../components/ui/search-input';
 import { textLinkClasses } from '../../../components/ui/text-link';
 import { paths } from '../../../config/paths';
 import { formatDate } from '../../../lib/format';
-import type { Dealer } from '../api/get-dealers';
+import type { DealerListItem } from '@revloop/contract';
 
-const helper = createDataTableColumns<Dealer>();
+const helper = createDataTableColumns<DealerListItem>();
 
 const columns = helper.columns([
   helper.accessor('name', {
@@ -26,7 +26,7 @@ const columns = helper.columns([
   helper.accessor('createdAt', { header: 'Added', sortFn: 'text', cell: (info) => formatDate(info.getValue()) }),
 ]);
 
-export function DealersTable({ dealers }: { dealers: Dealer[] }) {
+export function DealersTable({ dealers }: { dealers: DealerListItem[] }) {
   const [filter, setFilter] = useState('');
   return (
     <div className="flex flex-col gap-4">

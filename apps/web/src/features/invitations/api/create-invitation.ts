@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { emailSchema, SHOP_ROLES } from '@revloop/domain/auth';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getInvitationsQueryOptions, type Invitation } from './get-invitations';
+import type { SentInvitation } from '@revloop/contract';
+import { getInvitationsQueryOptions } from './get-invitations';
 
 export const createInvitationSchema = z
   .object({
@@ -18,7 +19,7 @@ export const createInvitationSchema = z
 export type CreateInvitationInput = z.output<typeof createInvitationSchema>;
 
 /** Sends an invitation e-mail with a link to /invitations/:token. */
-export const createInvitation = (input: CreateInvitationInput) => api.post<ItemResponse<Invitation>>('/api/invitations', input);
+export const createInvitation = (input: CreateInvitationInput) => api.post<ItemResponse<SentInvitation>>('/api/invitations', input);
 
 export function useCreateInvitation() {
   const queryClient = useQueryClient();

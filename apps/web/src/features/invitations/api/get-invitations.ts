@@ -1,15 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ShopRole } from '@revloop/domain/auth';
+import type { Invitation } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
-
-export interface Invitation {
-  id: string;
-  email: string;
-  role: ShopRole;
-  dealer: { id: string; name: string } | null;
-  createdAt: string;
-  expiresAt: string;
-}
 
 /** Pending invitations of the shop. */
 export const getInvitations = () => api.get<ListResponse<Invitation>>('/api/invitations');

@@ -5,7 +5,7 @@ import { ConfirmDialog } from '../../../components/ui/dialog';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { formatDate } from '../../../lib/format';
 import { errorMessage } from '../../../lib/form-errors';
-import type { Invitation } from '../api/get-invitations';
+import type { Invitation } from '@revloop/contract';
 import { useRevokeInvitation } from '../api/revoke-invitation';
 
 export function PendingInvitations({ invitations, canRevoke }: { invitations: Invitation[]; canRevoke: boolean }) {

@@ -1,15 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Mail } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
-
-export interface Mail {
-  id: string;
-  to: string[];
-  from: string;
-  subject: string;
-  text: string;
-  html: string | null;
-  receivedAt: string;
-}
 
 /** Mails caught by the development SMTP server; the endpoint is 404 in production. */
 export const getMailbox = () => api.get<ListResponse<Mail>>('/api/dev/mailbox');

@@ -1,11 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { NotificationPreference } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
-
-export interface NotificationPreference {
-  kind: string;
-  label: string;
-  email: boolean;
-}
 
 export const getNotificationPreferences = () => api.get<ListResponse<NotificationPreference>>('/api/notifications/preferences');
 

@@ -1,20 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { NotificationsResponse } from '@revloop/contract';
 import { api } from '../../../lib/api-client';
-
-export interface Notification {
-  id: string;
-  kind: string;
-  title: string;
-  body: string;
-  jobId: string | null;
-  readAt: string | null;
-  createdAt: string;
-}
-
-export interface NotificationsResponse {
-  data: Notification[];
-  meta: { total: number; unread: number };
-}
 
 export const getNotifications = () => api.get<NotificationsResponse>('/api/notifications');
 

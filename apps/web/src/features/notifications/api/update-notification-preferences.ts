@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { NotificationPreference } from '@revloop/contract';
 import { apiRequest, type ListResponse } from '../../../lib/api-client';
-import { getNotificationPreferencesQueryOptions, type NotificationPreference } from './get-notification-preferences';
+import { getNotificationPreferencesQueryOptions } from './get-notification-preferences';
 
 export type NotificationPrefsInput = Record<string, { email: boolean }>;
 

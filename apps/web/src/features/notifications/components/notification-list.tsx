@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths';
 import { cn } from '../../../lib/cn';
 import { formatDateTime } from '../../../lib/format';
-import type { Notification } from '../api/get-notifications';
+import type { Notification } from '@revloop/contract';
 
 /** Notifications newest first; unread ones are marked in words and with a dot. */
 export function NotificationList({ items, onOpen, onMarkRead }: { items: Notification[]; onOpen?: () => void; onMarkRead: (id: string) => void }) {

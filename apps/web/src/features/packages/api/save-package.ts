@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { PackageInput } from '@revloop/domain/jobs';
 import { api, apiRequest, type ItemResponse } from '../../../lib/api-client';
-import { getPackagesQueryOptions, type Package } from './get-packages';
+import type { Package } from '@revloop/contract';
+import { getPackagesQueryOptions } from './get-packages';
 
 /** Creates a package, or replaces an existing one's fields when `id` is given. */
 export const savePackage = ({ id, input }: { id?: string; input: PackageInput }) =>

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getPackagesQueryOptions, type Package } from './get-packages';
+import type { Package } from '@revloop/contract';
+import { getPackagesQueryOptions } from './get-packages';
 
 export const setPackageActive = ({ id, active }: { id: string; active: boolean }) =>
   api.patch<ItemResponse<Package>>(`/api/packages/${encodeURIComponent(id)}`, { active });

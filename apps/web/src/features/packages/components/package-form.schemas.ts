@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { minorToDecimalString, parseMoneyInput } from '@revloop/domain/billing';
 import { isDomainError } from '@revloop/domain';
 import { PACKAGE_MODULES, packageInputSchema } from '@revloop/domain/jobs';
-import type { Package } from '../api/get-packages';
+import type { Package } from '@revloop/contract';
 
 /** A price as typed ("599", "1,250.00"), turned into integer minor units of the shop's currency. */
 const moneyField = (currency: string) =>

@@ -8,7 +8,7 @@ import { Input, controlClasses } from '../../../components/ui/input';
 import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
 import { plainErrors } from '../../../lib/form-messages';
-import type { Package } from '../api/get-packages';
+import type { Package } from '@revloop/contract';
 import { useSavePackage } from '../api/save-package';
 import { packageFormDefaults, packageFormSchema, type PackageFormValues } from './package-form.schemas';
 

@@ -5,7 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { errorMessage } from '../../../lib/form-errors';
-import type { Package } from '../api/get-packages';
+import type { Package } from '@revloop/contract';
 import { useSetPackageActive } from '../api/set-package-active';
 import { PackageForm } from './package-form';
 import { ScrollRegion } from '../../../components/ui/scroll-region';

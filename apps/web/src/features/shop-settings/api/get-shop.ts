@@ -1,16 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ShopFrontDoor } from '@revloop/contract';
-import type { ShopSettings } from '@revloop/domain/shops';
+import type { Shop } from '@revloop/contract';
 import { api, type ItemResponse } from '../../../lib/api-client';
-
-export interface Shop extends ShopFrontDoor {
-  id: string;
-  name: string;
-  currency: string;
-  status: 'active' | 'suspended';
-  readOnly: boolean;
-  settings: ShopSettings;
-}
 
 export const getShop = () => api.get<ItemResponse<Shop>>('/api/shop');
 

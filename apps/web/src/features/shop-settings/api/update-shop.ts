@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ShopFrontDoorPatch } from '@revloop/contract';
 import type { ShopSettings } from '@revloop/domain/shops';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getShopQueryOptions, type Shop } from './get-shop';
+import type { Shop } from '@revloop/contract';
+import { getShopQueryOptions } from './get-shop';
 
 export interface ShopPatch extends ShopFrontDoorPatch {
   name?: string;

@@ -10,7 +10,7 @@ import { paths } from '../../../config/paths';
 import { cn } from '../../../lib/cn';
 import { applyFieldErrors, errorMessage, summaryItems } from '../../../lib/form-errors';
 import { plainErrors } from '../../../lib/form-messages';
-import type { Shop } from '../api/get-shop';
+import type { Shop } from '@revloop/contract';
 import { useUpdateShop } from '../api/update-shop';
 
 // An empty address is allowed here (no page); the API's schema judges any address given.

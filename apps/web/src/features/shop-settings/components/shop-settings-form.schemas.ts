@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { logRequestSchema } from '@revloop/domain/datalog';
 import { shopSettingsSchema, type ShopSettings } from '@revloop/domain/shops';
-import type { Shop } from '../api/get-shop';
+import type { Shop } from '@revloop/contract';
 
 const familyKey = (family: string) => family.toLowerCase().replace(/[^a-z0-9]/g, '');
 

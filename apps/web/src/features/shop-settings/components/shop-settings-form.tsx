@@ -10,7 +10,7 @@ import { cn } from '../../../lib/cn';
 import { errorMessage } from '../../../lib/form-errors';
 import { plainErrors } from '../../../lib/form-messages';
 import { fieldId, flattenFieldErrors } from '../../jobs/components/intake-errors';
-import type { Shop } from '../api/get-shop';
+import type { Shop } from '@revloop/contract';
 import { useUpdateShop } from '../api/update-shop';
 import { shopSettingsFormDefaults, shopSettingsFormSchema, type ShopSettingsFormOutput, type ShopSettingsFormValues } from './shop-settings-form.schemas';
 

@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { emailSchema } from '@revloop/domain/auth';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getShopsQueryOptions, type Shop } from './get-shops';
+import type { PlatformShop } from '@revloop/contract';
+import { getShopsQueryOptions } from './get-shops';
 
 export const createShopSchema = z.object({
   name: z.string().trim().min(2, 'Enter a shop name of at least 2 characters.').max(80, 'Use at most 80 characters.'),
@@ -12,7 +13,7 @@ export const createShopSchema = z.object({
 export type CreateShopInput = z.output<typeof createShopSchema>;
 
 /** Creates the shop and e-mails its owner an invitation. */
-export const createShop = (input: CreateShopInput) => api.post<ItemResponse<Shop>>('/api/admin/shops', input);
+export const createShop = (input: CreateShopInput) => api.post<ItemResponse<PlatformShop>>('/api/admin/shops', input);
 
 export function useCreateShop() {
   const queryClient = useQueryClient();

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getShopsQueryOptions, type Shop } from './get-shops';
+import type { PlatformShop } from '@revloop/contract';
+import { getShopsQueryOptions } from './get-shops';
 
-export const reactivateShop = (shopId: string) => api.post<ItemResponse<Shop>>(`/api/admin/shops/${encodeURIComponent(shopId)}/reactivate`);
+export const reactivateShop = (shopId: string) => api.post<ItemResponse<PlatformShop>>(`/api/admin/shops/${encodeURIComponent(shopId)}/reactivate`);
 
 export function useReactivateShop() {
   const queryClient = useQueryClient();

@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { getShopsQueryOptions, type Shop } from './get-shops';
+import type { PlatformShop } from '@revloop/contract';
+import { getShopsQueryOptions } from './get-shops';
 
 /** A suspended shop turns read-only for its members until it is reactivated. */
-export const suspendShop = (shopId: string) => api.post<ItemResponse<Shop>>(`/api/admin/shops/${encodeURIComponent(shopId)}/suspend`);
+export const suspendShop = (shopId: string) => api.post<ItemResponse<PlatformShop>>(`/api/admin/shops/${encodeURIComponent(shopId)}/suspend`);
 
 export function useSuspendShop() {
   const queryClient = useQueryClient();

@@ -6,15 +6,15 @@ import { createDataTableColumns, DataTable } from '../../../components/ui/data-t
 import { SearchInput } from '../../../components/ui/search-input';
 import { formatDate } from '../../../lib/format';
 import { errorMessage } from '../../../lib/form-errors';
-import type { Shop } from '../api/get-shops';
+import type { PlatformShopListItem } from '@revloop/contract';
 import { useReactivateShop } from '../api/reactivate-shop';
 import { useSuspendShop } from '../api/suspend-shop';
 
-type Pending = { shop: Shop; action: 'suspend' | 'reactivate' } | null;
+type Pending = { shop: PlatformShopListItem; action: 'suspend' | 'reactivate' } | null;
 
-const helper = createDataTableColumns<Shop>();
+const helper = createDataTableColumns<PlatformShopListItem>();
 
-export function ShopsTable({ shops, canSuspend }: { shops: Shop[]; canSuspend: boolean }) {
+export function ShopsTable({ shops, canSuspend }: { shops: PlatformShopListItem[]; canSuspend: boolean }) {
   const [filter, setFilter] = useState('');
   const [pending, setPending] = useState<Pending>(null);
   const suspend = useSuspendShop();
