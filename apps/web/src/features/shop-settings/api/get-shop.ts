@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ShopFrontDoor } from '@revloop/contract';
+import type { ShopFrontDoor, ShopRevisionReview } from '@revloop/contract';
 import type { ShopSettings } from '@revloop/domain/shops';
 import { api, type ItemResponse } from '../../../lib/api-client';
 
-export interface Shop extends ShopFrontDoor {
+export interface Shop extends ShopFrontDoor, ShopRevisionReview {
   id: string;
   name: string;
   currency: string;
