@@ -4,6 +4,7 @@ import type { CalibrationFile } from '@revloop/contract';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
+import { loadJob } from '../jobs/job.service';
 import { fileLabel, fileRowToApi } from './file.presenter';
 import { canApproveFile, loadFile } from './file.service';
 
@@ -14,9 +15,9 @@ type ShopScoped = AuthContext & { shop: { id: string } };
  * uploader). In one transaction: the approval, the job's count of drafts still waiting (the board and the send guard
  * read it) and the audit event the staff timeline shows.
  */
-export async function approveDraft(deps: AppDeps, auth: ShopScoped, fileId: string): Promise<CalibrationFile> {
+export async function approveDraft(deps: AppDeps, auth: ShopScoped, fileId: string): Promise<{ file: CalibrationFile; jobInReach: boolean }> {
   const { db, clock } = deps;
-  return inTransaction(db, async (trx) => {
+  const file = await inTransaction(db, async (trx) => {
     const { row, job } = await loadFile(trx, auth, fileId);
     if (!canApproveFile(auth, row, job)) {
       if (auth.actor.shopReadOnly) throw new DomainError('shop_read_only', 'This shop is read-only for now: drafts cannot be approved.');
@@ -42,4 +43,10 @@ export async function approveDraft(deps: AppDeps, auth: ShopScoped, fileId: stri
     const fresh = (await findCalibrationFile(trx, auth.shop.id, row.id))!;
     return fileRowToApi(fresh, (await findJob(trx, auth.shop.id, job.id))!, false);
   });
+  // A tuner who reviewed a job outside their own reach loses it once nothing waits for approval; the web moves on.
+  const jobInReach = await loadJob(db, auth, file.jobId).then(
+    () => true,
+    () => false,
+  );
+  return { file, jobInReach };
 }

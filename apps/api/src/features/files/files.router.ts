@@ -91,7 +91,8 @@ export function createFilesRouter(deps: AppDeps): Router {
   });
 
   router.post('/:id/approve', async (req, res) => {
-    res.json({ data: await approveDraft(deps, requireShop(req), req.params.id) });
+    const { file, jobInReach } = await approveDraft(deps, requireShop(req), req.params.id);
+    res.json({ data: file, meta: { jobInReach } });
   });
 
   router.get('/:id/verify', async (req, res) => {

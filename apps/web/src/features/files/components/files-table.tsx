@@ -6,7 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { ProgressBar } from '../../datalogs/components/progress-bar';
-import { Link } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { buttonClasses } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { useApproveFile } from '../api/approve-file';
@@ -44,6 +44,7 @@ function DownloadButton({ file }: { file: CalibrationFile }) {
 /** A draft's review: its approval state, Approve when this viewer may, and the diff against the file it was made from. */
 function DraftReview({ file }: { file: CalibrationFile }) {
   const approve = useApproveFile();
+  const navigate = useNavigate();
   return (
     <div className="mt-2 flex flex-wrap items-center gap-2">
       {file.parentFileId && (
@@ -52,7 +53,7 @@ function DraftReview({ file }: { file: CalibrationFile }) {
         </Link>
       )}
       {file.canApprove && (
-        <Button size="sm" pending={approve.isPending} onClick={() => approve.mutate(file.id)} aria-label={`Approve ${file.label}`}>
+        <Button size="sm" pending={approve.isPending} onClick={() => approve.mutate(file.id, { onSuccess: (r) => !r.meta.jobInReach && navigate(`${paths.jobs.getHref()}?awaiting=approval`) })} aria-label={`Approve ${file.label}`}>
           Approve
         </Button>
       )}
