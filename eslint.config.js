@@ -28,6 +28,7 @@ const SHARED_FEATURE_MODULES = [
   'notifications/api/get-notifications.ts',
   'packages/api/get-packages.ts',
   'vehicles/api/get-vehicles.ts',
+  'files/api/get-job-files.ts',
   'datalogs/components/progress-bar.tsx',
   'jobs/components/intake-errors.ts',
   'jobs/components/cautions.tsx',

@@ -1,4 +1,4 @@
-import { findJob, findMembershipOfUser, findShopById, findUserById, insertJob, insertPackage, insertVehicle, newId, updateJob, type CalibrationModule, type Db } from '@revloop/db';
+import { findJob, findMembershipOfUser, findShopById, findUserById, insertJob, insertPackage, insertVehicle, newId, updateJob, updateShop, type CalibrationModule, type Db } from '@revloop/db';
 import { defineAbilityFor } from '@revloop/domain/auth';
 import { defaultLogRequest, type LogRequest } from '@revloop/domain/datalog';
 import type { JobState } from '@revloop/domain/jobs';
@@ -221,6 +221,8 @@ interface PlannedJob {
   /** The latest log's drive; earlier logs of the job are a lean first try and clean ones after. */
   lastLog?: DriveKind;
   reRead?: 'matches' | 'differs';
+  /** On the bench with the next revision uploaded as a draft by its tuner, waiting for the other tuner's approval. */
+  draftAwaitingApproval?: boolean;
 }
 
 const j = (who: Who, vehicle: number, pkg: number, state: JobState, round: number, tuner: 0 | 1 | null, openedDaysAgo: number, lastHoursAgo: number, more: Partial<PlannedJob> = {}): PlannedJob => ({
@@ -247,7 +249,7 @@ const KESTREL_PLAN: PlannedJob[] = [
   j('d1', 8, 0, 'ready', 0, null, 1.5, 9),
   j('c8', 9, 0, 'ready', 0, 1, 1, 5, { taken: true }),
   j('c9', 2, 1, 'on_bench', 0, 0, 4, 30),
-  j('c10', 0, 0, 'on_bench', 1, 0, 9, 20),
+  j('c10', 0, 0, 'on_bench', 1, 0, 9, 20, { draftAwaitingApproval: true }),
   j('c2', 6, 0, 'on_bench', 2, 1, 16, 6),
   j('d0', 7, 1, 'on_bench', 1, 0, 12, 26),
   j('c11', 5, 0, 'on_bench', 0, 1, 3, 50),
@@ -333,6 +335,27 @@ function stepsTo(plan: PlannedJob): Step[] {
 const WEIGHT: Record<Step['kind'], number> = { read: 1, take: 0.4, start: 1.2, revision: 1.6, download: 0.5, log: 2.4, revise: 0.8, dialed_in: 0.8, hold: 1, cancel: 1 };
 
 const silentMailer = { send: async () => {} };
+
+/** "What changed" notes sent with each revision, by module and round, as a tuner writes them for the customer. */
+const SEND_NOTES: Record<'ECM' | 'TCM', readonly string[]> = {
+  ECM: [
+    'First revision for your parts and fuel: full-throttle fuelling and spark set for them, torque limits raised, rev limit as agreed.',
+    'From your log: added a little fuel at full throttle above 4,500 rpm where it ran lean, and took 1° of spark out near peak torque where the log showed knock retard.',
+    'Part-throttle fuel trims corrected from your log; full throttle unchanged. Log two gears this time.',
+    'Final touches: idle and cold-start fuelling smoothed; nothing changed at full throttle.',
+  ],
+  TCM: [
+    'Shift points at full throttle moved up to just under the rev limit, and shifts above half pedal made firmer.',
+    'Torque limits in the transmission raised to match the engine revision; part-throttle shifts softened.',
+    'Downshift on kick-down made quicker; everything else as before.',
+    'Converter lock-up at cruise moved a little lower; shift points unchanged.',
+  ],
+};
+const sendNote = (modules: readonly CalibrationModule[], round: number) =>
+  modules
+    .filter((m): m is 'ECM' | 'TCM' => m === 'ECM' || m === 'TCM')
+    .map((m) => `${modules.length > 1 ? `${m}: ` : ''}${SEND_NOTES[m][(round - 1) % SEND_NOTES[m].length]}`)
+    .join(' ');
 
 /** People work by day: a moment of the day is moved into 08:00–20:00 UTC of the same day, keeping the order. */
 function daytime(at: Date, now: Date): Date {
@@ -491,7 +514,9 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
           }
           for (const module of modules) await files.revision(fileJob, module, r, shopSide, at);
           await setJobFacts(db, shop.shopId, job.id, { hasRevisionForRound: true }, at);
-          await move(shopSide, 'with_customer', true);
+          // Uploaded as a draft; the bench sends it an hour later with its note, as the job page's form does.
+          at = new Date(Math.min(at.getTime() + 3_600_000, now.getTime() - 60_000));
+          await moveJob(deps, await authOf(shopSide), job.id, 'with_customer', { note: sendNote(modules, r) });
           break;
         case 'download':
           for (const module of modules) await files.downloaded(fileJob, module, uploaderId, at);
@@ -534,9 +559,18 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
       for (const module of modules) await files.downloaded(fileJob, module, uploaderId, at);
       if (p.reRead) await files.reRead(fileJob, modules[0]!, p.reRead === 'matches', uploaderId, new Date(at.getTime() + 7_200_000));
     }
+    if (p.draftAwaitingApproval) {
+      // The next revision, uploaded by the job's tuner under the shop's approval setting, for the other tuner to approve.
+      at = new Date(at.getTime() + (now.getTime() - at.getTime()) * 0.5);
+      for (const module of modules) await files.revision(fileJob, module, p.round + 1, shopSide, at);
+      await db.updateTable('calibration_files').set({ approval_required: 1 }).where('shop_id', '=', shop.shopId).where('job_id', '=', job.id).where('for_round', '=', p.round + 1).execute();
+      await updateJob(db, shop.shopId, job.id, { has_revision_for_round: 1, drafts_awaiting_approval: modules.length, updated_at: at.toISOString() });
+    }
     const row = (await findJob(db, shop.shopId, job.id))!;
     if (row.state !== p.state || row.round !== p.round) throw new Error(`demo job ${number} walked to ${row.state} round ${row.round}, planned ${p.state} round ${p.round}`);
     jobs.push({ id: job.id, shopId: shop.shopId, number, state: row.state, round: row.round, customerUserId: customerId, dealerId, vehicle: vehicle.spec, customerName: ctx.customerNames.get(customerId) ?? 'customer', modules });
   }
+  // Kestrel asks for a second person's approval of every revision draft (set after the history, which predates it).
+  if (kestrel) await updateShop(db, shop.shopId, { revision_approval: 1 });
   return jobs;
 }

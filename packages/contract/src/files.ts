@@ -59,6 +59,17 @@ export const calibrationFileSchema = z.object({
   ranges: z.array(addressRangeSchema),
   uploadedBy: personRefSchema,
   createdAt: timestamp,
+  /** A revision not sent yet: only shop staff ever see one. */
+  draft: z.boolean(),
+  /** The shop asked for a second person's approval of this draft; `approvedBy` is null until someone gives it. */
+  approvalRequired: z.boolean(),
+  approvedBy: personRefSchema.nullable(),
+  approvedAt: timestamp.nullable(),
+  /** When Send revision sent it, with the "what changed" note the customer reads beside the download. */
+  sentAt: timestamp.nullable(),
+  sendNote: z.string().nullable(),
+  /** The viewer may approve this draft now (the abilities' File rule: never the uploader). */
+  canApprove: z.boolean(),
   /** Reads in the job's file list, for those who revise: the image size against the engine family's expected sizes. */
   plausibility: readPlausibilitySchema.nullable().optional(),
 });
@@ -134,3 +145,10 @@ export const fileDiffResponseSchema = itemOf(fileDiffSchema);
 export const diffHexSchema = z.object({ range: addressRangeSchema, width: z.number(), rows: z.array(hexRowSchema), truncated: z.boolean() });
 export type DiffHex = z.infer<typeof diffHexSchema>;
 export const diffHexResponseSchema = itemOf(diffHexSchema);
+
+/** What `GET /api/shop` adds about revision review: drafts need a second person's approval before they are sent. */
+export const shopRevisionReviewSchema = z.object({ revisionApproval: z.boolean() });
+export type ShopRevisionReview = z.infer<typeof shopRevisionReviewSchema>;
+/** The revision-review field of `PATCH /api/shop` (owner). */
+export const shopRevisionReviewPatchSchema = shopRevisionReviewSchema.partial();
+export type ShopRevisionReviewPatch = z.infer<typeof shopRevisionReviewPatchSchema>;

@@ -22,6 +22,8 @@ export const jobListQuerySchema = z.object({
   customer: z.string().min(1).optional(),
   q: z.string().trim().max(100).optional(),
   mine: z.enum(['true', 'false']).optional(),
+  /** Only jobs with a revision draft waiting for a second person's approval (staff; nobody else sees drafts). */
+  awaiting: z.enum(['approval']).optional(),
   sort: z.enum(JOB_SORT_KEYS).default('updated'),
   dir: z.enum(['asc', 'desc']).default('desc'),
   page: z.coerce.number().int().min(1).default(1),
@@ -45,6 +47,8 @@ export const jobSchema = z.object({
   specialRequests: specialRequestsSchema,
   logRequest: logRequestSchema,
   facts: z.object({ hasStockRead: z.boolean(), hasRevisionForRound: z.boolean(), hasLogForRound: z.boolean() }),
+  /** Revision drafts of the coming round waiting for approval; always 0 for the customer side, which sees no draft. */
+  draftsAwaitingApproval: z.number(),
   stateChangedAt: timestamp,
   hoursInState: z.number(),
   stale: z.boolean(),
@@ -59,6 +63,15 @@ export type SpecialRequests = Job['specialRequests'];
 
 export const jobListResponseSchema = listWithMeta(jobSchema, z.object({ total: z.number(), page: z.number(), pageSize: z.number(), pageCount: z.number() }));
 export type JobListResponse = z.infer<typeof jobListResponseSchema>;
+
+/** Body of `POST /api/jobs/:id/transitions`: the target state; Send revision also takes the "what changed" note. */
+export const SEND_NOTE_MAX = 2000;
+export const jobTransitionInputSchema = z.object({
+  to: z.enum(JOB_STATES),
+  kitOutOverride: z.boolean().optional(),
+  note: z.string().trim().min(1, 'Say what changed in this revision.').max(SEND_NOTE_MAX, `Keep the note under ${SEND_NOTE_MAX} characters.`).optional(),
+});
+export type JobTransitionInput = z.input<typeof jobTransitionInputSchema>;
 
 export const timelineEntrySchema = z.object({ id: z.string(), at: timestamp, action: z.string(), actor: z.string().nullable(), text: z.string() });
 export type TimelineEntry = z.infer<typeof timelineEntrySchema>;

@@ -12,6 +12,7 @@ import * as publicPages from './migrations/2026-12-02-009-public-pages';
 import * as reports from './migrations/2026-12-02-010-reports';
 import * as rentals from './migrations/2026-12-02-011-rentals';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
+import * as revisionDrafts from './migrations/2026-12-02-013-revision-drafts';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -27,6 +28,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-010-reports': reports,
   '2026-12-02-011-rentals': rentals,
   '2026-12-02-012-job-list-versions': jobListVersions,
+  '2026-12-02-013-revision-drafts': revisionDrafts,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

@@ -125,7 +125,7 @@ export function requireShop(req: Request): AuthContext & { shop: ShopRow; member
   return auth as AuthContext & { shop: ShopRow; membership: MembershipRow };
 }
 
-const WRITES = new Set<Action>(['create', 'update', 'delete', 'invite', 'assign', 'take', 'transition', 'upload', 'upload_revision', 'refund']);
+const WRITES = new Set<Action>(['create', 'update', 'delete', 'invite', 'assign', 'take', 'transition', 'upload', 'upload_revision', 'refund', 'approve']);
 
 function deny(auth: AuthContext, action: Action): never {
   if (auth.actor.shopReadOnly && WRITES.has(action)) {

@@ -189,7 +189,8 @@ async function ok<T extends { status: number; body: unknown }>(what: string, res
 
 /**
  * A job opened through the intake route and walked to `state` by the same routes people use: the customer uploads the
- * stock read and the logs, the bench (the tuner, or the owner) starts work, sends revisions and decides.
+ * stock read and the logs, the bench (the tuner, or the owner) starts work, uploads each revision and sends it with a
+ * note, and decides. The shop is left as made (no approval asked for), so the bench sends its own drafts.
  */
 export async function createJob(t: TestApp, shop: TestShop, options: JobOptions = {}): Promise<TestJob> {
   const state = options.state ?? 'intake';
@@ -228,6 +229,8 @@ export async function createJob(t: TestApp, shop: TestShop, options: JobOptions 
     if (target !== 'ready') await move(bench, 'on_bench');
     for (let r = 1; r <= rounds; r++) {
       for (const module of pkg.modules) await upload(bench, module, 'revision', r);
+      // A revision is a draft until the bench sends it with a note of what changed.
+      await ok('sending the revision', bench.post(`/api/jobs/${id}/transitions`).send({ to: 'with_customer', note: `Revision ${r}: fuel and timing for the logged conditions.` }));
       if (target === 'with_customer' && r === rounds) break;
       const log = await ok('uploading a log', customerAgent.post(`/api/jobs/${id}/datalogs`).attach('file', Buffer.from(generateLog({ seed: r }).text), `drive-${r}.csv`), 202);
       await settledLog(customerAgent, log.body.data.id);

@@ -3,14 +3,16 @@ import type { CalibrationFileRow, CalibrationModule, InsertableCalibrationFileRo
 
 export interface CalibrationFileListRow extends CalibrationFileRow {
   uploaded_by_name: string;
+  approved_by_name: string | null;
 }
 
 function withUploader(db: Db, shopId: string) {
   return db
     .selectFrom('calibration_files')
     .innerJoin('users', 'users.id', 'calibration_files.uploaded_by_user_id')
+    .leftJoin('users as approver', 'approver.id', 'calibration_files.approved_by_user_id')
     .selectAll('calibration_files')
-    .select('users.name as uploaded_by_name')
+    .select(['users.name as uploaded_by_name', 'approver.name as approved_by_name'])
     .where('calibration_files.shop_id', '=', shopId);
 }
 
@@ -72,6 +74,45 @@ export async function modulesRevisedForRound(db: Db, shopId: string, jobId: stri
     .where('for_round', '=', round)
     .execute();
   return rows.map((r) => r.module);
+}
+
+/** Revision drafts made for `round` that still wait for a second person's approval. */
+export async function countDraftsAwaitingApproval(db: Db, shopId: string, jobId: string, round: number): Promise<number> {
+  const row = await db
+    .selectFrom('calibration_files')
+    .select((eb) => eb.fn.countAll<number>().as('n'))
+    .where('shop_id', '=', shopId)
+    .where('job_id', '=', jobId)
+    .where('kind', '=', 'revision')
+    .where('for_round', '=', round)
+    .where('approval_required', '=', 1)
+    .where('approved_by_user_id', 'is', null)
+    .executeTakeFirstOrThrow();
+  return Number(row.n);
+}
+
+/** Approves a draft once: false when it was already approved (or is not this shop's). */
+export async function approveRevisionDraft(db: Db, shopId: string, fileId: string, userId: string, at: string): Promise<boolean> {
+  const result = await db
+    .updateTable('calibration_files')
+    .set({ approved_by_user_id: userId, approved_at: at })
+    .where('shop_id', '=', shopId)
+    .where('id', '=', fileId)
+    .where('approved_by_user_id', 'is', null)
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
+}
+
+/** Stores the "what changed" note and the moment on every revision a send puts out (those made for `round`). */
+export async function markRevisionsSent(db: Db, shopId: string, jobId: string, round: number, note: string, at: string): Promise<void> {
+  await db
+    .updateTable('calibration_files')
+    .set({ sent_at: at, send_note: note })
+    .where('shop_id', '=', shopId)
+    .where('job_id', '=', jobId)
+    .where('kind', '=', 'revision')
+    .where('for_round', '=', round)
+    .execute();
 }
 
 export interface ImageMatchRow {

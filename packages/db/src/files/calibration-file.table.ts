@@ -31,6 +31,13 @@ export interface CalibrationFileTable {
   ranges: string;
   uploaded_by_user_id: string;
   created_at: string;
+  /** 1 when the shop asked for a second person's approval at upload (revisions only). */
+  approval_required: Generated<number>;
+  approved_by_user_id: Generated<string | null>;
+  approved_at: Generated<string | null>;
+  /** When "Send revision" sent it, and the "what changed" note sent with it; null while a draft. */
+  sent_at: Generated<string | null>;
+  send_note: Generated<string | null>;
 }
 export type CalibrationFileRow = Selectable<CalibrationFileTable>;
 export type InsertableCalibrationFileRow = Insertable<CalibrationFileTable>;

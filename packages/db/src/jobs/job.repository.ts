@@ -24,6 +24,8 @@ export interface JobListFilter {
   dealerId?: string;
   packageId?: string;
   customerUserId?: string;
+  /** Only jobs with a revision draft waiting for a second person's approval. */
+  awaitingApproval?: boolean;
   text?: string;
 }
 
@@ -35,8 +37,9 @@ function jobConditions(shopId: string, scope: JobScope, filter: JobListFilter) {
   return (eb: ExpressionBuilder<Database, 'jobs'>) => {
     const terms: Expression<SqlBool>[] = [eb('jobs.shop_id', '=', shopId)];
     // The SQL twin of the Job ability conditions: what a role may see is decided inside the query.
-    if (scope.kind === 'tuner') terms.push(eb.or([eb('jobs.assigned_tuner_id', '=', scope.userId), eb('jobs.assigned_tuner_id', 'is', null)]));
-    else if (scope.kind === 'dealer') terms.push(eb('jobs.dealer_id', '=', scope.dealerId));
+    if (scope.kind === 'tuner') {
+      terms.push(eb.or([eb('jobs.assigned_tuner_id', '=', scope.userId), eb('jobs.assigned_tuner_id', 'is', null), eb('jobs.drafts_awaiting_approval', '>', 0)]));
+    } else if (scope.kind === 'dealer') terms.push(eb('jobs.dealer_id', '=', scope.dealerId));
     else if (scope.kind === 'customer') terms.push(eb('jobs.customer_user_id', '=', scope.userId));
     else if (scope.kind === 'none') terms.push(sql<SqlBool>`0`);
     if (filter.states?.length) terms.push(eb('jobs.state', 'in', filter.states));
@@ -46,6 +49,7 @@ function jobConditions(shopId: string, scope: JobScope, filter: JobListFilter) {
     if (filter.dealerId) terms.push(eb('jobs.dealer_id', '=', filter.dealerId));
     if (filter.packageId) terms.push(eb('jobs.package_id', '=', filter.packageId));
     if (filter.customerUserId) terms.push(eb('jobs.customer_user_id', '=', filter.customerUserId));
+    if (filter.awaitingApproval) terms.push(eb('jobs.drafts_awaiting_approval', '>', 0));
     return eb.and(terms);
   };
 }

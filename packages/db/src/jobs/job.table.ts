@@ -17,6 +17,8 @@ export interface JobTable {
   has_stock_read: Generated<number>;
   has_revision_for_round: Generated<number>;
   has_log_for_round: Generated<number>;
+  /** Revision drafts of the coming round still waiting for a second person's approval (migration 013). */
+  drafts_awaiting_approval: Generated<number>;
   goals: string;
   special_requests: Generated<string>;
   log_request: string;

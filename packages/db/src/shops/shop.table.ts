@@ -16,6 +16,8 @@ export interface ShopTable {
   description: Generated<string>;
   /** 1 when the public page is on. */
   public_page: Generated<number>;
+  /** 1 when a revision draft needs another person's approval before it is sent (migration 013). */
+  revision_approval: Generated<number>;
 }
 export type ShopRow = Selectable<ShopTable>;
 export type InsertableShopRow = Insertable<ShopTable>;

@@ -35,7 +35,9 @@ export type Action =
   | 'verify'
   /** Rentals: pick a kit and dates for a job (staff); agree to the rental terms (the job's customer or dealer). */
   | 'book'
-  | 'agree';
+  | 'agree'
+  /** Approve a revision draft before it is sent (File only; never the uploader's own). */
+  | 'approve';
 
 export const SUBJECTS = [
   'Platform',
@@ -62,6 +64,8 @@ export const SUBJECTS = [
   /** Flashing kits the shop rents out, and their rentals (issue 14). */
   'Kit',
   'Rental',
+  /** Who approved which revision draft: the shop's own business, shown on the staff side of the timeline. */
+  'Approval',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -88,6 +92,7 @@ const WRITE_ACTIONS: Action[] = [
   'upload',
   'upload_revision',
   'refund',
+  'approve',
 ];
 
 export function defineAbilityFor(actor: Actor | null): AppAbility {
@@ -95,10 +100,10 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   if (!actor) return build();
 
   if (actor.system) {
-    // Automatic moves only: a stock read makes a job ready, a full revision set goes to the customer, a log starts
-    // the review, a payment releases its hold (resume, wherever the job was held from).
+    // Automatic moves only: a stock read makes a job ready, a log starts the review, a payment releases its hold
+    // (resume, wherever the job was held from). Sending a revision is always a person's move, with their note.
     if (!actor.shopId) return build();
-    can('transition', 'Job', ['ready', 'with_customer', 'log_review'], { shopId: actor.shopId });
+    can('transition', 'Job', ['ready', 'log_review'], { shopId: actor.shopId });
     can('transition', 'Job', [...OPEN_STATES], { shopId: actor.shopId, state: 'on_hold' });
     return build();
   }
@@ -148,6 +153,8 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
       can('create', 'Job', inShop);
       can(['read', 'update', 'upload', 'upload_revision', 'download'], 'Job', inReach);
       can('take', 'Job', { shopId, assignedTunerId: null });
+      // Any tuner may open a job whose draft waits for a second person's approval, to review and approve it.
+      can('read', 'Job', { shopId, awaitingApproval: true });
       // Shop steps for any tuner with the job in reach; the bench steps (send, revise again, dialed in) only for
       // the tuner it is assigned to.
       can('transition', 'Job', ['ready', 'log_review', 'on_hold'], inReach);
@@ -186,6 +193,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
   }
 
   defineFileRules(can, actor, shopId);
+  if (actor.role === 'owner' || actor.role === 'tuner') can('read', 'Approval', inShop);
   // Reports: how the shop is doing (money, each tuner's load) is the owner's view alone; reading stays open when read-only.
   if (actor.role === 'owner') can('read', 'Report', inShop);
   defineRentalRules(actor, shopId, can, cannot);
@@ -197,37 +205,48 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
     // Nor does it move money: no charge for work it cannot do now (job checkout), no dealer top-up or ledger entry,
     // no refund (docs/decisions/008). Only the owner's own payment to the platform (Subscription) stays open.
     cannot(WRITE_ACTIONS, ['Payment', 'Ledger']);
+    cannot('approve', 'File');
   }
   return build();
 }
 
 /**
  * A calibration file as the File rules see it: its job's scope fields, plus whether it has reached the customer side
- * (`sent`: anything but a revision, or a revision whose round has started) and who uploaded it.
+ * (`sent`: anything but a revision, or a revision whose round has started — a revision not sent is a draft), who
+ * uploaded it, and whether it is a draft still waiting for the approval the shop asks for.
  */
 export interface FileSubject {
   shopId: string;
   assignedTunerId: string | null;
   dealerId: string | null;
   customerUserId: string;
+  /** The job has a draft waiting for approval, so any tuner of the shop may review its files. */
+  awaitingApproval: boolean;
   kind: 'read' | 'revision' | 're_read';
   sent: boolean;
   uploadedByUserId: string;
+  approvalPending: boolean;
 }
 
 /**
  * Who sees which file. The shop side sees every file of a job it may read and checks files against the revisions;
- * the dealer sees its customers' files once sent; the customer sees revisions once sent, and their own uploads.
- * Reading and checking write nothing, so a read-only shop keeps both.
+ * the dealer sees its customers' files once sent; the customer sees revisions once sent, and their own uploads. A
+ * draft (a revision not sent) is the shop's alone: no customer or dealer rule matches it, on any route. A draft
+ * waiting for approval is approved by another tuner or the owner, never by its uploader. Reading and checking write
+ * nothing, so a read-only shop keeps both.
  */
 function defineFileRules(can: AbilityBuilder<AppAbility>['can'], actor: Actor, shopId: string): void {
   const me = actor.userId;
+  const approvable = { shopId, kind: 'revision', sent: false, approvalPending: true, uploadedByUserId: { $ne: me } };
   switch (actor.role) {
     case 'owner':
       can(['read', 'verify'], 'File', { shopId });
+      can('approve', 'File', approvable);
       break;
     case 'tuner':
       can(['read', 'verify'], 'File', { shopId, assignedTunerId: { $in: [me, null] } });
+      can('read', 'File', { shopId, awaitingApproval: true });
+      can('approve', 'File', approvable);
       break;
     case 'dealer':
       if (actor.dealerId) can('read', 'File', { shopId, dealerId: actor.dealerId, sent: true });

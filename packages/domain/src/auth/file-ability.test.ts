@@ -18,7 +18,7 @@ const actorOf = (role: ShopRole, over: Partial<Actor> = {}): Actor => ({
 
 /** A file of a job that every role below may read (own shop, own dealer, own customer, assigned to me). */
 const file = (over: Partial<FileSubject> = {}) =>
-  asSubject('File', { shopId: S, assignedTunerId: ME, dealerId: D, customerUserId: ME, kind: 'read', sent: true, uploadedByUserId: 'someone-else', ...over } satisfies FileSubject);
+  asSubject('File', { shopId: S, assignedTunerId: ME, dealerId: D, customerUserId: ME, awaitingApproval: false, kind: 'read', sent: true, uploadedByUserId: 'someone-else', approvalPending: false, ...over } satisfies FileSubject);
 
 type Audience = 'sent' | 'unsent';
 type Uploader = 'me' | 'other';
@@ -85,5 +85,44 @@ describe('File rules follow the job scope', () => {
     expect(a.can('read', file({ kind: 'revision', sent: false }))).toBe(true);
     expect(a.can('verify', file())).toBe(true);
     expect(defineAbilityFor(actorOf('customer', { shopReadOnly: true })).can('read', file({ kind: 'revision' }))).toBe(true);
+  });
+});
+
+describe('Revision drafts: approval by a second person', () => {
+  const draft = (over: Partial<FileSubject> = {}) => file({ kind: 'revision', sent: false, approvalPending: true, awaitingApproval: true, ...over });
+
+  it('another tuner or the owner approves a draft waiting for approval; its uploader never does', () => {
+    expect(defineAbilityFor(actorOf('owner')).can('approve', draft())).toBe(true);
+    expect(defineAbilityFor(actorOf('tuner')).can('approve', draft())).toBe(true);
+    expect(defineAbilityFor(actorOf('tuner')).can('approve', draft({ uploadedByUserId: ME }))).toBe(false);
+    expect(defineAbilityFor(actorOf('owner')).can('approve', draft({ uploadedByUserId: ME }))).toBe(false);
+  });
+
+  it('a tuner outside the job reviews its files while a draft waits for approval, not otherwise', () => {
+    const tuner = defineAbilityFor(actorOf('tuner'));
+    expect(tuner.can('read', draft({ assignedTunerId: 'other-tuner' }))).toBe(true);
+    expect(tuner.can('approve', draft({ assignedTunerId: 'other-tuner' }))).toBe(true);
+    expect(tuner.can('read', file({ assignedTunerId: 'other-tuner', awaitingApproval: true }))).toBe(true);
+    expect(tuner.can('read', file({ assignedTunerId: 'other-tuner' }))).toBe(false);
+  });
+
+  it('nothing to approve once approved, sent, or not asked for; never by the customer side or a read-only shop', () => {
+    const owner = defineAbilityFor(actorOf('owner'));
+    expect(owner.can('approve', draft({ approvalPending: false }))).toBe(false);
+    expect(owner.can('approve', draft({ sent: true }))).toBe(false);
+    expect(owner.can('approve', draft({ kind: 'read' }))).toBe(false);
+    for (const role of ['dealer', 'customer'] as const) {
+      expect(defineAbilityFor(actorOf(role)).can('approve', draft())).toBe(false);
+      expect(defineAbilityFor(actorOf(role)).can('read', draft())).toBe(false);
+    }
+    expect(defineAbilityFor(actorOf('owner', { shopReadOnly: true })).can('approve', draft())).toBe(false);
+  });
+
+  it('who approved which draft is read by the staff only', () => {
+    const approval = asSubject('Approval', { shopId: S });
+    expect(defineAbilityFor(actorOf('owner')).can('read', approval)).toBe(true);
+    expect(defineAbilityFor(actorOf('tuner')).can('read', approval)).toBe(true);
+    expect(defineAbilityFor(actorOf('dealer')).can('read', approval)).toBe(false);
+    expect(defineAbilityFor(actorOf('customer')).can('read', approval)).toBe(false);
   });
 });

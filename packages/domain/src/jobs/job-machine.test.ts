@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { defineAbilityFor } from '../auth/ability';
 import type { Actor } from '../auth/roles';
 import { type JobFacts, applyTransition, canMarkReady, nextStep } from './job-machine';
-import { assertTransition, availableTransitions } from './job-moves';
+import { assertMoveNote, assertTransition, availableTransitions } from './job-moves';
 import {
   JOB_STATES,
   JOB_STATE_LABELS,
@@ -21,6 +21,7 @@ const base = (state: JobState, overrides: Partial<JobFacts> = {}): JobFacts => (
   dealerId: 'dealer-a',
   hasStockRead: true,
   hasRevisionForRound: true,
+  awaitingApproval: false,
   hasLogForRound: true,
   ...overrides,
 });
@@ -147,9 +148,21 @@ describe('guards', () => {
     expect(() => assertTransition(facts, owner, 'with_customer')).toThrow(
       expect.objectContaining({
         code: 'invalid_transition',
-        message: 'Upload revision 2 before sending it.',
+        message: 'Upload revision 2 of every module before sending it.',
       }),
     );
+  });
+
+  it('on_bench → with_customer waits for the approval the shop asks for, and then needs a note', () => {
+    const facts = base('on_bench', { round: 1, awaitingApproval: true });
+    expect(() => assertTransition(facts, owner, 'with_customer')).toThrow(
+      expect.objectContaining({ code: 'invalid_transition', message: "Revision 2 needs another person's approval before it goes out." }),
+    );
+    const approved = { ...facts, awaitingApproval: false };
+    expect(availableTransitions(approved, defineAbilityFor(owner))[0]).toEqual({ to: 'with_customer', label: 'Send revision', needsNote: true });
+    expect(() => assertMoveNote(approved, 'with_customer', '  ')).toThrow(expect.objectContaining({ code: 'validation' }));
+    expect(() => assertMoveNote(approved, 'with_customer', 'Fuel trims at idle')).not.toThrow();
+    expect(() => assertMoveNote(base('log_review'), 'on_bench', undefined)).not.toThrow();
   });
 
   it('with_customer → log_review needs the log, for the customer too', () => {

@@ -19,8 +19,10 @@ export interface JobFacts {
   dealerId: string | null;
   /** A stock read is on file (set by file upload, or recorded by hand by a tuner). */
   hasStockRead: boolean;
-  /** The revision being prepared on the bench (number round + 1) is uploaded. */
+  /** Every module of the package has a revision draft for the coming round (number round + 1). */
   hasRevisionForRound: boolean;
+  /** Some draft of the coming round still waits for a second person's approval (a shop setting asks for it). */
+  awaitingApproval: boolean;
   /** A datalog for the revision now on the car (number round) is uploaded. */
   hasLogForRound: boolean;
 }
@@ -31,12 +33,16 @@ export interface AvailableTransition {
   to: JobState;
   /** Button text for the move. */
   label: string;
+  /** The move is made with a "what changed" note for the customer (Send revision). */
+  needsNote?: boolean;
 }
 
 export interface Move {
   from: JobState;
   to: JobState;
   label: string;
+  /** The mover must say what changed (stored with the revisions it sends and shown to the customer). */
+  needsNote?: boolean;
   /** Null when the move can be made now, else the reason it cannot. */
   guard?: (facts: JobFacts) => string | null;
 }
@@ -44,7 +50,7 @@ export interface Move {
 export const canMarkReady = (facts: JobFacts): boolean =>
   facts.state === 'intake' && facts.hasStockRead;
 export const canSendRevision = (facts: JobFacts): boolean =>
-  facts.state === 'on_bench' && facts.hasRevisionForRound;
+  facts.state === 'on_bench' && facts.hasRevisionForRound && !facts.awaitingApproval;
 export const canStartLogReview = (facts: JobFacts): boolean =>
   facts.state === 'with_customer' && facts.hasLogForRound;
 export const canResume = (facts: JobFacts): boolean =>
@@ -65,7 +71,13 @@ const FORWARD_MOVES: readonly Move[] = [
     from: 'on_bench',
     to: 'with_customer',
     label: 'Send revision',
-    guard: (f) => (canSendRevision(f) ? null : `Upload revision ${f.round + 1} before sending it.`),
+    needsNote: true,
+    guard: (f) =>
+      canSendRevision(f)
+        ? null
+        : f.hasRevisionForRound
+          ? `Revision ${f.round + 1} needs another person's approval before it goes out.`
+          : `Upload revision ${f.round + 1} of every module before sending it.`,
   },
   {
     from: 'with_customer',
@@ -127,6 +139,7 @@ export function applyTransition(facts: JobFacts, to: JobState, actor?: Actor): J
   if (facts.state === 'on_bench' && to === 'with_customer') {
     next.round = facts.round + 1;
     next.hasRevisionForRound = false;
+    next.awaitingApproval = false;
     next.hasLogForRound = false;
   }
   if (to === 'on_bench' && facts.assignedTunerId === null && actor?.role === 'tuner') {
@@ -148,8 +161,11 @@ export function nextStep(facts: JobFacts, audience: Audience): string {
       case 'ready':
         return 'Waiting for a tuner: start work to put it on the bench.';
       case 'on_bench':
+        if (facts.hasRevisionForRound && facts.awaitingApproval) {
+          return `Revision ${coming} is a draft waiting for approval by another tuner or the owner.`;
+        }
         return facts.hasRevisionForRound
-          ? `Revision ${coming} is uploaded: send it to the customer.`
+          ? `Revision ${coming} is a draft: check it, then send it with a note of what changed.`
           : `Prepare revision ${coming}${round > 0 ? ` from the log of revision ${round}` : ''}.`;
       case 'with_customer':
         return facts.hasLogForRound

@@ -46,6 +46,7 @@ const facts = (state: JobState, assigned: string | null, overrides: Partial<JobF
   dealerId: 'dealer-a',
   hasStockRead: true,
   hasRevisionForRound: true,
+  awaitingApproval: false,
   hasLogForRound: true,
   ...overrides,
 });
@@ -60,6 +61,7 @@ const SITUATIONS: Array<{ name: string; over: (assigned: string | null) => JobFa
   { name: 'on_hold from nowhere', over: (a) => facts('on_hold', a) },
   { name: 'intake without a read', over: (a) => facts('intake', a, { hasStockRead: false }) },
   { name: 'on_bench without a revision', over: (a) => facts('on_bench', a, { hasRevisionForRound: false }) },
+  { name: 'on_bench with a draft awaiting approval', over: (a) => facts('on_bench', a, { awaitingApproval: true }) },
   { name: 'with_customer without a log', over: (a) => facts('with_customer', a, { hasLogForRound: false }) },
 ];
 
@@ -89,9 +91,9 @@ describe('who makes which move', () => {
   };
 
   it('the system actor makes only the automatic moves', () => {
-    // Written out from the product rules: a read makes intake ready, a full revision set goes to the customer,
-    // a log starts the review, a payment releases its hold; it never starts work, holds, finishes or cancels.
-    const auto: Array<[JobState, JobState]> = [['intake', 'ready'], ['on_bench', 'with_customer'], ['with_customer', 'log_review']];
+    // Written out from the product rules: a read makes intake ready, a log starts the review, a payment releases its
+    // hold; it never starts work, sends a revision (a person does, with a note), holds, finishes or cancels.
+    const auto: Array<[JobState, JobState]> = [['intake', 'ready'], ['with_customer', 'log_review']];
     for (const state of OPEN_STATES) {
       for (const to of JOB_STATES) {
         const expected = state === 'on_hold' ? false : auto.some(([f, t]) => f === state && t === to);

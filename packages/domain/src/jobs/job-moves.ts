@@ -24,7 +24,14 @@ export function availableTransitions(facts: JobFacts, ability: AppAbility): Avai
   const subject = jobMoveSubject(facts);
   return movesFrom(facts)
     .filter((move) => ability.can('transition', subject, move.to) && (move.guard?.(facts) ?? null) === null)
-    .map(({ to, label }) => ({ to, label }));
+    .map(({ to, label, needsNote }) => ({ to, label, ...(needsNote && { needsNote }) }));
+}
+
+/** Throws 'validation' when the move to `to` needs a "what changed" note and none was given. */
+export function assertMoveNote(facts: JobFacts, to: JobState, note: string | null | undefined): void {
+  if (moveTo(facts, to).needsNote && !note?.trim()) {
+    throw new DomainError('validation', 'Say what changed in this revision: the customer reads the note with the download.');
+  }
 }
 
 /**

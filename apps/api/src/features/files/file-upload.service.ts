@@ -1,13 +1,14 @@
 import fsp from 'node:fs/promises';
 import {
+  countDraftsAwaitingApproval,
   findCalibrationFile,
   findPackage,
   insertCalibrationFile,
   latestRead,
   latestRevision,
-  listJobFiles,
   modulesRevisedForRound,
   newId,
+  updateJob,
   type CalibrationFileKind,
   type CalibrationFileRow,
   type CalibrationModule,
@@ -22,11 +23,10 @@ import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';
-import { fileLinkQuery } from './file-links';
 import { FORMAT_LABELS, fileLabel, fileRowToApi, type ApiCalibrationFile } from './file.presenter';
 import { verifyFile, type Verification } from './file-verify.service';
 
-type ShopAuth = AuthContext & { shop: { id: string; settings: string; name: string } };
+type ShopAuth = AuthContext & { shop: { id: string; settings: string; name: string; revision_approval: number } };
 
 export interface UploadInput {
   module: CalibrationModule;
@@ -60,7 +60,7 @@ async function revisionPlace(db: Db, shopId: string, jobId: string, module: Cali
 
 export interface UploadResult {
   file: ApiCalibrationFile;
-  /** Modules of the package still waiting for a revision before the job is sent (revisions only). */
+  /** Modules of the package still waiting for a revision draft before the job can be sent (revisions only). */
   waitingFor: CalibrationModule[];
   movedTo: string | null;
   verification: Verification | null;
@@ -108,6 +108,8 @@ export async function storeUpload(
       ranges: JSON.stringify(parsed.ranges),
       uploaded_by_user_id: auth.user.id,
       created_at: at.toISOString(),
+      // The shop's setting when the draft is made decides whether it needs a second person's approval.
+      approval_required: input.kind === 'revision' && auth.shop.revision_approval === 1 ? 1 : 0,
     }).catch((error: unknown) => {
       if (String(error).includes('UNIQUE')) throw new DomainError('conflict', `Revision ${place?.number} of the ${input.module} was just uploaded by someone else. Reload and try again.`);
       throw error;
@@ -138,8 +140,9 @@ function uploadTimelineText(row: CalibrationFileRow, format: CalibrationFormat, 
 }
 
 /**
- * The job moves that follow from a file: the first read makes an intake job ready; a revision sends the job to the
- * customer once every module the package covers has its revision for the coming round.
+ * What follows from a file: the first read makes an intake job ready; a revision is a draft the shop sends later, so
+ * it only records whether every module the package covers has its draft for the coming round and how many drafts
+ * still wait for the approval the shop asks for (the board and the send guard read both).
  */
 async function followJobFlow(deps: AppDeps, auth: ShopAuth, job: JobListRow, row: CalibrationFileRow): Promise<{ waitingFor: CalibrationModule[]; movedTo: string | null }> {
   const { db, clock } = deps;
@@ -156,13 +159,8 @@ async function followJobFlow(deps: AppDeps, auth: ShopAuth, job: JobListRow, row
   const covered = pkg ? (JSON.parse(pkg.modules) as CalibrationModule[]) : [row.module];
   const revised = await modulesRevisedForRound(db, auth.shop.id, job.id, round);
   const waitingFor = covered.filter((module) => !revised.includes(module));
-  if (waitingFor.length > 0) return { waitingFor, movedTo: null };
-  await setJobFacts(db, auth.shop.id, job.id, { hasRevisionForRound: true }, clock.now());
-  const files = (await listJobFiles(db, auth.shop.id, job.id)).filter((f) => f.kind === 'revision' && f.for_round === round);
-  const lines = [
-    'Download (each link works for 7 days without signing in):',
-    ...files.map((f) => `- ${fileLabel(f)}: ${deps.env.APP_ORIGIN}/api/files/${f.id}/download?${fileLinkQuery(deps.env.FILE_LINK_SECRET, auth.shop.id, f.id, clock.now())}`),
-  ];
-  await moveJob(deps, auth, job.id, 'with_customer', { bySystem: true, extraEmailLines: lines });
-  return { waitingFor: [], movedTo: 'with_customer' };
+  const waiting = await countDraftsAwaitingApproval(db, auth.shop.id, job.id, round);
+  await updateJob(db, auth.shop.id, job.id, { drafts_awaiting_approval: waiting, updated_at: clock.now().toISOString() });
+  if (waitingFor.length === 0) await setJobFacts(db, auth.shop.id, job.id, { hasRevisionForRound: true }, clock.now());
+  return { waitingFor, movedTo: null };
 }

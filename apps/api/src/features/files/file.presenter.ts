@@ -30,7 +30,12 @@ export function downloadNameOf(row: CalibrationFileRow, job: JobListRow): string
   });
 }
 
-export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow): CalibrationFile {
+/** A revision not sent yet: made for a round the job has not started (Send revision starts it). */
+export const isDraft = (row: Pick<CalibrationFileRow, 'kind' | 'for_round'>, job: Pick<JobListRow, 'round'>): boolean =>
+  row.kind === 'revision' && (row.for_round ?? 0) > job.round;
+
+/** `canApprove` is the viewer's File `approve` ability on this row, computed by the caller that knows the viewer. */
+export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow, canApprove = false): CalibrationFile {
   return {
     id: row.id,
     jobId: row.job_id,
@@ -53,6 +58,13 @@ export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow): Cali
     ranges: JSON.parse(row.ranges) as AddressRange[],
     uploadedBy: { id: row.uploaded_by_user_id, name: row.uploaded_by_name },
     createdAt: row.created_at,
+    draft: isDraft(row, job),
+    approvalRequired: row.approval_required === 1,
+    approvedBy: row.approved_by_user_id ? { id: row.approved_by_user_id, name: row.approved_by_name ?? '' } : null,
+    approvedAt: row.approved_at,
+    sentAt: row.sent_at,
+    sendNote: row.send_note,
+    canApprove,
   };
 }
 export type ApiCalibrationFile = CalibrationFile;

@@ -12,7 +12,8 @@ import { storeUpload } from './file-upload.service';
 import { verifyVisibleFile } from './file-verify.service';
 import { fileRowToApi } from './file.presenter';
 import { diffQuerySchema, hexQuerySchema, linkQuerySchema, uploadFieldsSchema } from './file.schemas';
-import { downloadFile, downloadFileByLink, fileAbilities, listVisibleFiles, loadFile, type FileDownload } from './file.service';
+import { approveDraft } from './file-approve.service';
+import { canApproveFile, downloadFile, downloadFileByLink, fileAbilities, listVisibleFiles, loadFile, type FileDownload } from './file.service';
 
 /** RFC 6266 attachment with an ASCII fallback and the UTF-8 name, so no header injection and no sniffing. */
 function sendFile(deps: AppDeps, res: Response, { row, name }: FileDownload): void {
@@ -76,8 +77,9 @@ export function createFilesRouter(deps: AppDeps): Router {
   const { db } = deps;
 
   router.get('/:id', async (req, res) => {
-    const { row, job } = await loadFile(db, requireShop(req), req.params.id);
-    res.json({ data: fileRowToApi(row, job) });
+    const auth = requireShop(req);
+    const { row, job } = await loadFile(db, auth, req.params.id);
+    res.json({ data: fileRowToApi(row, job, canApproveFile(auth, row, job)) });
   });
 
   router.get('/:id/download', async (req, res) => {
@@ -86,6 +88,11 @@ export function createFilesRouter(deps: AppDeps): Router {
         ? await downloadFileByLink(deps, req.params.id, parseInput(linkQuerySchema, req.query))
         : await downloadFile(deps, requireShop(req), req.params.id);
     sendFile(deps, res, download);
+  });
+
+  router.post('/:id/approve', async (req, res) => {
+    const { file, jobInReach } = await approveDraft(deps, requireShop(req), req.params.id);
+    res.json({ data: file, meta: { jobInReach } });
   });
 
   router.get('/:id/verify', async (req, res) => {

@@ -20,8 +20,8 @@ function logRequestLines(logRequestJson: string): string[] {
   ];
 }
 
-/** Who hears about a move, and what they are told. */
-export async function noticesForMove(db: Db, job: JobListRow, to: JobState) {
+/** Who hears about a move, and what they are told; `note` is what changed in a revision being sent. */
+export async function noticesForMove(db: Db, job: JobListRow, to: JobState, note?: string) {
   const vehicle = job.vehicle_description;
   const ref = `Job ${job.number} (${vehicle})`;
   const plan: Array<{ kind: NotificationKind; recipients: string[]; title: string; body: string; emailLines?: string[] }> = [];
@@ -30,8 +30,8 @@ export async function noticesForMove(db: Db, job: JobListRow, to: JobState) {
       kind: 'revision_ready',
       recipients: await customerSideOf(db, job),
       title: `Revision ${job.round} is ready — ${ref}`,
-      body: `Revision ${job.round} is ready to flash. Flash it, warm up, then log as requested.`,
-      emailLines: ['', ...logRequestLines(job.log_request), '', ...FLASH_CAUTIONS],
+      body: `Revision ${job.round} is ready to flash.${note ? ` What changed: ${note}` : ''} Flash it, warm up, then log as requested.`,
+      emailLines: [...(note ? ['', 'What changed:', note] : []), '', ...logRequestLines(job.log_request), '', ...FLASH_CAUTIONS],
     });
   } else if (to === 'log_review') {
     plan.push({ kind: 'log_received', recipients: await shopSideOf(db, job), title: `Log received — ${ref}`, body: `The log for revision ${job.round} is in and waiting for review.` });

@@ -6,7 +6,8 @@ import { canSeeFile } from '../files/file.service';
 
 const TIMELINE_TEXT: Record<string, (d: Record<string, unknown>) => string> = {
   'job.opened': () => 'Job opened',
-  'job.moved': (d) => `Moved from ${JOB_STATE_LABELS[d.from as JobState] ?? d.from} to ${JOB_STATE_LABELS[d.to as JobState] ?? d.to}`,
+  'job.moved': (d) =>
+    `Moved from ${JOB_STATE_LABELS[d.from as JobState] ?? d.from} to ${JOB_STATE_LABELS[d.to as JobState] ?? d.to}${typeof d.note === 'string' ? ` — what changed: ${d.note}` : ''}`,
   'job.assigned': (d) => (d.tunerId ? 'Tuner assigned' : 'Tuner unassigned'),
   'job.taken': () => 'Taken by a tuner',
   'job.log_request_changed': () => 'Log request changed',
@@ -15,16 +16,18 @@ const TIMELINE_TEXT: Record<string, (d: Record<string, unknown>) => string> = {
 /**
  * The job's audit trail as this viewer may see it, newest first: events about a file they may not see yet (a
  * revision not sent) are left out by the files list's own rule, and a dealer debit loses its wholesale amount
- * for anyone who may not read that dealer's ledger (the dealer's customers). Events with no person behind them are
+ * for anyone who may not read that dealer's ledger (the dealer's customers); approvals of drafts are the staff's alone. Events with no person behind them are
  * the system actor's, shown as Revloop.
  */
 export async function timelineFor(db: Db, auth: AuthContext & { shop: { id: string } }, job: JobListRow) {
   const events = await listAuditEvents(db, auth.shop.id, { subjectType: 'Job', subjectId: job.id, limit: 500 });
   const files = new Map((await listJobFiles(db, auth.shop.id, job.id)).map((row) => [row.id, row]));
+  const mayReadApprovals = auth.ability.can('read', asSubject('Approval', { shopId: job.shop_id }));
   const mayReadLedger = job.dealer_id !== null && auth.ability.can('read', asSubject('Ledger', { shopId: job.shop_id, dealerId: job.dealer_id }));
   return events
     .flatMap((e) => {
       const details = JSON.parse(e.details) as Record<string, unknown>;
+      if (e.action === 'revision.approved' && !mayReadApprovals) return [];
       if (typeof details.fileId === 'string') {
         const file = files.get(details.fileId);
         if (!file || !canSeeFile(auth, file, job)) return [];

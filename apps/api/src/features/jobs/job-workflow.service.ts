@@ -1,8 +1,8 @@
-import { findJob, findMembershipOfUser, inTransaction, listRentals, updateJob, type Db, type JobListRow } from '@revloop/db';
+import { findJob, findMembershipOfUser, inTransaction, listRentals, markRevisionsSent, updateJob, type Db, type JobListRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { systemActorFor, type Actor, type AppAbility } from '@revloop/domain/auth';
 import type { LogRequest } from '@revloop/domain/datalog';
-import { applyTransition, assertTransition, type JobFacts, type JobState } from '@revloop/domain/jobs';
+import { applyTransition, assertMoveNote, assertTransition, type JobFacts, type JobState } from '@revloop/domain/jobs';
 import { kitOutBlock } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
@@ -35,12 +35,13 @@ export async function transitionJob(
   job: JobListRow,
   to: JobState,
   mover: Mover,
-  options: { extraEmailLines?: string[]; auditText?: string; kitOutOverride?: boolean } = {},
+  options: MoveOptions & { auditText?: string } = {},
 ): Promise<JobListRow> {
   const { clock } = deps;
   const { actor } = mover;
   const facts = factsOf(job);
   assertTransition(facts, actor, to, mover.ability);
+  assertMoveNote(facts, to, options.note);
   if (to === 'dialed_in') {
     // A rented kit still away from the shop holds the job open unless the owner says otherwise.
     const rentals = await listRentals(trx, job.shop_id, { kind: 'shop' }, { jobId: job.id });
@@ -48,6 +49,8 @@ export async function transitionJob(
     if (blocked) throw new DomainError('invalid_transition', blocked);
   }
   const next = applyTransition(facts, to, actor);
+  // Only Send revision (the move that starts a round) carries a note.
+  const note = next.round > facts.round ? options.note?.trim() : undefined;
   const at = clock.now().toISOString();
   const updated = await updateJob(
     trx,
@@ -66,6 +69,8 @@ export async function transitionJob(
     job.state,
   );
   if (!updated) throw new DomainError('conflict', 'Someone else just moved this job. Reload and try again.');
+  // Send revision: the drafts of the round it starts go out, each carrying the note the customer reads.
+  if (note) await markRevisionsSent(trx, job.shop_id, job.id, next.round, note, at);
   await recordAudit(trx, {
     shopId: job.shop_id,
     // The system actor is nobody: the timeline shows its moves as Revloop's.
@@ -73,15 +78,22 @@ export async function transitionJob(
     action: 'job.moved',
     subjectType: 'Job',
     subjectId: job.id,
-    details: { from: job.state, to, round: next.round, ...(actor.system && { automatic: true }), ...(options.auditText && { text: options.auditText }) },
+    details: { from: job.state, to, round: next.round, ...(actor.system && { automatic: true }), ...(note && { note }), ...(options.auditText && { text: options.auditText }) },
     at: clock.now(),
   });
   const fresh = (await findJob(trx, job.shop_id, job.id))!;
-  for (const n of await noticesForMove(trx, fresh, to)) {
+  for (const n of await noticesForMove(trx, fresh, to, note)) {
     const emailLines = [...(n.emailLines ?? []), ...(options.extraEmailLines ? ['', ...options.extraEmailLines] : [])];
     await notify(trx, { shopId: job.shop_id, jobId: job.id, link: jobLink(deps.env.APP_ORIGIN, job.id), at: clock.now(), ...n, emailLines }, mover.causedBy);
   }
   return fresh;
+}
+
+/** `note` is the "what changed" note Send revision needs; `extraEmailLines` are added to the e-mails the move sends. */
+export interface MoveOptions {
+  extraEmailLines?: string[];
+  kitOutOverride?: boolean;
+  note?: string;
 }
 
 /**
@@ -95,7 +107,7 @@ export async function moveJob(
   auth: ShopAuth,
   jobId: string,
   to: JobState,
-  options: { bySystem?: boolean; extraEmailLines?: string[]; kitOutOverride?: boolean } = {},
+  options: MoveOptions & { bySystem?: boolean } = {},
 ): Promise<JobListRow> {
   const mover: Mover = options.bySystem
     ? { actor: systemActorFor(auth.shop.id), causedBy: auth.user.id }

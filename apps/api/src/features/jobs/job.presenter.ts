@@ -13,6 +13,7 @@ export const factsOf = (row: JobRow): JobFacts => ({
   dealerId: row.dealer_id,
   hasStockRead: row.has_stock_read === 1,
   hasRevisionForRound: row.has_revision_for_round === 1,
+  awaitingApproval: row.drafts_awaiting_approval > 0,
   hasLogForRound: row.has_log_for_round === 1,
 });
 
@@ -23,6 +24,7 @@ export const jobSubject = (row: JobRow) => ({
   assignedTunerId: row.assigned_tuner_id,
   dealerId: row.dealer_id,
   customerUserId: row.customer_user_id,
+  awaitingApproval: row.drafts_awaiting_approval > 0,
 });
 
 const audienceOf = (actor: Actor) => (actor.role === 'customer' ? 'customer' : actor.role === 'dealer' ? 'dealer' : 'shop');
@@ -32,6 +34,8 @@ export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: Ap
   const facts = factsOf(row);
   const hoursInState = (now.getTime() - Date.parse(row.state_changed_at)) / 3_600_000;
   const staleAfter = staleAfterHours(row.state);
+  // Drafts are the shop's alone: the customer side learns nothing of them, not even that one is uploaded.
+  const shopSide = audienceOf(viewer.actor) === 'shop';
   return {
     id: row.id,
     number: row.number,
@@ -47,7 +51,8 @@ export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: Ap
     goals: row.goals,
     specialRequests: JSON.parse(row.special_requests) as Job['specialRequests'],
     logRequest: JSON.parse(row.log_request) as Job['logRequest'],
-    facts: { hasStockRead: facts.hasStockRead, hasRevisionForRound: facts.hasRevisionForRound, hasLogForRound: facts.hasLogForRound },
+    facts: { hasStockRead: facts.hasStockRead, hasRevisionForRound: shopSide && facts.hasRevisionForRound, hasLogForRound: facts.hasLogForRound },
+    draftsAwaitingApproval: shopSide ? row.drafts_awaiting_approval : 0,
     stateChangedAt: row.state_changed_at,
     hoursInState: Math.max(0, Math.round(hoursInState * 10) / 10),
     stale: staleAfter !== null && hoursInState > staleAfter,

@@ -4,10 +4,11 @@ import { DomainError } from '@revloop/domain';
 import { asSubject, jobScopeFor } from '@revloop/domain/auth';
 import { csvLine } from '@revloop/domain/csv';
 import { logRequestSchema } from '@revloop/domain/datalog';
-import { JOB_STATES, JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema } from '@revloop/domain/jobs';
-import { jobListQuerySchema as listQuerySchema } from '@revloop/contract';
+import { JOB_STATE_LABELS, jobIntakeSchema, messageInputSchema } from '@revloop/domain/jobs';
+import { jobListQuerySchema as listQuerySchema, jobTransitionInputSchema } from '@revloop/contract';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
+import { revisionLinkLines } from '../files/file.service';
 import { authorize, authorizeRow, requireShop, type AuthContext } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { jobAnswerChangesAt, jobRowToJob, jobSubject } from './job.presenter';
@@ -25,11 +26,11 @@ function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobL
     ...(q.dealer && { dealerId: q.dealer }),
     ...(q.package && { packageId: q.package }),
     ...(q.customer && { customerUserId: q.customer }),
+    ...(q.awaiting === 'approval' && { awaitingApproval: true }),
     ...(q.q && { text: q.q }),
   };
 }
 
-const transitionSchema = z.object({ to: z.enum(JOB_STATES), kitOutOverride: z.boolean().optional() });
 const assignSchema = z.object({ tunerId: z.string().min(1).nullable() });
 
 /** Resolves when the response takes more data again, or when the client has gone. */
@@ -116,8 +117,11 @@ export function createJobsRouter(deps: AppDeps): Router {
 
   router.post('/:id/transitions', async (req, res) => {
     const auth = requireShop(req);
-    const { to, kitOutOverride } = parseInput(transitionSchema, req.body);
-    const job = await moveJob(deps, auth, req.params.id, to, { kitOutOverride: kitOutOverride ?? false });
+    const { to, kitOutOverride, note } = parseInput(jobTransitionInputSchema, req.body);
+    const current = await loadJob(db, auth, req.params.id);
+    // Send revision e-mails a signed link to each draft it sends.
+    const extraEmailLines = current.state === 'on_bench' && to === 'with_customer' ? await revisionLinkLines(deps, current) : undefined;
+    const job = await moveJob(deps, auth, req.params.id, to, { kitOutOverride: kitOutOverride ?? false, note, extraEmailLines });
     res.json({ data: jobRowToJob(job, auth, clock.now()) });
   });
 

@@ -28,7 +28,7 @@ export function useUploadJobFile() {
     mutationFn: uploadJobFile,
     onSuccess: async () => {
       await queryClient.invalidateQueries({ queryKey: filesRootKey });
-      // The job may have moved (first read → Ready, revision → With customer) and its timeline grew.
+      // The job may have moved (first read → Ready), a revision draft may make it sendable, and its timeline grew.
       await queryClient.invalidateQueries({ queryKey: jobsRootKey });
     },
   });

@@ -20,13 +20,14 @@ const MODULE_OPTIONS = [
 const KIND_OPTIONS: Array<{ value: CalibrationFileKind; label: string; hint: string }> = [
   { value: 'read', label: 'Read', hint: 'The stock read, or any read off the car.' },
   { value: 're_read', label: 'Re-read', hint: 'Read back after flashing: proves what is on the car.' },
-  { value: 'revision', label: 'Revision', hint: 'A calibration to send to the customer.' },
+  { value: 'revision', label: 'Revision', hint: 'A calibration for the customer: saved as a draft until you send it.' },
 ];
 
 function outcomeText({ data, meta }: UploadJobFileResponse): string {
   const parts = [`${data.label} stored as ${data.formatLabel}, ${formatBytes(data.imageBytes)} of data, CRC-32 ${data.crc32Hex}.`];
-  if (meta.waitingFor.length) parts.push(`The job is sent once the ${meta.waitingFor.join(' and ')} revision is in as well.`);
-  if (meta.movedTo === 'with_customer') parts.push('The job is now With customer, and the customer has the download link by e-mail.');
+  if (data.draft) parts.push('Saved as a draft: only the shop sees it until it is sent.');
+  if (meta.waitingFor.length) parts.push(`It can be sent once the ${meta.waitingFor.join(' and ')} revision is in as well.`);
+  else if (data.draft) parts.push(data.approvalRequired ? 'Another tuner or the owner approves it, then Send revision with a note of what changed.' : 'Use Send revision with a note of what changed.');
   if (meta.movedTo === 'ready') parts.push('The job is now Ready for a tuner.');
   if (meta.verification && meta.verification.status !== 'not_compared') parts.push(meta.verification.message);
   return parts.join(' ');
@@ -88,7 +89,7 @@ export function FileUploadForm({ jobId, modules, canUploadRevision, jobOnBench }
         )}
       </Field>
       {kind === 'revision' && (
-        <Field id="file-notes" label="What changed (sent with the revision)">
+        <Field id="file-notes" label="Notes on this file (optional)">
           {(a11y) => <textarea {...a11y} rows={3} maxLength={2000} className={`${controlClasses} py-2`} value={notes} onChange={(e) => setNotes(e.target.value)} />}
         </Field>
       )}

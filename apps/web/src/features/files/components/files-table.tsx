@@ -6,6 +6,10 @@ import { Button } from '../../../components/ui/button';
 import { errorMessage } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format';
 import { ProgressBar } from '../../datalogs/components/progress-bar';
+import { Link, useNavigate } from 'react-router-dom';
+import { buttonClasses } from '../../../components/ui/button';
+import { paths } from '../../../config/paths';
+import { useApproveFile } from '../api/approve-file';
 import { useDownloadFile } from '../api/download-file';
 import { useFileVerification } from '../api/get-file-verification';
 import { formatBytes } from './file-format';
@@ -34,6 +38,42 @@ function DownloadButton({ file }: { file: CalibrationFile }) {
       {download.isPending && <ProgressBar label={`Downloading ${file.downloadName}`} value={progress} />}
       {download.isError && <p className="text-xs text-bad">{errorMessage(download.error)}</p>}
     </div>
+  );
+}
+
+/** A draft's review: its approval state, Approve when this viewer may, and the diff against the file it was made from. */
+function DraftReview({ file }: { file: CalibrationFile }) {
+  const approve = useApproveFile();
+  const navigate = useNavigate();
+  return (
+    <div className="mt-2 flex flex-wrap items-center gap-2">
+      {file.parentFileId && (
+        <Link className={buttonClasses('secondary', 'sm')} to={paths.fileDiff.getHref(file.jobId, file.parentFileId, file.id)} aria-label={`Diff ${file.label} against previous`}>
+          Diff against previous
+        </Link>
+      )}
+      {file.canApprove && (
+        <Button size="sm" pending={approve.isPending} onClick={() => approve.mutate(file.id, { onSuccess: (r) => !r.meta.jobInReach && navigate(`${paths.jobs.getHref()}?awaiting=approval`) })} aria-label={`Approve ${file.label}`}>
+          Approve
+        </Button>
+      )}
+      {approve.isError && (
+        <p role="alert" className="text-xs text-bad">
+          {errorMessage(approve.error)}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function ReviewBadges({ file }: { file: CalibrationFile }) {
+  if (!file.draft) return null;
+  return (
+    <>
+      <Badge tone="warn">Draft, not sent</Badge>
+      {file.approvalRequired && !file.approvedBy && <Badge tone="warn">Awaiting approval</Badge>}
+      {file.approvedBy && <Badge tone="ok">Approved by {file.approvedBy.name}</Badge>}
+    </>
   );
 }
 
@@ -79,10 +119,18 @@ function FileRow({ file, canVerify, chosen, onCheck }: { file: CalibrationFile; 
           <div className="flex flex-wrap items-center gap-2">
             <Badge tone={KIND_TONE[file.kind]}>{file.label}</Badge>
             {file.plausibility?.status === 'unexpected_size' && <Badge tone="warn">Unexpected size</Badge>}
+            <ReviewBadges file={file} />
           </div>
           {file.plausibility?.status === 'unexpected_size' && <p className="mt-1 text-warn">{file.plausibility.message}</p>}
           <p className="mt-1 break-all text-ink-700">{file.kind === 'revision' ? file.downloadName : file.originalName}</p>
           {file.notes && <p className="mt-1 text-ink-600">{file.notes}</p>}
+          {file.sendNote && (
+            <p className="mt-1 rounded bg-accent-50 px-2 py-1 text-ink-800">
+              <span className="font-medium">What changed: </span>
+              {file.sendNote}
+            </p>
+          )}
+          {file.draft && <DraftReview file={file} />}
           <div className="mt-2 flex flex-wrap items-start gap-2">
             <DownloadButton file={file} />
             {canVerify && (

@@ -13,6 +13,8 @@ export interface JobListParams {
   customer?: string;
   q?: string;
   mine?: boolean;
+  /** Only jobs with a revision draft waiting for approval (staff). */
+  awaitingApproval?: boolean;
   sort?: JobSortKey;
   dir?: 'asc' | 'desc';
   page?: number;
@@ -30,6 +32,7 @@ export function jobListSearch(params: JobListParams): string {
   if (params.package) search.set('package', params.package);
   if (params.customer) search.set('customer', params.customer);
   if (params.q?.trim()) search.set('q', params.q.trim());
+  if (params.awaitingApproval) search.set('awaiting', 'approval');
   if (params.sort) search.set('sort', params.sort);
   if (params.dir) search.set('dir', params.dir);
   if (params.page && params.page > 1) search.set('page', String(params.page));

@@ -6,6 +6,7 @@ import type { AvailableTransition } from '@revloop/domain/jobs';
 import { Button, type ButtonVariant } from '../../../components/ui/button';
 import { ConfirmDialog, Dialog } from '../../../components/ui/dialog';
 import { Field } from '../../../components/ui/field';
+import { controlClasses } from '../../../components/ui/input';
 import { Select } from '../../../components/ui/select';
 import { useSignedInMe } from '../../auth/api/get-me';
 import { useMembers } from '../../members/api/get-members';
@@ -67,6 +68,48 @@ function AssignDialog({ job, open, onClose }: { job: Job; open: boolean; onClose
   );
 }
 
+/** Send revision: the "what changed" note the customer reads with the download is required (the server checks it too). */
+function SendRevisionDialog({ job, transition, onClose }: { job: Job; transition: AvailableTransition; onClose: () => void }) {
+  const move = useMoveJob();
+  const [note, setNote] = useState('');
+  const [touched, setTouched] = useState(false);
+  const missing = note.trim() === '';
+  const id = `send-note-${job.id}`;
+  return (
+    <Dialog
+      open
+      title={`${transition.label}: ${jobRef(job)}`}
+      onClose={onClose}
+      footer={
+        <>
+          <Button variant="secondary" onClick={onClose} disabled={move.isPending}>
+            Cancel
+          </Button>
+          <Button
+            pending={move.isPending}
+            onClick={() => {
+              setTouched(true);
+              if (!missing) move.mutate({ jobId: job.id, to: transition.to, note: note.trim() }, { onSuccess: onClose });
+            }}
+          >
+            Send to the customer
+          </Button>
+        </>
+      }
+    >
+      <p className="mb-3">The customer gets the revision, this note and the flashing cautions by e-mail and on the job page.</p>
+      <Field id={id} label="What changed" hint="In plain words for the customer, e.g. “More fuel at full throttle above 4,500 rpm.”" error={touched && missing ? 'Say what changed in this revision.' : undefined}>
+        {(a11y) => <textarea {...a11y} rows={4} maxLength={2000} className={cn(controlClasses, 'py-2')} value={note} onChange={(e) => setNote(e.target.value)} />}
+      </Field>
+      {move.error && (
+        <p role="alert" className="mt-3 text-bad">
+          {errorMessage(move.error)}
+        </p>
+      )}
+    </Dialog>
+  );
+}
+
 /** Pause and cancel folded behind a button on a board card; Escape or a click outside closes it. */
 function MoreActions({ job, children }: { job: Job; children: ReactNode }) {
   const { open, setOpen, rootRef, buttonProps, panelId } = usePopover();
@@ -105,6 +148,7 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
   const [confirming, setConfirming] = useState<AvailableTransition | null>(null);
   const [kitOutOverride, setKitOutOverride] = useState(false);
   const [assigning, setAssigning] = useState(false);
+  const [sending, setSending] = useState<AvailableTransition | null>(null);
   const subject = asSubject('Job', { shopId: me.shop?.id ?? '', assignedTunerId: job.tuner?.id ?? null, dealerId: job.dealer?.id ?? null, customerUserId: job.customer.id });
   const canTake = !job.tuner && ability.can('take', subject);
   const canAssign = ability.can('assign', 'Job');
@@ -120,7 +164,7 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
       variant={variant}
       pending={move.isPending && move.variables?.to === transition.to && !confirming}
       disabled={move.isPending}
-      onClick={() => (CONFIRMED[transition.to] ? setConfirming(transition) : run(transition))}
+      onClick={() => (transition.needsNote ? setSending(transition) : CONFIRMED[transition.to] ? setConfirming(transition) : run(transition))}
       aria-label={`${transition.label}: ${jobRef(job)}`}
     >
       {transition.label}
@@ -177,6 +221,7 @@ export function JobActions({ job, compact = false }: { job: Job; compact?: boole
           </label>
         )}
       </ConfirmDialog>
+      {sending && <SendRevisionDialog job={job} transition={sending} onClose={() => setSending(null)} />}
       {canAssign && assigning && <AssignDialog job={job} open={assigning} onClose={() => setAssigning(false)} />}
     </div>
   );

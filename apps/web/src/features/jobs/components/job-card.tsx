@@ -4,7 +4,7 @@ import { paths } from '../../../config/paths';
 import { cn } from '../../../lib/cn';
 import { JobActions } from './job-actions';
 import { formatTimeInState } from './job-format';
-import { StaleBadge } from './job-state-badge';
+import { ApprovalBadge, StaleBadge } from './job-state-badge';
 
 /** One job on the board, compact enough for six columns on a laptop: who and what, how long, what next, the moves. */
 export function JobCard({ job }: { job: Job }) {
@@ -18,9 +18,10 @@ export function JobCard({ job }: { job: Job }) {
           <span className="text-ink-600">#{job.number}</span> {job.vehicle.description}
         </Link>
       </h3>
-      {job.stale && (
-        <p>
-          <StaleBadge />
+      {(job.stale || job.draftsAwaitingApproval > 0) && (
+        <p className="flex flex-wrap gap-1">
+          {job.stale && <StaleBadge />}
+          {job.draftsAwaitingApproval > 0 && <ApprovalBadge />}
         </p>
       )}
       <p className="truncate">

@@ -15,6 +15,8 @@ export interface JobFiltersProps {
   showMine: boolean;
   /** The table filters by state too; the board has a column per state. */
   showState: boolean;
+  /** Staff filter the jobs whose revision draft waits for a second person's approval. */
+  showApproval?: boolean;
 }
 
 /** Waits for a pause in typing before the search reaches the server. */
@@ -28,7 +30,7 @@ function useDebounced(value: string, ms: number) {
 }
 
 /** Filters shared by the board and the table; the server applies them. */
-export function JobFilters({ state, onChange, showMine, showState }: JobFiltersProps) {
+export function JobFilters({ state, onChange, showMine, showState, showApproval = true }: JobFiltersProps) {
   const members = useMembers();
   const customers = useCustomers();
   const packages = usePackages();
@@ -94,6 +96,17 @@ export function JobFilters({ state, onChange, showMine, showState }: JobFiltersP
             )}
           </Field>
         </div>
+      )}
+      {showApproval && (
+        <label className="flex h-10 items-center gap-2 text-sm font-medium text-ink-800">
+          <input
+            type="checkbox"
+            className="size-4 accent-accent-600"
+            checked={state.awaitingApproval}
+            onChange={(event) => onChange({ awaitingApproval: event.target.checked, page: 1 })}
+          />
+          Drafts awaiting approval
+        </label>
       )}
       {showMine && (
         <label className="flex h-10 items-center gap-2 text-sm font-medium text-ink-800">

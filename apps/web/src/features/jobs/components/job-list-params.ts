@@ -13,6 +13,8 @@ export interface JobsScreenState {
   package: string;
   customer: string;
   mine: boolean;
+  /** Only jobs with a revision draft waiting for a second person's approval. */
+  awaitingApproval: boolean;
   /** Table only: '' any state, 'open' every open state, or one state. */
   state: '' | 'open' | JobState;
   sort: JobSortKey;
@@ -40,6 +42,7 @@ export function readJobsScreenState(search: URLSearchParams): JobsScreenState {
     package: search.get('package') ?? '',
     customer: search.get('customer') ?? '',
     mine: search.get('mine') === 'true',
+    awaitingApproval: search.get('awaiting') === 'approval',
     state: rawState === 'open' ? 'open' : isJobState(rawState) ? rawState : '',
     sort: isSortKey(sort) ? sort : 'updated',
     dir: search.get('dir') === 'asc' ? 'asc' : 'desc',
@@ -55,6 +58,7 @@ export function writeJobsScreenState(state: JobsScreenState): URLSearchParams {
   if (state.q) search.set('q', state.q);
   if (state.mine) search.set('mine', 'true');
   else if (state.tuner) search.set('tuner', state.tuner);
+  if (state.awaitingApproval) search.set('awaiting', 'approval');
   if (state.dealer) search.set('dealer', state.dealer);
   if (state.package) search.set('package', state.package);
   if (state.customer) search.set('customer', state.customer);
@@ -74,6 +78,7 @@ function filterParams(state: JobsScreenState): JobListParams {
     ...(state.dealer && { dealer: state.dealer }),
     ...(state.package && { package: state.package }),
     ...(state.customer && { customer: state.customer }),
+    ...(state.awaitingApproval && { awaitingApproval: true }),
   };
 }
 

@@ -16,6 +16,11 @@ export function JobStateBadge({ state }: { state: JobState }) {
 }
 
 /** Stale is said in words and with a mark, so it never relies on colour alone. */
+/** A revision draft of the job waits for a second person's approval before it can be sent. */
+export function ApprovalBadge() {
+  return <Badge tone="warn">Awaiting approval</Badge>;
+}
+
 export function StaleBadge() {
   return (
     <Badge tone="bad">

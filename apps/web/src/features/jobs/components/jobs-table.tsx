@@ -24,7 +24,7 @@ import { getJobsExportHref } from '../api/export-jobs';
 import { useJobs } from '../api/get-jobs';
 import { formatTimeInState } from './job-format';
 import { PAGE_SIZES, tableParams, type JobsScreenState } from './job-list-params';
-import { JobStateBadge, StaleBadge } from './job-state-badge';
+import { ApprovalBadge, JobStateBadge, StaleBadge } from './job-state-badge';
 
 // Sorting and paging happen on the server: the table only renders the page it is given and reports clicks.
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
@@ -40,7 +40,16 @@ const columns = helper.columns([
       </Link>
     ),
   }),
-  helper.accessor('state', { id: 'state', header: 'State', cell: (info) => <JobStateBadge state={info.getValue()} /> }),
+  helper.accessor('state', {
+    id: 'state',
+    header: 'State',
+    cell: (info) => (
+      <span className="flex flex-col items-start gap-1">
+        <JobStateBadge state={info.getValue()} />
+        {info.row.original.draftsAwaitingApproval > 0 && <ApprovalBadge />}
+      </span>
+    ),
+  }),
   helper.accessor((job) => job.vehicle.description, { id: 'vehicle', header: 'Vehicle', cell: (info) => <span className="line-clamp-2 block min-w-36 whitespace-normal">{info.getValue()}</span> }),
   helper.accessor((job) => job.customer.name, { id: 'customer', header: 'Customer', cell: (info) => <span className="block whitespace-normal">{info.getValue()}</span> }),
   helper.accessor((job) => job.dealer?.name ?? '', { id: 'dealer', header: 'Dealer', enableSorting: false, cell: (info) => <span className="block whitespace-normal">{info.getValue() || '—'}</span> }),

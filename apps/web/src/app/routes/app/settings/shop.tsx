@@ -6,6 +6,7 @@ import { Card } from '../../../../components/ui/card';
 import { PageSpinner } from '../../../../components/ui/spinner';
 import { useShop } from '../../../../features/shop-settings/api/get-shop';
 import { PublicPageForm } from '../../../../features/shop-settings/components/public-page-form';
+import { RevisionReviewForm } from '../../../../features/shop-settings/components/revision-review-form';
 import { ShopSettingsForm } from '../../../../features/shop-settings/components/shop-settings-form';
 import { errorMessage } from '../../../../lib/form-errors';
 import { RequireScreen } from '../require-screen';
@@ -39,6 +40,9 @@ function ShopSettings() {
         description="A page anyone can open: your packages at retail prices and a Start a tune button."
       >
         <PublicPageForm shop={data} canEdit={canEdit} />
+      </Card>
+      <Card title="Revision review" description="Revisions are drafts until someone sends them with a note of what changed.">
+        <RevisionReviewForm shop={data} canEdit={canEdit} />
       </Card>
     </div>
   );
