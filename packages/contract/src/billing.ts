@@ -1,4 +1,4 @@
-import { LEDGER_KINDS, PLAN_IDS, SUBSCRIPTION_STATUSES, type MrrPoint, type ReadOnlyReason } from '@revloop/domain/billing';
+import { DOWNLOAD_LOCK_REASONS, LEDGER_KINDS, PLAN_IDS, SUBSCRIPTION_STATUSES, type MrrPoint, type ReadOnlyReason } from '@revloop/domain/billing';
 import { z } from 'zod';
 import { itemOf, listOf, timestamp } from './envelope';
 
@@ -86,6 +86,18 @@ export const jobPaymentsSchema = z.object({
   payments: z.array(jobPaymentSchema),
   canPay: z.boolean(),
   canRefund: z.boolean(),
+  /** Paid before download, as the job's customer meets it: their sent revisions locked until the job is paid, or not. */
+  downloadLock: z.object({
+    /** The customer's sent revisions are locked now (the job is unpaid and nobody waived the lock). */
+    locked: z.boolean(),
+    reason: z.enum(DOWNLOAD_LOCK_REASONS),
+    message: z.string(),
+    /** When and by whom the owner waived the lock for this job; null while it is not waived. */
+    waivedAt: timestamp.nullable(),
+    waivedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+    /** The viewer may waive the lock now (the owner, while it still holds). */
+    canWaive: z.boolean(),
+  }),
 });
 export type JobPayments = z.infer<typeof jobPaymentsSchema>;
 export const jobPaymentsResponseSchema = itemOf(jobPaymentsSchema);
@@ -145,3 +157,20 @@ export const revenueSchema = z.object({
 });
 export type Revenue = z.infer<typeof revenueSchema>;
 export const revenueResponseSchema = itemOf(revenueSchema);
+
+/** A file's paid-before-download lock as its viewer meets it (`lock` on each file of `GET /api/jobs/:id/files`). */
+export const downloadLockSchema = z.object({
+  locked: z.boolean(),
+  reason: z.enum(DOWNLOAD_LOCK_REASONS),
+  /** Still due on the job, in minor units (0 unless locked). */
+  dueMinor: z.number(),
+  message: z.string(),
+});
+export type DownloadLockView = z.infer<typeof downloadLockSchema>;
+
+/** What `GET /api/shop` adds about payment before download: a retail customer's sent revisions stay locked until the job is paid. */
+export const shopPaymentLockSchema = z.object({ paidBeforeDownload: z.boolean() });
+export type ShopPaymentLock = z.infer<typeof shopPaymentLockSchema>;
+/** The paid-before-download field of `PATCH /api/shop` (owner). */
+export const shopPaymentLockPatchSchema = shopPaymentLockSchema.partial();
+export type ShopPaymentLockPatch = z.infer<typeof shopPaymentLockPatchSchema>;

@@ -2,6 +2,7 @@ import type { AddressRange, CalibrationFormat, DiffRange, HexViewRow } from '@re
 import { PACKAGE_MODULES } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import { itemOf, listWithMeta, personRefSchema, timestamp } from './envelope';
+import { downloadLockSchema } from './billing';
 import { readPlausibilitySchema } from './vehicles';
 
 /** A file's control unit: those a package covers (SAE J1930 names), or another one. */
@@ -72,6 +73,8 @@ export const calibrationFileSchema = z.object({
   canApprove: z.boolean(),
   /** Reads in the job's file list, for those who revise: the image size against the engine family's expected sizes. */
   plausibility: readPlausibilitySchema.nullable().optional(),
+  /** Paid before download, for this viewer: a locked file answers 402 `payment_required` on download. */
+  lock: downloadLockSchema,
 });
 export type CalibrationFile = z.infer<typeof calibrationFileSchema>;
 

@@ -1,6 +1,7 @@
 import { shopSettingsSchema } from '@revloop/domain/shops';
 import { z } from 'zod';
 import { itemOf, listOf, timestamp } from './envelope';
+import { shopPaymentLockSchema } from './billing';
 import { shopRevisionReviewSchema } from './files';
 import { shopFrontDoorSchema } from './public';
 
@@ -14,7 +15,7 @@ export const shopSchema = shopFrontDoorSchema.extend({
   status: z.enum(SHOP_STATUSES),
   readOnly: z.boolean(),
   settings: shopSettingsSchema,
-}).extend(shopRevisionReviewSchema.shape);
+}).extend(shopRevisionReviewSchema.shape).extend(shopPaymentLockSchema.shape);
 export type Shop = z.infer<typeof shopSchema>;
 export const shopResponseSchema = itemOf(shopSchema);
 

@@ -19,6 +19,9 @@ export interface JobTable {
   has_log_for_round: Generated<number>;
   /** Revision drafts of the coming round still waiting for a second person's approval (migration 013). */
   drafts_awaiting_approval: Generated<number>;
+  /** The owner waived the paid-before-download lock for this job: when and who (migration 014); null while not waived. */
+  payment_lock_waived_at: string | null;
+  payment_lock_waived_by_user_id: string | null;
   goals: string;
   special_requests: Generated<string>;
   log_request: string;

@@ -18,6 +18,8 @@ export interface ShopTable {
   public_page: Generated<number>;
   /** 1 when a revision draft needs another person's approval before it is sent (migration 013). */
   revision_approval: Generated<number>;
+  /** 1 (the default) when a retail customer's sent revisions stay locked until the job is paid (migration 014). */
+  paid_before_download: Generated<number>;
 }
 export type ShopRow = Selectable<ShopTable>;
 export type InsertableShopRow = Insertable<ShopTable>;

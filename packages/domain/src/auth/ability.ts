@@ -37,7 +37,9 @@ export type Action =
   | 'book'
   | 'agree'
   /** Approve a revision draft before it is sent (File only; never the uploader's own). */
-  | 'approve';
+  | 'approve'
+  /** Waive a job's paid-before-download lock, so its customer downloads before paying (Payment only; the owner). */
+  | 'waive';
 
 export const SUBJECTS = [
   'Platform',
@@ -93,6 +95,7 @@ const WRITE_ACTIONS: Action[] = [
   'upload_revision',
   'refund',
   'approve',
+  'waive',
 ];
 
 export function defineAbilityFor(actor: Actor | null): AppAbility {
@@ -143,6 +146,7 @@ export function defineAbilityFor(actor: Actor | null): AppAbility {
         inShop,
       );
       can('refund', 'Payment', inShop);
+      can('waive', 'Payment', inShop);
       break;
     case 'tuner': {
       // A tuner works on jobs assigned to them or not yet assigned.

@@ -5,3 +5,4 @@ export * from './mrr';
 export * from './ledger.rules';
 export * from './billing.schemas';
 export * from './plan-limits.rules';
+export * from './download-lock.rules';

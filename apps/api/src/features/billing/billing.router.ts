@@ -3,6 +3,7 @@ import { checkoutInputSchema, planChangeSchema, refundInputSchema } from '@revlo
 import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
+import { waivePaymentLock } from './download-lock.service';
 import { dealerBalances } from './ledger.service';
 import { jobPaymentsView, refundPayment, startJobCheckout, startTopUpCheckout } from './payment.service';
 import { changePlan, startSubscriptionCheckout, subscriptionView } from './subscription.service';
@@ -46,6 +47,13 @@ export function createBillingRouter(deps: AppDeps): Router {
 
   router.get('/jobs/:jobId/payments', async (req, res) => {
     const auth = requireShop(req);
+    res.json({ data: await jobPaymentsView(deps, auth, req.params.jobId) });
+  });
+
+  // Paid before download: the owner lets this job's customer download before paying (audited on the job's timeline).
+  router.post('/jobs/:jobId/payment-lock/waive', async (req, res) => {
+    const auth = requireShop(req);
+    await waivePaymentLock(deps, auth, req.params.jobId);
     res.json({ data: await jobPaymentsView(deps, auth, req.params.jobId) });
   });
 

@@ -21,6 +21,7 @@ import {
   type Db,
   type JobListRow,
   type PaymentRow,
+  type ShopRow,
 } from '@revloop/db';
 import type { JobPayments } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
@@ -32,10 +33,11 @@ import { recordAudit } from '../audit/audit.service';
 import { drainMailOutbox } from '../mail/mail-outbox.service';
 import { jobLink, loadJob, transitionJob } from '../jobs/job.service';
 import { jobReceiptMail, refundMail, topUpReceiptMail } from './billing.mails';
+import { customerDownloadLock } from './download-lock.service';
 import { statementLink } from './ledger.service';
 import { idOf, stripeFor } from './stripe-client';
 
-type ShopAuth = AuthContext & { shop: { id: string; name: string; currency: string } };
+type ShopAuth = AuthContext & { shop: ShopRow };
 
 /** The Payment subject a job's payment is checked against: the customer and dealer the job belongs to. */
 const jobPaymentSubject = (job: JobListRow) => ({ shopId: job.shop_id, customerUserId: job.customer_user_id, dealerId: job.dealer_id });
@@ -81,6 +83,7 @@ export async function jobPaymentsView(deps: AppDeps, auth: ShopAuth, jobId: stri
     })),
     canPay: !job.dealer_id && auth.actor.role === 'customer' && auth.ability.can('create', subject),
     canRefund: auth.ability.can('refund', subject),
+    downloadLock: await customerDownloadLock(deps, auth, job),
   };
 }
 

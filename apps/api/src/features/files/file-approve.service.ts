@@ -1,14 +1,14 @@
-import { approveRevisionDraft, countDraftsAwaitingApproval, findCalibrationFile, findJob, inTransaction, updateJob } from '@revloop/db';
+import { approveRevisionDraft, countDraftsAwaitingApproval, findCalibrationFile, findJob, inTransaction, updateJob, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { CalibrationFile } from '@revloop/contract';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { loadJob } from '../jobs/job.service';
-import { fileLabel, fileRowToApi } from './file.presenter';
-import { canApproveFile, loadFile } from './file.service';
+import { fileLabel } from './file.presenter';
+import { canApproveFile, loadFile, presentFile } from './file.service';
 
-type ShopScoped = AuthContext & { shop: { id: string } };
+type ShopScoped = AuthContext & { shop: ShopRow };
 
 /**
  * A second person approves a revision draft: the abilities decide who (another tuner or the owner, never the
@@ -41,7 +41,7 @@ export async function approveDraft(deps: AppDeps, auth: ShopScoped, fileId: stri
       at,
     });
     const fresh = (await findCalibrationFile(trx, auth.shop.id, row.id))!;
-    return fileRowToApi(fresh, (await findJob(trx, auth.shop.id, job.id))!, false);
+    return presentFile(trx, auth, fresh, (await findJob(trx, auth.shop.id, job.id))!);
   });
   // A tuner who reviewed a job outside their own reach loses it once nothing waits for approval; the web moves on.
   const jobInReach = await loadJob(db, auth, file.jobId).then(

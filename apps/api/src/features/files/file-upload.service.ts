@@ -23,7 +23,8 @@ import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';
-import { FORMAT_LABELS, fileLabel, fileRowToApi, type ApiCalibrationFile } from './file.presenter';
+import { FORMAT_LABELS, fileLabel, type ApiCalibrationFile } from './file.presenter';
+import { presentFile } from './file.service';
 import { verifyFile, type Verification } from './file-verify.service';
 
 type ShopAuth = AuthContext & { shop: { id: string; settings: string; name: string; revision_approval: number } };
@@ -126,7 +127,7 @@ export async function storeUpload(
       at,
     });
     const flow = await followJobFlow(deps, auth, job, row);
-    return { file: fileRowToApi(listRow, job), verification, ...flow };
+    return { file: await presentFile(db, auth, listRow, job), verification, ...flow };
   } catch (error) {
     if (!stored) await blobs.discard(upload.tempFile);
     throw error;

@@ -1,4 +1,4 @@
-import type { CalibrationFile } from '@revloop/contract';
+import type { CalibrationFile, DownloadLockView } from '@revloop/contract';
 import type { CalibrationFileKind, CalibrationFileListRow, CalibrationFileRow, JobListRow } from '@revloop/db';
 import { formatCrc32, revisionDownloadName, type AddressRange, type CalibrationFormat } from '@revloop/domain/calibration';
 
@@ -34,8 +34,11 @@ export function downloadNameOf(row: CalibrationFileRow, job: JobListRow): string
 export const isDraft = (row: Pick<CalibrationFileRow, 'kind' | 'for_round'>, job: Pick<JobListRow, 'round'>): boolean =>
   row.kind === 'revision' && (row.for_round ?? 0) > job.round;
 
-/** `canApprove` is the viewer's File `approve` ability on this row, computed by the caller that knows the viewer. */
-export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow, canApprove = false): CalibrationFile {
+/**
+ * `lock` is the file's paid-before-download lock for this viewer and `canApprove` the viewer's File `approve` ability on
+ * this row, both computed by the caller that knows the viewer.
+ */
+export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow, lock: DownloadLockView, canApprove = false): CalibrationFile {
   return {
     id: row.id,
     jobId: row.job_id,
@@ -65,6 +68,7 @@ export function fileRowToApi(row: CalibrationFileListRow, job: JobListRow, canAp
     sentAt: row.sent_at,
     sendNote: row.send_note,
     canApprove,
+    lock: { locked: lock.locked, reason: lock.reason, dueMinor: lock.dueMinor, message: lock.message },
   };
 }
 export type ApiCalibrationFile = CalibrationFile;

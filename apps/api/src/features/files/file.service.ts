@@ -1,15 +1,28 @@
-import { findCalibrationFile, findJob, listJobFiles, type CalibrationFileRow, type Db, type JobListRow } from '@revloop/db';
+import { findCalibrationFile, listJobFiles, type CalibrationFileListRow, type CalibrationFileRow, type Db, type JobListRow, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
-import { asSubject, defineAbilityFor, type Actor, type FileSubject } from '@revloop/domain/auth';
+import { asSubject, type FileSubject } from '@revloop/domain/auth';
+import type { DownloadLock } from '@revloop/domain/billing';
 import type { AppDeps } from '../../context';
-import { authorizeRow, type AuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import type { AuthContext } from '../../http/auth-context';
+import { downloadLocksFor, isBench } from '../billing/download-lock.service';
 import { jobSubject, loadJob } from '../jobs/job.service';
 import { readPlausibilityForJob } from '../vehicles/read-plausibility.service';
-import { fileLinkQuery, verifyFileLink } from './file-links';
-import { downloadNameOf, fileLabel, fileRowToApi, isDraft } from './file.presenter';
+import { fileLinkQuery } from './file-links';
+import { fileLabel, fileRowToApi, isDraft } from './file.presenter';
 
-type ShopScoped = AuthContext & { shop: { id: string } };
+type ShopScoped = AuthContext & { shop: ShopRow };
+
+/** Each file's paid-before-download lock for this viewer (the domain's downloadLockFor decides; the job's money is read once). */
+export async function fileLocksFor(db: Db, auth: ShopScoped, job: JobListRow): Promise<(row: CalibrationFileRow) => DownloadLock> {
+  const lockOf = await downloadLocksFor(db, auth.shop, job, { shopStaff: isBench(auth.actor) });
+  return (row) => lockOf({ kind: row.kind, draft: isDraft(row, job) });
+}
+
+/** A file as this viewer sees it in the API: its lock and whether they may approve it. */
+export async function presentFile(db: Db, auth: ShopScoped, row: CalibrationFileListRow, job: JobListRow) {
+  const lockOf = await fileLocksFor(db, auth, job);
+  return fileRowToApi(row, job, lockOf(row), canApproveFile(auth, row, job));
+}
 
 /** A file as the File rules in the abilities see it: its job's scope, whether it reached the customer side, its uploader. */
 export const fileSubject = (row: CalibrationFileRow, job: JobListRow): FileSubject => ({
@@ -45,9 +58,10 @@ export async function listVisibleFiles(db: Db, auth: ShopScoped, job: JobListRow
   // A read whose size fits none the shop expects for the engine family is flagged to those who revise (a warning only).
   const plausibility = await readPlausibilityForJob(db, auth.shop, job);
   const revises = auth.ability.can('upload_revision', asSubject('Job', jobSubject(job)));
+  const lockOf = await fileLocksFor(db, auth, job);
   return rows
     .filter((row) => canSeeFile(auth, row, job))
-    .map((row) => ({ ...fileRowToApi(row, job, canApproveFile(auth, row, job)), plausibility: revises ? plausibility(row) : null }));
+    .map((row) => ({ ...fileRowToApi(row, job, lockOf(row), canApproveFile(auth, row, job)), plausibility: revises ? plausibility(row) : null }));
 }
 
 /** What this viewer may do with the job's files, so the web shows only the forms that will work. */
@@ -69,53 +83,4 @@ export async function revisionLinkLines(deps: Pick<AppDeps, 'db' | 'clock' | 'en
     'Download (each link works for 7 days without signing in):',
     ...drafts.map((f) => `- ${fileLabel(f)}: ${env.APP_ORIGIN}/api/files/${f.id}/download?${fileLinkQuery(env.FILE_LINK_SECRET, job.shop_id, f.id, clock.now())}`),
   ];
-}
-
-/** Records a download on the job's timeline; `viaLink` marks an e-mailed link used without a session. */
-export async function recordDownload(db: Db, at: Date, row: CalibrationFileRow, actor: { userId: string | null; viaLink: boolean }) {
-  await recordAudit(db, {
-    shopId: row.shop_id,
-    actorUserId: actor.userId,
-    action: 'file.downloaded',
-    subjectType: 'Job',
-    subjectId: row.job_id,
-    details: { fileId: row.id, viaLink: actor.viaLink, text: `${fileLabel(row)} downloaded${actor.viaLink ? ' through an e-mailed link' : ''}` },
-    at,
-  });
-}
-
-export interface FileDownload {
-  row: CalibrationFileRow;
-  name: string;
-}
-
-/** A signed-in download: a file this viewer sees on a job they may download from, recorded on the timeline. */
-export async function downloadFile(deps: AppDeps, auth: ShopScoped, fileId: string): Promise<FileDownload> {
-  const { row, job } = await loadFile(deps.db, auth, fileId);
-  authorizeRow(auth, 'download', 'Job', jobSubject(job));
-  await recordDownload(deps.db, deps.clock.now(), row, { userId: auth.user.id, viaLink: false });
-  return { row, name: downloadNameOf(row, job) };
-}
-
-/** Whom an e-mailed link stands for: the job's customer, so a link opens only what they may read (never a draft). */
-const linkHolderOf = (job: JobListRow): Actor => ({
-  userId: job.customer_user_id,
-  platformAdmin: false,
-  shopId: job.shop_id,
-  role: 'customer',
-  dealerId: null,
-  shopReadOnly: false,
-});
-
-/** An e-mailed link: the signature, not a session, grants this one file until it expires. */
-export async function downloadFileByLink(deps: AppDeps, fileId: string, link: { shop: string; exp: number; sig: string }): Promise<FileDownload> {
-  const { db, clock } = deps;
-  verifyFileLink(deps.env.FILE_LINK_SECRET, { shopId: link.shop, fileId, exp: link.exp }, link.sig, clock.now());
-  const row = await findCalibrationFile(db, link.shop, fileId);
-  const job = row && (await findJob(db, link.shop, row.job_id));
-  if (!row || !job || !defineAbilityFor(linkHolderOf(job)).can('read', asSubject('File', fileSubject(row, job)))) {
-    throw new DomainError('not_found', 'File not found.');
-  }
-  await recordDownload(db, clock.now(), row, { userId: null, viaLink: true });
-  return { row, name: downloadNameOf(row, job) };
 }

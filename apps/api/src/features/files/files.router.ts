@@ -10,10 +10,10 @@ import { jobSubject, loadJob } from '../jobs/job.service';
 import { diffFiles, hexOfFiles } from './file-diff.service';
 import { storeUpload } from './file-upload.service';
 import { verifyVisibleFile } from './file-verify.service';
-import { fileRowToApi } from './file.presenter';
 import { diffQuerySchema, hexQuerySchema, linkQuerySchema, uploadFieldsSchema } from './file.schemas';
 import { approveDraft } from './file-approve.service';
-import { canApproveFile, downloadFile, downloadFileByLink, fileAbilities, listVisibleFiles, loadFile, type FileDownload } from './file.service';
+import { downloadFile, downloadFileByLink, type FileDownload } from './file-download.service';
+import { fileAbilities, listVisibleFiles, loadFile, presentFile } from './file.service';
 
 /** RFC 6266 attachment with an ASCII fallback and the UTF-8 name, so no header injection and no sniffing. */
 function sendFile(deps: AppDeps, res: Response, { row, name }: FileDownload): void {
@@ -79,7 +79,7 @@ export function createFilesRouter(deps: AppDeps): Router {
   router.get('/:id', async (req, res) => {
     const auth = requireShop(req);
     const { row, job } = await loadFile(db, auth, req.params.id);
-    res.json({ data: fileRowToApi(row, job, canApproveFile(auth, row, job)) });
+    res.json({ data: await presentFile(db, auth, row, job) });
   });
 
   router.get('/:id/download', async (req, res) => {

@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import type { ShopRow } from '@revloop/db';
-import { shopFrontDoorPatchSchema, shopRevisionReviewPatchSchema, type Shop } from '@revloop/contract';
+import { shopFrontDoorPatchSchema, shopPaymentLockPatchSchema, shopRevisionReviewPatchSchema, type Shop } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { parseShopSettings, shopSettingsPatchSchema } from '@revloop/domain/shops';
 import { z } from 'zod';
@@ -11,7 +11,7 @@ import { nameSchema } from '@revloop/domain/text';
 import { shopSetup } from './shop-setup.service';
 import { changeShop } from './shop.service';
 
-const patchSchema = z.object({ name: nameSchema(2, 80).optional(), settings: shopSettingsPatchSchema.optional() }).extend(shopFrontDoorPatchSchema.shape).extend(shopRevisionReviewPatchSchema.shape);
+const patchSchema = z.object({ name: nameSchema(2, 80).optional(), settings: shopSettingsPatchSchema.optional() }).extend(shopFrontDoorPatchSchema.shape).extend(shopRevisionReviewPatchSchema.shape).extend(shopPaymentLockPatchSchema.shape);
 
 const shopView = (shop: ShopRow, auth: AuthContext): Shop => ({
   id: shop.id,
@@ -24,6 +24,7 @@ const shopView = (shop: ShopRow, auth: AuthContext): Shop => ({
   description: shop.description,
   publicPage: shop.public_page === 1,
   revisionApproval: shop.revision_approval === 1,
+  paidBeforeDownload: shop.paid_before_download === 1,
 });
 
 export function createShopRouter(deps: AppDeps): Router {
@@ -43,7 +44,7 @@ export function createShopRouter(deps: AppDeps): Router {
     const slug = input.slug === undefined ? auth.shop.slug : input.slug;
     const publicPage = slug !== null && (input.publicPage ?? auth.shop.public_page === 1);
     if (input.publicPage && slug === null) throw new DomainError('validation', 'Choose the page address before turning the public page on.');
-    const shop = await changeShop(deps, auth, { name: input.name, settings, slug, publicPage, description: input.description, revisionApproval: input.revisionApproval });
+    const shop = await changeShop(deps, auth, { name: input.name, settings, slug, publicPage, description: input.description, revisionApproval: input.revisionApproval, paidBeforeDownload: input.paidBeforeDownload });
     res.json({ data: shopView(shop, auth) });
   });
 

@@ -13,6 +13,8 @@ export interface ShopChange {
   description?: string;
   /** Revision drafts need a second person's approval before they are sent (applies to drafts uploaded from now on). */
   revisionApproval?: boolean;
+  /** A retail customer's sent revisions stay locked until the job is paid (applies at once, to every open job). */
+  paidBeforeDownload?: boolean;
 }
 
 /** Saves the shop's name, settings and public page, refusing an address another shop uses; audits the change. */
@@ -27,6 +29,7 @@ export async function changeShop({ db, clock }: AppDeps, auth: AuthContext & { s
     public_page: change.publicPage ? 1 : 0,
     ...(change.description !== undefined && { description: change.description }),
     ...(change.revisionApproval !== undefined && { revision_approval: change.revisionApproval ? 1 : 0 }),
+    ...(change.paidBeforeDownload !== undefined && { paid_before_download: change.paidBeforeDownload ? 1 : 0 }),
   }).catch((error: unknown) => {
     // Two owners taking the same address at once: the unique index decides, and the loser hears the same 409.
     if (error instanceof Error && /UNIQUE|unique/.test(error.message) && /slug/.test(error.message)) throw clash();

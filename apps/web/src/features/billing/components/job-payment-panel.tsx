@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { JobPayment } from '@revloop/contract';
+import type { JobPayment, JobPayments } from '@revloop/contract';
 import { formatMoney, minorToDecimalString, parseMoneyInput } from '@revloop/domain/billing';
 import { Badge } from '../../../components/ui/badge';
 import { Banner } from '../../../components/ui/banner';
@@ -14,6 +14,7 @@ import { formatDate } from '../../../lib/format';
 import { useJobPayments } from '../api/get-job-payments';
 import { useRefundPayment } from '../api/refund-payment';
 import { useStartCheckout } from '../api/start-checkout';
+import { useWaivePaymentLock } from '../api/waive-payment-lock';
 
 function RefundDialog({ jobId, payment, onClose }: { jobId: string; payment: JobPayment; onClose: () => void }) {
   const left = payment.amountMinor - payment.refundedMinor;
@@ -103,6 +104,59 @@ function PaymentLine({ payment, canRefund, onRefund }: { payment: JobPayment; ca
   );
 }
 
+/** Paid before download as the customer meets it: locked until paid, or waived by the owner; the owner's Waive button. */
+function DownloadLockLine({ jobId, lock }: { jobId: string; lock: JobPayments['downloadLock'] }) {
+  const waive = useWaivePaymentLock(jobId);
+  const [confirming, setConfirming] = useState(false);
+  if (lock.reason === 'waived') {
+    return (
+      <p className="text-ink-700">
+        Payment before download waived{lock.waivedBy ? ` by ${lock.waivedBy.name}` : ''}
+        {lock.waivedAt ? ` on ${formatDate(lock.waivedAt)}` : ''}: the customer downloads the revisions before paying.
+      </p>
+    );
+  }
+  if (!lock.locked && !lock.canWaive) return null;
+  return (
+    <div className="flex flex-col gap-2">
+      {lock.locked && <p className="text-ink-700">Sent revisions stay locked for the customer until this job is paid.</p>}
+      {lock.canWaive && (
+        <div>
+          <Button size="sm" variant="secondary" onClick={() => setConfirming(true)}>
+            Waive payment before download…
+          </Button>
+        </div>
+      )}
+      {confirming && (
+        <Dialog
+          open
+          title="Let the customer download before paying?"
+          onClose={() => setConfirming(false)}
+          footer={
+            <>
+              <Button variant="secondary" onClick={() => setConfirming(false)} disabled={waive.isPending}>
+                Cancel
+              </Button>
+              <Button onClick={() => waive.mutate(undefined, { onSuccess: () => setConfirming(false) })} pending={waive.isPending}>
+                Waive for this job
+              </Button>
+            </>
+          }
+        >
+          <div className="flex flex-col gap-3">
+            <p>The customer can download every revision of this job at once, paid or not. The waiver is recorded on the job’s timeline and cannot be undone.</p>
+            {waive.isError && (
+              <p role="alert" className="text-bad">
+                {errorMessage(waive.error)}
+              </p>
+            )}
+          </div>
+        </Dialog>
+      )}
+    </div>
+  );
+}
+
 /** The payment side of a job: what the package costs, what was paid or refunded, and the button to pay. */
 export function JobPaymentPanel({ jobId, job }: { jobId: string; job?: { state?: string } }) {
   const payments = useJobPayments(jobId);
@@ -163,12 +217,14 @@ export function JobPaymentPanel({ jobId, job }: { jobId: string; job?: { state?:
             ))}
           </ul>
         )}
+        {!p.paidByDealer && <DownloadLockLine jobId={jobId} lock={p.downloadLock} />}
         {p.canPay && !settled && !closed && (
           <div className="flex flex-col gap-2">
             <Button onClick={() => checkout.mutate({ purpose: 'job', jobId })} pending={checkout.isPending || checkout.isSuccess}>
               Pay {money(p.dueMinor)}
             </Button>
             <p className="text-xs text-ink-600">You pay on a secure payment page and come back here; the receipt comes by e-mail.</p>
+            {p.downloadLock.locked && <p className="text-xs text-ink-600">Your revisions unlock for download once the payment lands.</p>}
             {checkout.isError && (
               <p role="alert" className="text-bad">
                 {errorMessage(checkout.error)}

@@ -11,12 +11,33 @@ import { buttonClasses } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { useApproveFile } from '../api/approve-file';
 import { useDownloadFile } from '../api/download-file';
+import { useStartCheckout } from '../../billing/api/start-checkout';
 import { useFileVerification } from '../api/get-file-verification';
 import { formatBytes } from './file-format';
 import { VerifyResult } from './verify-result';
 import { ScrollRegion } from '../../../components/ui/scroll-region';
 
 const KIND_TONE = { read: 'neutral', re_read: 'accent', revision: 'ok' } as const;
+
+/** A sent revision locked until the job is paid: why, what is due, and the Pay button (the job's own Checkout). */
+function LockedDownload({ file }: { file: CalibrationFile }) {
+  const checkout = useStartCheckout();
+  return (
+    <div className="flex max-w-md flex-col gap-2 rounded border border-warn/40 bg-warn/5 p-2" role="group" aria-label={`${file.label} locked until paid`}>
+      <p className="text-sm text-ink-800">{file.lock.message}</p>
+      <div>
+        <Button size="sm" onClick={() => checkout.mutate({ purpose: 'job', jobId: file.jobId })} pending={checkout.isPending || checkout.isSuccess}>
+          Pay to unlock
+        </Button>
+      </div>
+      {checkout.isError && (
+        <p role="alert" className="text-xs text-bad">
+          {errorMessage(checkout.error)}
+        </p>
+      )}
+    </div>
+  );
+}
 
 function DownloadButton({ file }: { file: CalibrationFile }) {
   const [progress, setProgress] = useState(0);
@@ -120,6 +141,7 @@ function FileRow({ file, canVerify, chosen, onCheck }: { file: CalibrationFile; 
             <Badge tone={KIND_TONE[file.kind]}>{file.label}</Badge>
             {file.plausibility?.status === 'unexpected_size' && <Badge tone="warn">Unexpected size</Badge>}
             <ReviewBadges file={file} />
+            {file.lock.locked && <Badge tone="warn">Locked until paid</Badge>}
           </div>
           {file.plausibility?.status === 'unexpected_size' && <p className="mt-1 text-warn">{file.plausibility.message}</p>}
           <p className="mt-1 break-all text-ink-700">{file.kind === 'revision' ? file.downloadName : file.originalName}</p>
@@ -132,7 +154,7 @@ function FileRow({ file, canVerify, chosen, onCheck }: { file: CalibrationFile; 
           )}
           {file.draft && <DraftReview file={file} />}
           <div className="mt-2 flex flex-wrap items-start gap-2">
-            <DownloadButton file={file} />
+            {file.lock.locked ? <LockedDownload file={file} /> : <DownloadButton file={file} />}
             {canVerify && (
               <Button size="sm" variant="ghost" aria-expanded={shown} aria-controls={`check-${file.id}`} onClick={() => onCheck(shown)}>
                 {shown ? 'Hide check' : 'Show check'}

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ShopFrontDoorPatch, ShopRevisionReviewPatch } from '@revloop/contract';
+import type { ShopFrontDoorPatch, ShopPaymentLockPatch, ShopRevisionReviewPatch } from '@revloop/contract';
 import type { ShopSettings } from '@revloop/domain/shops';
 import { api, type ItemResponse } from '../../../lib/api-client';
 import type { Shop } from '@revloop/contract';
 import { getShopQueryOptions } from './get-shop';
 
-export interface ShopPatch extends ShopFrontDoorPatch, ShopRevisionReviewPatch {
+export interface ShopPatch extends ShopFrontDoorPatch, ShopRevisionReviewPatch, ShopPaymentLockPatch {
   name?: string;
   settings?: Partial<ShopSettings>;
 }

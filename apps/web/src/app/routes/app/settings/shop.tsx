@@ -5,6 +5,7 @@ import { Banner } from '../../../../components/ui/banner';
 import { Card } from '../../../../components/ui/card';
 import { PageSpinner } from '../../../../components/ui/spinner';
 import { useShop } from '../../../../features/shop-settings/api/get-shop';
+import { PaymentLockForm } from '../../../../features/shop-settings/components/payment-lock-form';
 import { PublicPageForm } from '../../../../features/shop-settings/components/public-page-form';
 import { RevisionReviewForm } from '../../../../features/shop-settings/components/revision-review-form';
 import { ShopSettingsForm } from '../../../../features/shop-settings/components/shop-settings-form';
@@ -43,6 +44,9 @@ function ShopSettings() {
       </Card>
       <Card title="Revision review" description="Revisions are drafts until someone sends them with a note of what changed.">
         <RevisionReviewForm shop={data} canEdit={canEdit} />
+      </Card>
+      <Card title="Payment before download" description="A revision a retail customer has not paid for waits for the payment.">
+        <PaymentLockForm shop={data} canEdit={canEdit} />
       </Card>
     </div>
   );
