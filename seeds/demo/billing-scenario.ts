@@ -82,8 +82,11 @@ export async function seedBilling(db: Db, now: Date, shops: { kestrel: SeededSho
 
 /**
  * Retail customers paid their finished jobs a few hours after opening them, and the customer who cancelled after a
- * revision got half back, so the reports' revenue has months of history. customer@kestrel.test's jobs (the first
- * customer) stay unpaid: the walkthrough and the tests pay those by hand.
+ * revision got half back, so the reports' revenue has months of history. Jobs at work (on the bench, with the
+ * customer, in log review) were paid the same way, so their customers download their revisions: both shops keep a
+ * sent revision locked until paid (the default). The first customer's jobs (customer@kestrel.test,
+ * customer@harbor.test) stay unpaid: their sent revisions are the demo's revisions locked until paid, and the
+ * walkthrough and the tests pay those by hand. Jobs waiting at intake, ready or on hold are not paid yet.
  */
 async function seedRetailPayments(db: Db, shop: SeededShop, jobs: SeededJob[]): Promise<void> {
   const rows = await db
@@ -99,7 +102,8 @@ async function seedRetailPayments(db: Db, shop: SeededShop, jobs: SeededJob[]): 
     .execute();
   for (const job of rows) {
     const refund = job.state === 'cancelled' && job.round > 0;
-    if (job.state !== 'dialed_in' && !refund) continue;
+    const atWork = job.state === 'on_bench' || job.state === 'with_customer' || job.state === 'log_review';
+    if (job.state !== 'dialed_in' && !refund && !atWork) continue;
     const paidAt = new Date(Date.parse(job.created_at) + 3 * 3_600_000).toISOString();
     const payment = await insertPayment(db, {
       id: newId(),

@@ -53,7 +53,7 @@ export async function customerDownloadLock(deps: Pick<AppDeps, 'db'>, auth: Auth
     message: lock.message,
     waivedAt: job.payment_lock_waived_at,
     waivedBy: job.payment_lock_waived_by_user_id ? { id: job.payment_lock_waived_by_user_id, name: waiver?.name ?? '' } : null,
-    canWaive: waivable && auth.ability.can('waive', asSubject('Payment', { shopId: job.shop_id, customerUserId: job.customer_user_id, dealerId: job.dealer_id })),
+    canWaive: lock.locked && waivable && auth.ability.can('waive', asSubject('Payment', { shopId: job.shop_id, customerUserId: job.customer_user_id, dealerId: job.dealer_id })),
   };
 }
 
