@@ -1,4 +1,4 @@
-import { appendLedgerEntry, insertPayment, insertPaymentRefund, insertShopSubscription, insertSubscriptionChange, newId, type Db } from '@revloop/db';
+import { appendLedgerEntry, insertAuditEvent, insertPayment, insertPaymentRefund, insertShopSubscription, insertSubscriptionChange, newId, type Db } from '@revloop/db';
 import { mrrMinorOf, type PlanId, type SubscriptionStatus } from '@revloop/domain/billing';
 import type { SeededJob } from './jobs-scenario';
 import type { SeededShop } from './seed-demo';
@@ -53,7 +53,10 @@ export async function seedBilling(db: Db, now: Date, shops: { kestrel: SeededSho
     { daysAgo: 166, planId: 'workshop', seats: 2, status: 'active' },
   ]);
 
-  for (const shop of [shops.kestrel, shops.harbor]) await seedRetailPayments(db, shop, jobs);
+  for (const shop of [shops.kestrel, shops.harbor]) {
+    await seedRetailPayments(db, shop, jobs);
+    await seedPaymentLockWaivers(db, shop, jobs);
+  }
 
   const { dealerId, shopId } = shops.kestrel;
   if (!dealerId) return;
@@ -133,5 +136,36 @@ async function seedRetailPayments(db: Db, shop: SeededShop, jobs: SeededJob[]): 
         created_at: job.state_changed_at,
       });
     }
+  }
+}
+
+/**
+ * The first customer is a regular the owner trusts: on the jobs where they downloaded revisions before paying, the
+ * owner waived payment before download when the job opened (on the job's timeline, as the waive button records it).
+ * Their job still with the customer and never downloaded keeps its revision locked until paid.
+ */
+async function seedPaymentLockWaivers(db: Db, shop: SeededShop, jobs: SeededJob[]): Promise<void> {
+  const rows = await db
+    .selectFrom('jobs')
+    .select(['jobs.id', 'jobs.created_at'])
+    .where('jobs.shop_id', '=', shop.shopId)
+    .where('jobs.dealer_id', 'is', null)
+    .where('jobs.customer_user_id', '=', shop.customerIds[0] ?? '')
+    .where('jobs.id', 'in', jobs.map((j) => j.id).concat(''))
+    .where((eb) => eb.exists(eb.selectFrom('audit_events').select('audit_events.id').whereRef('audit_events.subject_id', '=', 'jobs.id').where('audit_events.action', '=', 'file.downloaded')))
+    .execute();
+  for (const job of rows) {
+    const at = new Date(Date.parse(job.created_at) + 1_800_000).toISOString();
+    await db.updateTable('jobs').set({ payment_lock_waived_at: at, payment_lock_waived_by_user_id: shop.ownerId }).where('shop_id', '=', shop.shopId).where('id', '=', job.id).execute();
+    await insertAuditEvent(db, {
+      id: newId(),
+      shop_id: shop.shopId,
+      actor_user_id: shop.ownerId,
+      action: 'payment.lock_waived',
+      subject_type: 'Job',
+      subject_id: job.id,
+      details: JSON.stringify({ text: 'Payment before download waived: the customer may download the revisions before paying' }),
+      created_at: at,
+    });
   }
 }

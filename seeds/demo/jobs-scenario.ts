@@ -553,7 +553,9 @@ export async function seedJobs(ctx: JobsContext, shop: SeededShop, options: { pl
           break;
       }
     }
-    if (p.state === 'with_customer') {
+    // The first customer's job with them is unpaid: its revision waits locked until paid (the demo's locked revision).
+    const lockedUntilPaid = !viaDealer && index === 0;
+    if (p.state === 'with_customer' && !lockedUntilPaid) {
       // The customer has the revision: downloaded it, and one of them re-read the car with their own tool since.
       at = new Date(at.getTime() + (now.getTime() - at.getTime()) * 0.3);
       for (const module of modules) await files.downloaded(fileJob, module, uploaderId, at);

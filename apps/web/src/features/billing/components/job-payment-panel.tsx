@@ -119,7 +119,7 @@ function DownloadLockLine({ jobId, lock }: { jobId: string; lock: JobPayments['d
   if (!lock.locked && !lock.canWaive) return null;
   return (
     <div className="flex flex-col gap-2">
-      {lock.locked && <p className="text-ink-700">Sent revisions stay locked for the customer until this job is paid.</p>}
+      {lock.locked && <p className="text-ink-700">Sent revisions stay locked for download until this job is paid.</p>}
       {lock.canWaive && (
         <div>
           <Button size="sm" variant="secondary" onClick={() => setConfirming(true)}>
