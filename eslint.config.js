@@ -29,6 +29,8 @@ const SHARED_FEATURE_MODULES = [
   'packages/api/get-packages.ts',
   'vehicles/api/get-vehicles.ts',
   'files/api/get-job-files.ts',
+  // The files list offers the job's own Checkout beside a revision locked until paid.
+  'billing/api/start-checkout.ts',
   'datalogs/components/progress-bar.tsx',
   'jobs/components/intake-errors.ts',
   'jobs/components/cautions.tsx',

@@ -1,4 +1,3 @@
-import Stripe from 'stripe';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createCustomer, createJob, createLedgerEntry, createTwoShops, payJob, type TestJob } from '../../testing/factories';
