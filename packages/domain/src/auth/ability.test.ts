@@ -7,7 +7,7 @@ const OTHER = 'shop-other';
 const ME = 'user-me';
 const D = 'dealer-own';
 
-const ACTIONS: Action[] = ['read', 'create', 'update', 'delete', 'invite', 'suspend', 'assign', 'take', 'transition', 'upload', 'upload_revision', 'download', 'refund'];
+const ACTIONS: Action[] = ['read', 'create', 'update', 'delete', 'invite', 'suspend', 'assign', 'take', 'transition', 'upload', 'upload_revision', 'download', 'refund', 'waive'];
 
 type Who = 'admin' | 'owner' | 'tuner' | 'dealer' | 'customer';
 const actors: Record<Who, Actor> = {
@@ -45,7 +45,7 @@ const EXPECTED: Record<Who, Partial<Record<SubjectName, Action[]>>> = {
     Vehicle: CRUD,
     Package: CRUD,
     Message: CRUD,
-    Payment: [...CRUD, 'refund'],
+    Payment: [...CRUD, 'refund', 'waive'],
     Ledger: CRUD,
     Subscription: CRUD,
     AuditEvent: ['read'],
@@ -149,7 +149,7 @@ describe('row-level rules inside one shop', () => {
     const ledger = asSubject('Ledger', { shopId: S, dealerId: D });
     for (const who of ['owner', 'tuner', 'dealer', 'customer'] as const) {
       const a = defineAbilityFor({ ...actors[who], shopReadOnly: true });
-      for (const action of ['create', 'update', 'delete', 'refund'] as const) {
+      for (const action of ['create', 'update', 'delete', 'refund', 'waive'] as const) {
         expect(a.can(action, payment)).toBe(false);
         expect(a.can(action, ledger)).toBe(false);
       }

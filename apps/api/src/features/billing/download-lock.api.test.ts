@@ -46,6 +46,9 @@ describe('paid before download', () => {
     expect(download.body.error).toMatchObject({ code: 'payment_required' });
     expect(download.body.error.message).toMatch(/unlocks when the job is paid/);
     expect((await request(t.app).get(linkTo(revision.id))).status).toBe(402);
+    // The revision-ready e-mail says so before its links are clicked.
+    const mail = t.mailbox.list().find((m) => m.to.includes(job.customer.email) && /Revision 1 is ready/.test(m.subject));
+    expect(mail?.text).toMatch(/unlocks when the job is paid/);
     // The bytes do not leak through the hex view either.
     const read = (await filesOf(customer, job.id)).find((f) => f.kind === 'read')!;
     expect((await customer.get(`/api/files/${read.id}/diff/${revision.id}/hex?range=0x0-0x10`)).status).toBe(402);
@@ -107,6 +110,9 @@ describe('paid before download', () => {
   it('never locks a dealer’s job (paid from the dealer balance at intake)', async () => {
     const customer = await createCustomer(t, two.shop, { dealer: two.dealer });
     const job = await createJob(t, two.shop, { state: 'with_customer', customer });
+    const mail = t.mailbox.list().find((m) => m.to.includes(customer.email) && /Revision 1 is ready/.test(m.subject));
+    expect(mail?.text).toMatch(/Download \(each link/);
+    expect(mail?.text).not.toMatch(/unlocks when the job is paid/);
     for (const email of [customer.email, two.people.dealer.email]) {
       const agent = await signIn(t.app, email);
       const revision = await revisionOf(agent, job);

@@ -1,4 +1,4 @@
-import { findCalibrationFile, listJobFiles, type CalibrationFileListRow, type CalibrationFileRow, type Db, type JobListRow, type ShopRow } from '@revloop/db';
+import { findCalibrationFile, findShopById, listJobFiles, type CalibrationFileListRow, type CalibrationFileRow, type Db, type JobListRow, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { asSubject, type FileSubject } from '@revloop/domain/auth';
 import type { DownloadLock } from '@revloop/domain/billing';
@@ -79,7 +79,11 @@ export function fileAbilities(auth: AuthContext, job: JobListRow) {
 export async function revisionLinkLines(deps: Pick<AppDeps, 'db' | 'clock' | 'env'>, job: JobListRow): Promise<string[]> {
   const { db, clock, env } = deps;
   const drafts = (await listJobFiles(db, job.shop_id, job.id)).filter((f) => f.kind === 'revision' && f.for_round === job.round + 1);
+  // Paid before download: the customer hears before clicking that the links open once the job is paid.
+  const shop = await findShopById(db, job.shop_id);
+  const lock = shop && (await downloadLocksFor(db, shop, job, { shopStaff: false }))({ kind: 'revision', draft: false });
   return [
+    ...(lock?.locked ? [`${lock.message} The links below work once the payment has landed.`, ''] : []),
     'Download (each link works for 7 days without signing in):',
     ...drafts.map((f) => `- ${fileLabel(f)}: ${env.APP_ORIGIN}/api/files/${f.id}/download?${fileLinkQuery(env.FILE_LINK_SECRET, job.shop_id, f.id, clock.now())}`),
   ];
