@@ -73,8 +73,17 @@ test('a customer sees a revision locked until paid, pays through Checkout and do
   await page.screenshot({ path: '.tmp/payment-lock-paid.png', fullPage: true });
 });
 
-test('the owner waives payment before download for one job, and the timeline records it', async ({ page }) => {
+test('the owner sees the shop setting and waives payment before download for one job, on its timeline', async ({ page }) => {
   await signIn(page, 'owner@kestrel.test');
+  await page.goto('/settings/shop');
+  const setting = page.getByRole('checkbox', { name: /Keep sent revisions locked until the job is paid/ });
+  await expect(setting).toBeChecked();
+  await expect(page.getByRole('button', { name: 'Save payment before download' })).toBeDisabled();
+  await setting.uncheck();
+  await expect(page.getByRole('button', { name: 'Save payment before download' })).toBeEnabled();
+  // Left as it was: the other stories expect the demo's default.
+  await setting.check();
+
   const jobs = (await (await page.request.get('/api/jobs?pageSize=100')).json()).data as ListedJob[];
   let jobId: string | null = null;
   for (const job of jobs.filter((j) => j.dealer === null && j.state !== 'cancelled' && j.state !== 'dialed_in')) {
@@ -93,4 +102,5 @@ test('the owner waives payment before download for one job, and the timeline rec
   await expect(page.getByText(/^Payment before download waived by /)).toBeVisible();
   await expect(page.getByRole('button', { name: 'Waive payment before download…' })).toHaveCount(0);
   await expect(page.getByText(/Payment before download waived: the customer may download/).first()).toBeVisible({ timeout: 15_000 });
+  await page.screenshot({ path: '.tmp/payment-lock-waived.png', fullPage: true });
 });
