@@ -59,7 +59,7 @@ let template: Promise<MigratedTemplate> | undefined;
  * database; tests add the rows they need with ./factories. The blob store is shared within the process: it is
  * content-addressed, so a test's uploads never change what another reads.
  */
-export function migratedTemplate(): Promise<MigratedTemplate> {
+function migratedTemplate(): Promise<MigratedTemplate> {
   template ??= (async () => {
     const db = createDb(':memory:');
     await migrateToLatest(db);
