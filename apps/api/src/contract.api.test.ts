@@ -27,6 +27,8 @@ import {
   revenueResponseSchema,
   shopResponseSchema,
   subscriptionResponseSchema,
+  vehicleResponseSchema,
+  vehiclesResponseSchema,
   verificationResponseSchema,
   type JobSortKey,
   type Verification,
@@ -134,6 +136,14 @@ describe('the API answers in the shapes of @revloop/contract', () => {
     await expectParses(owner, `/api/billing/jobs/${w.twoRounds.id}/payments`, jobPaymentsResponseSchema);
     const admin = await signIn(t.app, w.admin.email);
     await expectParses(admin, '/api/admin/revenue', revenueResponseSchema);
+  });
+
+  it('vehicles: list and one vehicle, with what its numbers mean', async () => {
+    const list = (await expectParses(owner, '/api/vehicles', vehiclesResponseSchema)) as { data: { id: string; derived: unknown }[] };
+    expect(list.data.length).toBeGreaterThan(0);
+    expect(list.data.every((v) => v.derived !== null)).toBe(true);
+    await expectParses(owner, `/api/vehicles/${list.data[0]!.id}`, vehicleResponseSchema);
+    await expectParses(await signIn(t.app, w.people.customer.email), '/api/vehicles', vehiclesResponseSchema);
   });
 
   it('members and the session', async () => {

@@ -170,7 +170,7 @@ export interface JobOptions {
   /** The state to walk the job to; on_hold and cancelled are reached from `from` (intake unless said). */
   state?: JobState;
   from?: JobState;
-  /** Revisions sent before stopping: defaults to 1 for states after the first revision. */
+  /** Revisions sent before stopping: defaults to 1 for states after the first revision (on_bench with a round is the next round's bench). */
   round?: number;
   customer?: TestMember;
   tuner?: TestMember;
@@ -235,7 +235,8 @@ export async function createJob(t: TestApp, shop: TestShop, options: JobOptions 
       const log = await ok('uploading a log', customerAgent.post(`/api/jobs/${id}/datalogs`).attach('file', Buffer.from(generateLog({ seed: r }).text), `drive-${r}.csv`), 202);
       await settledLog(customerAgent, log.body.data.id);
       if (target === 'log_review' && r === rounds) break;
-      await move(bench, r === rounds ? 'dialed_in' : 'on_bench');
+      // Back on the bench for the next round, or (after the last) dialed in, unless the bench is where the job should stay.
+      await move(bench, r === rounds && target === 'dialed_in' ? 'dialed_in' : 'on_bench');
     }
   }
   if (state === 'on_hold') await move(owner, 'on_hold');

@@ -59,7 +59,7 @@ let template: Promise<MigratedTemplate> | undefined;
  * database; tests add the rows they need with ./factories. The blob store is shared within the process: it is
  * content-addressed, so a test's uploads never change what another reads.
  */
-export function migratedTemplate(): Promise<MigratedTemplate> {
+function migratedTemplate(): Promise<MigratedTemplate> {
   template ??= (async () => {
     const db = createDb(':memory:');
     await migrateToLatest(db);
@@ -72,10 +72,16 @@ export function migratedTemplate(): Promise<MigratedTemplate> {
   return template;
 }
 
-/** The whole API on an empty migrated in-memory database, a fake clock and a live local SMTP mailbox. */
-export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean; database?: Buffer } = {}): Promise<TestApp> {
-  const { snapshot, dataDir } = await migratedTemplate();
-  const db = createDb(options.database ?? snapshot);
+/**
+ * The whole API on an empty migrated in-memory database, a fake clock and a live local SMTP mailbox. With `dataDir`,
+ * on a database file and a blob store in that folder instead, laid out as the server keeps them, so a test can build
+ * rows with the factories and then start the real server on the folder.
+ */
+export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean; database?: Buffer; dataDir?: string } = {}): Promise<TestApp> {
+  const template = await migratedTemplate();
+  const dataDir = options.dataDir ?? template.dataDir;
+  const db = createDb(options.dataDir ? path.join(options.dataDir, 'revloop.db') : (options.database ?? template.snapshot));
+  if (options.dataDir) await migrateToLatest(db);
   const clock = new FakeClock();
   const blobs = new BlobStore(dataDir);
   const smtp = await startSmtpFake();

@@ -1,12 +1,12 @@
 import type request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { asSubject, defineAbilityFor, type Actor } from '@revloop/domain/auth';
-import { createDemoTestApp } from '../../testing/demo-fixture';
-import { signIn } from '../../testing/test-app';
+import { createCustomer, createJob, createLedgerEntry, createMember, createPackage, createTwoShops } from '../../testing/factories';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 
-let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let t: TestApp;
 beforeEach(async () => {
-  t = await createDemoTestApp();
+  t = await createTestApp();
 });
 afterEach(async () => {
   await t.close();
@@ -99,27 +99,30 @@ async function filesTheAbilityAllows(actor: Actor, jobId: string) {
 describe('the files API agrees with the File abilities', () => {
   for (const dealerSide of [false, true]) {
     it(`for every role near a ${dealerSide ? 'dealer' : 'direct'} job: list, single read, download and check, with a draft revision`, async () => {
-      const job = t.ids.jobs.find(
-        (j) =>
-          j.shopId === t.ids.kestrel.shopId &&
-          j.state === 'on_bench' &&
-          j.modules.length === 2 &&
-          (j.dealerId !== null) === dealerSide,
-      );
-      expect(job).toBeDefined();
-      const members = await membersOf(job!.shopId, job!.customerUserId);
+      // A shop with a person in every role, a second tuner and a second customer, and one job back on the bench for two
+      // modules after a first revision was sent: a direct job, or one of the dealer's customers.
+      const { shop, dealer, people } = await createTwoShops(t);
+      await createMember(t, shop, 'tuner');
+      await createCustomer(t, shop);
+      await createLedgerEntry(t, dealer);
+      const job = await createJob(t, shop, {
+        state: 'on_bench',
+        round: 1,
+        tuner: people.tuner,
+        customer: dealerSide ? await createCustomer(t, shop, { dealer }) : people.customer,
+        package: await createPackage(t, shop, { modules: ['ECM', 'TCM'] }),
+      });
+      const members = await membersOf(shop.id, job.customer.id);
       const row = await t.db
         .selectFrom('jobs')
         .selectAll()
-        .where('id', '=', job!.id)
+        .where('id', '=', job.id)
         .executeTakeFirstOrThrow();
-      const tunerEmail =
-        members.find((m) => m.actor.userId === row.assigned_tuner_id)?.email ??
-        'owner@kestrel.test';
-      const customerEmail = members.find((m) => m.actor.userId === job!.customerUserId)!.email;
+      const tunerEmail = members.find((m) => m.actor.userId === row.assigned_tuner_id)!.email;
+      const customerEmail = job.customer.email;
       const uploadAs = async (email: string, seed: number, kind: string) =>
         (
-          await upload(await signIn(t.app, email), job!.id, rawImage(seed), `${kind}.bin`, {
+          await upload(await signIn(t.app, email), job.id, rawImage(seed), `${kind}.bin`, {
             module: 'ECM',
             kind,
           })
@@ -130,9 +133,9 @@ describe('the files API agrees with the File abilities', () => {
 
       let hidden = 0;
       for (const { email, actor } of members) {
-        const allowed = await filesTheAbilityAllows(actor, job!.id);
+        const allowed = await filesTheAbilityAllows(actor, job.id);
         const agent = await signIn(t.app, email);
-        const list = await agent.get(`/api/jobs/${job!.id}/files`);
+        const list = await agent.get(`/api/jobs/${job.id}/files`);
         const seesJob = defineAbilityFor(actor).can(
           'read',
           asSubject('Job', {

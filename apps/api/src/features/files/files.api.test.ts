@@ -5,13 +5,15 @@ import { crc32 as zlibCrc32 } from 'node:zlib';
 import MemoryMap from 'nrf-intel-hex';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createDemoTestApp, type SeededJob } from '../../testing/demo-fixture';
-import { signIn, TEST_ORIGIN } from '../../testing/test-app';
+import { createCustomer, createJob, createLedgerEntry, createMember, createPackage, createTwoShops, type JobOptions, type TestJob } from '../../testing/factories';
+import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
 import { signFileLink } from './file-links';
 
-let t: Awaited<ReturnType<typeof createDemoTestApp>>;
+let t: TestApp;
+let w: Awaited<ReturnType<typeof world>>;
 beforeEach(async () => {
-  t = await createDemoTestApp();
+  t = await createTestApp();
+  w = await world();
 });
 afterEach(async () => {
   await t.close();
@@ -25,19 +27,32 @@ const SREC_EXAMPLE = 'S107FEDC210080CFAE\nS9030000FC\n';
 /** A raw image: every byte value twice, so it holds control bytes and 0xFF and is binary beyond doubt. */
 const rawImage = (seed = 0) => Buffer.from(Array.from({ length: 512 }, (_, i) => (i + seed) & 0xff));
 
-const usersByEmail = async (email: string) => (await t.db.selectFrom('users').select('id').where('email', '=', email).executeTakeFirstOrThrow()).id;
+/**
+ * Two shops with a person in every role, a second tuner, a customer of the dealer (named, for the download's file
+ * name) with a balance to debit, and the packages the tests open jobs for: ECM only, and ECM with TCM.
+ */
+async function world() {
+  const { shop, dealer, people, other } = await createTwoShops(t);
+  const tuner2 = await createMember(t, shop, 'tuner');
+  await createLedgerEntry(t, dealer);
+  const dealerCustomer = await createCustomer(t, shop, { dealer, name: 'Jo Marsh' });
+  const ecm = await createPackage(t, shop, { modules: ['ECM'] });
+  const twoModules = await createPackage(t, shop, { modules: ['ECM', 'TCM'] });
+  return { shop, dealer, people: { ...people, tuner2, dealerCustomer }, other, ecm, twoModules };
+}
+
 const emailOf = async (userId: string) => (await t.db.selectFrom('users').select('email').where('id', '=', userId).executeTakeFirstOrThrow()).email;
 const jobRow = (id: string) => t.db.selectFrom('jobs').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
 
-function seeded(where: (j: SeededJob) => boolean): SeededJob {
-  const job = t.ids.jobs.find(where);
-  if (!job) throw new Error('no seeded job fits');
-  return job;
-}
+/** A job of the shop walked to `state`: a direct customer's unless said, for the ECM-only package unless said. */
+const jobIn = (state: NonNullable<JobOptions['state']>, options: JobOptions = {}): Promise<TestJob> =>
+  createJob(t, w.shop, { state, customer: w.people.customer, package: w.ecm, ...options });
+/** A job for both modules on the bench of round 1, not assigned (the owner works it). */
+const twoModuleBench = (options: JobOptions = {}) => jobIn('on_bench', { package: w.twoModules, ...options });
 
 async function tunerOf(jobId: string) {
   const row = await jobRow(jobId);
-  return row.assigned_tuner_id ? signIn(t.app, await emailOf(row.assigned_tuner_id)) : signIn(t.app, 'owner@kestrel.test');
+  return row.assigned_tuner_id ? signIn(t.app, await emailOf(row.assigned_tuner_id)) : signIn(t.app, w.shop.owner.email);
 }
 
 const upload = (agent: ReturnType<typeof request.agent>, jobId: string, body: Buffer, name: string, fields: Record<string, string>) => {
@@ -46,6 +61,10 @@ const upload = (agent: ReturnType<typeof request.agent>, jobId: string, body: Bu
   return req.attach('file', body, name);
 };
 
+/** Sends the round's revisions to the customer side, as the bench's Send revision does (with its what-changed note). */
+const sendRevision = (agent: ReturnType<typeof request.agent>, jobId: string) =>
+  agent.post(`/api/jobs/${jobId}/transitions`).send({ to: 'with_customer', note: 'Fuel and spark for the logged conditions.' });
+
 function filesOnDisk(): string[] {
   const walk = (dir: string): string[] =>
     fs.existsSync(dir) ? fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)])) : [];
@@ -53,13 +72,10 @@ function filesOnDisk(): string[] {
 }
 const fileRowCount = async () => Number((await t.db.selectFrom('calibration_files').select((eb) => eb.fn.countAll().as('n')).executeTakeFirstOrThrow()).n);
 
-const kestrelJob = (state: SeededJob['state'], more: (j: SeededJob) => boolean = () => true) =>
-  seeded((j) => j.shopId === t.ids.kestrel.shopId && j.state === state && more(j));
-
 describe('upload', () => {
   it('stores each format with SHA-256 of the file, CRC-32 of the image, format and ranges', async () => {
-    const job = kestrelJob('intake', (j) => j.dealerId === null);
-    const customer = await signIn(t.app, await emailOf(job.customerUserId));
+    const job = await jobIn('intake');
+    const customer = await signIn(t.app, job.customer.email);
 
     const hex = await upload(customer, job.id, Buffer.from(HEX_EXAMPLE), 'stock.hex', { module: 'ECM', kind: 'read' });
     expect(hex.status).toBe(201);
@@ -89,8 +105,8 @@ describe('upload', () => {
   });
 
   it('stores the same content once, and moves an intake job to ready on its first read', async () => {
-    const job = kestrelJob('intake', (j) => j.dealerId === null);
-    const customer = await signIn(t.app, await emailOf(job.customerUserId));
+    const job = await jobIn('intake');
+    const customer = await signIn(t.app, job.customer.email);
     const before = filesOnDisk().length;
     const first = await upload(customer, job.id, rawImage(3), 'a.bin', { module: 'ECM', kind: 'read' });
     const second = await upload(customer, job.id, rawImage(3), 'b.bin', { module: 'ECM', kind: 're-read' });
@@ -100,7 +116,7 @@ describe('upload', () => {
     expect(first.body.meta.movedTo).toBe('ready');
     expect((await jobRow(job.id)).state).toBe('ready');
     expect((await jobRow(job.id)).has_stock_read).toBe(1);
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, w.shop.owner.email);
     const timeline = (await owner.get(`/api/jobs/${job.id}`)).body.data.timeline.map((e: { text: string }) => e.text);
     expect(timeline).toContain('Read (ECM) uploaded, Raw binary');
     expect(timeline).toContain('Moved from Intake to Ready');
@@ -125,8 +141,8 @@ describe('upload', () => {
       ['a missing module', rawImage(), 'ok.bin', { kind: 'read' }, 400, /module/],
     ];
     it.each(cases)('%s', async (_label, body, name, fields, status, message) => {
-      const job = kestrelJob('intake', (j) => j.dealerId === null);
-      const customer = await signIn(t.app, await emailOf(job.customerUserId));
+      const job = await jobIn('intake');
+      const customer = await signIn(t.app, job.customer.email);
       const [disk, rows] = [filesOnDisk(), await fileRowCount()];
       const res = await upload(customer, job.id, body, name, fields);
       expect(res.status).toBe(status);
@@ -138,8 +154,8 @@ describe('upload', () => {
     });
 
     it('a name with ../ never reaches the store with its directory parts', async () => {
-      const job = kestrelJob('intake', (j) => j.dealerId === null);
-      const customer = await signIn(t.app, await emailOf(job.customerUserId));
+      const job = await jobIn('intake');
+      const customer = await signIn(t.app, job.customer.email);
       const res = await upload(customer, job.id, rawImage(), '../../etc/stock.bin', { module: 'ECM', kind: 'read' });
       // multer strips directory parts before the name reaches the API; a refusal would be as safe.
       if (res.status === 201) expect(res.body.data.originalName).toBe('stock.bin');
@@ -148,9 +164,9 @@ describe('upload', () => {
     });
 
     it('over the shop’s limit: 413 with nothing on disk', async () => {
-      await t.db.updateTable('shops').set({ settings: JSON.stringify({ uploadLimitMiB: 1 }) }).where('id', '=', t.ids.kestrel.shopId).execute();
-      const job = kestrelJob('intake', (j) => j.dealerId === null);
-      const customer = await signIn(t.app, await emailOf(job.customerUserId));
+      await t.db.updateTable('shops').set({ settings: JSON.stringify({ uploadLimitMiB: 1 }) }).where('id', '=', w.shop.id).execute();
+      const job = await jobIn('intake');
+      const customer = await signIn(t.app, job.customer.email);
       const disk = filesOnDisk();
       const res = await upload(customer, job.id, Buffer.alloc(1024 * 1024 + 1, 0xff), 'big.bin', { module: 'ECM', kind: 'read' });
       expect(res.status).toBe(413);
@@ -160,13 +176,13 @@ describe('upload', () => {
     });
 
     it('a customer may not upload a revision; another shop’s job is a 404; no session is a 401', async () => {
-      const job = kestrelJob('on_bench', (j) => j.dealerId === null);
-      const customer = await signIn(t.app, await emailOf(job.customerUserId));
+      const job = await jobIn('on_bench');
+      const customer = await signIn(t.app, job.customer.email);
       const [disk, rows] = [filesOnDisk(), await fileRowCount()];
       const refused = await upload(customer, job.id, rawImage(), 'mine.bin', { module: 'ECM', kind: 'revision' });
       expect(refused.status).toBe(403);
       expect(refused.body.error.message).toMatch(/tuners and owner/);
-      const harbor = await signIn(t.app, 'owner@harbor.test');
+      const harbor = await signIn(t.app, w.other.owner.email);
       expect((await upload(harbor, job.id, rawImage(), 'x.bin', { module: 'ECM', kind: 'read' })).status).toBe(404);
       expect((await upload(request.agent(t.app), job.id, rawImage(), 'x.bin', { module: 'ECM', kind: 'read' })).status).toBe(401);
       expect(fs.readdirSync(t.blobs.tempDir)).toEqual([]);
@@ -175,9 +191,9 @@ describe('upload', () => {
     });
 
     it('a revision outside the bench is refused with the job’s state', async () => {
-      const job = kestrelJob('with_customer');
+      const job = await jobIn('with_customer', { tuner: w.people.tuner });
       const tuner = await tunerOf(job.id);
-      const res = await upload(tuner, job.id, rawImage(9), 'rev.bin', { module: job.modules[0]!, kind: 'revision' });
+      const res = await upload(tuner, job.id, rawImage(9), 'rev.bin', { module: job.package.modules[0]!, kind: 'revision' });
       expect(res.status).toBe(409);
       expect(res.body.error.message).toMatch(/On the bench; this job is With customer/);
       expect(fs.readdirSync(t.blobs.tempDir)).toEqual([]);
@@ -187,7 +203,7 @@ describe('upload', () => {
 
 describe('revisions and the job flow', () => {
   it('numbers revisions per module, waits for every package module, then sends the job with signed links and cautions', async () => {
-    const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2);
+    const job = await twoModuleBench();
     const tuner = await tunerOf(job.id);
     const ecm = await upload(tuner, job.id, rawImage(1), 'ecm-rev.bin', { module: 'ECM', kind: 'revision', notes: 'Fuel and spark for the intake.' });
     expect(ecm.status).toBe(201);
@@ -196,16 +212,21 @@ describe('revisions and the job flow', () => {
     expect((await jobRow(job.id)).state).toBe('on_bench');
     const list = (await tuner.get(`/api/jobs/${job.id}/files`)).body.data as Array<{ id: string; kind: string; module: string }>;
     const ecmRead = list.find((f) => f.kind === 'read' && f.module === 'ECM');
-    if (ecmRead) expect(ecm.body.data.parentFileId).toBe(ecmRead.id);
+    expect(ecmRead).toBeDefined();
+    expect(ecm.body.data.parentFileId).toBe(ecmRead!.id);
 
     t.mailbox.clear();
     const tcm = await upload(tuner, job.id, Buffer.from(SREC_EXAMPLE), 'tcm-rev.s19', { module: 'TCM', kind: 'revision' });
     expect(tcm.status).toBe(201);
-    expect(tcm.body.meta.movedTo).toBe('with_customer');
+    // Every module has its revision: the round is ready to send, and the bench sends it with a note.
+    expect(tcm.body.meta).toMatchObject({ waitingFor: [], movedTo: null });
+    expect((await jobRow(job.id)).state).toBe('on_bench');
+    expect((await sendRevision(tuner, job.id)).status).toBe(200);
     const row = await jobRow(job.id);
     expect([row.state, row.round]).toEqual(['with_customer', 1]);
 
-    const customerEmail = await emailOf(job.customerUserId);
+    const customerEmail = job.customer.email;
+    await expect.poll(() => t.mailbox.list().some((m) => m.to.includes(customerEmail))).toBe(true);
     const mail = t.mailbox.list().find((m) => m.to.includes(customerEmail));
     expect(mail?.subject).toMatch(/Revision 1 is ready/);
     expect(mail?.text).toMatch(/battery supporter/);
@@ -219,16 +240,17 @@ describe('revisions and the job flow', () => {
     expect(viaLink.headers['content-disposition']).toMatch(/^attachment; filename="?[a-z0-9-]+-tcm-rev1\.s19"?$/);
     expect(viaLink.headers['x-content-type-options']).toBe('nosniff');
     expect(Buffer.from(viaLink.body as Buffer).toString()).toBe(SREC_EXAMPLE);
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, w.shop.owner.email);
     const timeline = (await owner.get(`/api/jobs/${job.id}`)).body.data.timeline.map((e: { text: string }) => e.text);
     expect(timeline).toContain('Rev 1 (TCM) downloaded through an e-mailed link');
   });
 
   it('the customer’s and the dealer’s timelines leave out revisions not sent yet, as their files list does', async () => {
-    for (const [dealerSide, viewerEmail] of [[false, null], [true, 'dealer@kestrel.test']] as const) {
-      const job = kestrelJob('on_bench', (j) => j.modules.length === 2 && (j.dealerId !== null) === dealerSide);
+    for (const dealerSide of [false, true]) {
+      // Back on the bench after a first revision, so the customer side has a sent revision and a coming one.
+      const job = await twoModuleBench({ round: 1, tuner: w.people.tuner, ...(dealerSide && { customer: w.people.dealerCustomer }) });
       const tuner = await tunerOf(job.id);
-      const viewer = await signIn(t.app, viewerEmail ?? (await emailOf(job.customerUserId)));
+      const viewer = await signIn(t.app, dealerSide ? w.people.dealer.email : job.customer.email);
       const uploads = async (agent: ReturnType<typeof request.agent>) =>
         (await agent.get(`/api/jobs/${job.id}`)).body.data.timeline.filter((e: { text: string }) => new RegExp(`^Revision ${job.round + 1} \\(ECM\\) uploaded`).test(e.text)).length;
       expect(await uploads(tuner)).toBe(0);
@@ -241,11 +263,13 @@ describe('revisions and the job flow', () => {
   });
 
   it('a signed link stops working when expired or tampered with', async () => {
-    const job = kestrelJob('on_bench', (j) => j.round === 0 && j.modules.length === 2);
+    const job = await twoModuleBench();
     const tuner = await tunerOf(job.id);
     await upload(tuner, job.id, rawImage(1), 'ecm.bin', { module: 'ECM', kind: 'revision' });
     t.mailbox.clear();
     await upload(tuner, job.id, rawImage(2), 'tcm.bin', { module: 'TCM', kind: 'revision' });
+    expect((await sendRevision(tuner, job.id)).status).toBe(200);
+    await expect.poll(() => t.mailbox.list().some((m) => m.subject.includes('Revision 1 is ready'))).toBe(true);
     const mail = t.mailbox.list().find((m) => m.subject.includes('Revision 1 is ready'))!;
     const link = mail.text.match(new RegExp(`${TEST_ORIGIN}(/api/files/\\S+)`))![1]!;
     const url = new URL(link, TEST_ORIGIN);
@@ -272,12 +296,12 @@ describe('revisions and the job flow', () => {
 });
 
 describe('access', () => {
-  /** A dealer job on the bench with a read by the dealer and a sent revision, plus a read only the dealer uploaded. */
+  /** A dealer's customer's job with its first revision sent, plus a read only the dealer uploaded. */
   async function dealerJobWithFiles() {
-    const job = seeded((j) => j.dealerId !== null && j.state === 'with_customer');
+    const job = await jobIn('with_customer', { customer: w.people.dealerCustomer, tuner: w.people.tuner, package: w.twoModules });
     const row = await jobRow(job.id);
-    const dealer = await signIn(t.app, 'dealer@kestrel.test');
-    const read = await upload(dealer, job.id, rawImage(40), 'dealer-read.bin', { module: job.modules[0]!, kind: 'read' });
+    const dealer = await signIn(t.app, w.people.dealer.email);
+    const read = await upload(dealer, job.id, rawImage(40), 'dealer-read.bin', { module: job.package.modules[0]!, kind: 'read' });
     expect(read.status).toBe(201);
     const revisions = await t.db
       .selectFrom('calibration_files')
@@ -292,17 +316,16 @@ describe('access', () => {
     const { job, row, dealerRead, revision } = await dealerJobWithFiles();
     expect(revision).toBeDefined();
     const assignedTuner = row.assigned_tuner_id!;
-    const otherTuner = t.ids.kestrel.tunerIds.find((id) => id !== assignedTuner)!;
-    const otherCustomer = t.ids.kestrel.customerIds[0]!;
+    expect(assignedTuner).toBe(w.people.tuner.id);
     const who: Array<[string, string, { list: number; read: number; revision: number; verify: number }]> = [
-      ['owner', 'owner@kestrel.test', { list: 200, read: 200, revision: 200, verify: 200 }],
+      ['owner', w.shop.owner.email, { list: 200, read: 200, revision: 200, verify: 200 }],
       ['assigned tuner', await emailOf(assignedTuner), { list: 200, read: 200, revision: 200, verify: 200 }],
-      ['another tuner', await emailOf(otherTuner), { list: 404, read: 404, revision: 404, verify: 404 }],
-      ['the dealer', 'dealer@kestrel.test', { list: 200, read: 200, revision: 200, verify: 403 }],
+      ['another tuner', w.people.tuner2.email, { list: 404, read: 404, revision: 404, verify: 404 }],
+      ['the dealer', w.people.dealer.email, { list: 200, read: 200, revision: 200, verify: 403 }],
       // The dealer's read is not the customer's own upload, so for the customer it does not exist.
-      ['the job’s customer', await emailOf(job.customerUserId), { list: 200, read: 404, revision: 200, verify: 404 }],
-      ['another customer', await emailOf(otherCustomer), { list: 404, read: 404, revision: 404, verify: 404 }],
-      ['another shop’s owner', 'owner@harbor.test', { list: 404, read: 404, revision: 404, verify: 404 }],
+      ['the job’s customer', job.customer.email, { list: 200, read: 404, revision: 200, verify: 404 }],
+      ['another customer', w.people.customer.email, { list: 404, read: 404, revision: 404, verify: 404 }],
+      ['another shop’s owner', w.other.owner.email, { list: 404, read: 404, revision: 404, verify: 404 }],
     ];
     for (const [label, email, expected] of who) {
       const agent = await signIn(t.app, email);
@@ -319,11 +342,11 @@ describe('access', () => {
 
   it('shows the customer only revisions and their own uploads', async () => {
     const { job } = await dealerJobWithFiles();
-    const customer = await signIn(t.app, await emailOf(job.customerUserId));
-    const mine = await upload(customer, job.id, rawImage(77), 'my-re-read.bin', { module: job.modules[0]!, kind: 're_read' });
+    const customer = await signIn(t.app, job.customer.email);
+    const mine = await upload(customer, job.id, rawImage(77), 'my-re-read.bin', { module: job.package.modules[0]!, kind: 're_read' });
     expect(mine.status).toBe(201);
     const list = (await customer.get(`/api/jobs/${job.id}/files`)).body;
-    const customerId = await usersByEmail(await emailOf(job.customerUserId));
+    const customerId = job.customer.id;
     expect(list.data.length).toBeGreaterThan(1);
     for (const f of list.data as Array<{ kind: string; uploadedBy: { id: string } }>) {
       expect(f.kind === 'revision' || f.uploadedBy.id === customerId).toBe(true);
@@ -333,35 +356,36 @@ describe('access', () => {
 
   it('downloads with safe headers and records every download on the job timeline', async () => {
     const { job, revision } = await dealerJobWithFiles();
-    const customer = await signIn(t.app, await emailOf(job.customerUserId));
+    const customer = await signIn(t.app, job.customer.email);
     const res = await customer.get(`/api/files/${revision}/download`).buffer(true);
     expect(res.status).toBe(200);
-    const surname = job.customerName.split(' ').at(-1)!.toLowerCase();
+    const surname = job.customer.name.split(' ').at(-1)!.toLowerCase();
     expect(res.headers['content-disposition']).toMatch(new RegExp(`^attachment; filename="?${surname}-\\d{4}-[a-z0-9-]+-(ecm|tcm)-rev1\\.(bin|hex|s19|s28|s37|srec)"?$`));
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['content-type']).toBe('application/octet-stream');
     const stored = await t.db.selectFrom('calibration_files').select(['sha256', 'size_bytes']).where('id', '=', revision!).executeTakeFirstOrThrow();
     expect(createHash('sha256').update(res.body as Buffer).digest('hex')).toBe(stored.sha256);
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const owner = await signIn(t.app, w.shop.owner.email);
     const timeline = (await owner.get(`/api/jobs/${job.id}`)).body.data.timeline as Array<{ text: string; actor: string | null }>;
-    expect(timeline.filter((e) => /Rev 1 \((ECM|TCM)\) downloaded$/.test(e.text)).map((e) => e.actor)).toContain(job.customerName);
+    expect(timeline.filter((e) => /Rev 1 \((ECM|TCM)\) downloaded$/.test(e.text)).map((e) => e.actor)).toContain(job.customer.name);
   });
 });
 
 describe('proof of what is on the car', () => {
   /** A job on the bench: a read, then Rev 1 sent to the customer, by the API itself. */
   async function sentJob() {
-    const job = kestrelJob('ready', (j) => j.modules.length === 1 && j.modules[0] === 'ECM');
-    const owner = await signIn(t.app, 'owner@kestrel.test');
+    const job = await jobIn('ready');
+    const owner = await signIn(t.app, w.shop.owner.email);
     expect((await owner.post(`/api/jobs/${job.id}/transitions`).send({ to: 'on_bench' })).status).toBe(200);
     const rev1 = await upload(owner, job.id, rawImage(101), 'rev1.bin', { module: 'ECM', kind: 'revision' });
-    expect(rev1.body.meta.movedTo).toBe('with_customer');
+    expect(rev1.status).toBe(201);
+    expect((await sendRevision(owner, job.id)).body.data.state).toBe('with_customer');
     return { job, owner, rev1: rev1.body.data as { id: string; revisionNumber: number } };
   }
 
   it('a re-read equal to the revision sent matches it', async () => {
     const { job, owner, rev1 } = await sentJob();
-    const customer = await signIn(t.app, await emailOf(job.customerUserId));
+    const customer = await signIn(t.app, job.customer.email);
     // The same image in another format is the same calibration.
     const image = rawImage(101);
     const asHex = MemoryMap.fromPaddedUint8Array(new Uint8Array(image)).asHexString();
@@ -390,26 +414,26 @@ describe('proof of what is on the car', () => {
 
   it('flags a read that matches a revision of another job in the shop, and only in that shop', async () => {
     const { owner } = await sentJob();
-    const other = kestrelJob('intake', (j) => j.dealerId === null);
-    const customer = await signIn(t.app, await emailOf(other.customerUserId));
+    const other = await jobIn('intake', { customer: await createCustomer(t, w.shop) });
+    const customer = await signIn(t.app, other.customer.email);
     const read = await upload(customer, other.id, rawImage(101), 'stock.bin', { module: 'ECM', kind: 'read' });
     const verify = (await owner.get(`/api/files/${read.body.data.id}/verify`)).body.data;
     expect(verify.foreignMatch).toBe(true);
     expect(verify.warning).toBe(true);
     expect(verify.foreignMatches[0]).toMatchObject({ module: 'ECM', revisionNumber: 1 });
 
-    const harborJob = seeded((j) => j.shopId === t.ids.harbor.shopId && j.state === 'intake');
-    const harborCustomer = await signIn(t.app, await emailOf(harborJob.customerUserId));
+    const harborJob = await createJob(t, w.other);
+    const harborCustomer = await signIn(t.app, harborJob.customer.email);
     const harborRead = await upload(harborCustomer, harborJob.id, rawImage(101), 'stock.bin', { module: 'ECM', kind: 'read' });
-    const harborOwner = await signIn(t.app, 'owner@harbor.test');
+    const harborOwner = await signIn(t.app, w.other.owner.email);
     expect((await harborOwner.get(`/api/files/${harborRead.body.data.id}/verify`)).body.data.foreignMatch).toBe(false);
   });
 });
 
 describe('diff', () => {
   it('reports changed ranges and bytes of two images of the same module, paged, with a hex view', async () => {
-    const job = kestrelJob('intake', (j) => j.dealerId === null);
-    const customer = await signIn(t.app, await emailOf(job.customerUserId));
+    const job = await jobIn('intake');
+    const customer = await signIn(t.app, job.customer.email);
     const a = rawImage(5);
     const b = Buffer.from(a);
     for (const at of [0, 1, 15, 100, 101, 102, 300]) b[at] = b[at]! ^ 0x55;
@@ -438,35 +462,7 @@ describe('diff', () => {
     expect(mixed.status).toBe(400);
     expect(mixed.body.error.message).toMatch(/same module/);
     expect((await customer.get(`/api/files/${fa}/diff/${fb}/hex?range=0x20-0x10`)).status).toBe(400);
-    const harbor = await signIn(t.app, 'owner@harbor.test');
+    const harbor = await signIn(t.app, w.other.owner.email);
     expect((await harbor.get(`/api/files/${fa}/diff/${fb}`)).status).toBe(404);
-  });
-});
-
-describe('demo files', () => {
-  it('seeds a read per package module and Rev 1..round for every job past intake, and a re-read that differs', async () => {
-    const files = await t.db.selectFrom('calibration_files').selectAll().execute();
-    expect(new Set(files.map((f) => f.format))).toEqual(new Set(['raw', 'intel_hex', 'srec']));
-    for (const job of t.ids.jobs) {
-      const row = await jobRow(job.id);
-      const mine = files.filter((f) => f.job_id === job.id);
-      if (row.has_stock_read === 0) {
-        expect(mine).toEqual([]);
-        continue;
-      }
-      for (const module of job.modules) {
-        expect(mine.filter((f) => f.module === module && f.kind === 'read')).toHaveLength(1);
-        const revisions = mine.filter((f) => f.module === module && f.kind === 'revision').map((f) => f.revision_number);
-        expect(revisions.sort()).toEqual(Array.from({ length: row.round }, (_, i) => i + 1));
-      }
-    }
-    const reReads = files.filter((f) => f.kind === 're_read');
-    const matchesARevision = (f: (typeof files)[number]) => files.some((r) => r.job_id === f.job_id && r.kind === 'revision' && r.crc32 === f.crc32);
-    expect(reReads.filter(matchesARevision)).toHaveLength(1);
-    const reRead = reReads.find((f) => !matchesARevision(f))!;
-    const owner = await signIn(t.app, 'owner@kestrel.test');
-    const verify = (await owner.get(`/api/files/${reRead.id}/verify`)).body.data;
-    expect(verify).toMatchObject({ status: 'differs', warning: true });
-    expect(verify.totalRanges).toBeGreaterThan(0);
   });
 });

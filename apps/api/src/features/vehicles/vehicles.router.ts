@@ -1,8 +1,9 @@
+import type { Vehicle } from '@revloop/contract';
 import { Router } from 'express';
 import { findMembershipOfUser, findVehicle, listVehicles, type VehicleListRow, type VehicleScope } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { Actor } from '@revloop/domain/auth';
-import { checkVin, parseTyreSize, rollingCircumference, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type CircumferenceSource, type VehicleInput } from '@revloop/domain/vehicles';
+import { checkVin, parseTyreSize, rollingCircumference, speedTable, stoichAfr, vehicleFuelSpec, vehicleInputSchema, type VehicleInput } from '@revloop/domain/vehicles';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
@@ -15,21 +16,10 @@ const scopeOf = (actor: Actor): VehicleScope =>
 
 const vehicleSubject = (row: VehicleListRow) => ({ shopId: row.shop_id, ownerUserId: row.owner_user_id, dealerId: row.dealer_id });
 
-interface VehicleDerived {
-  tyreDiameterMm: number;
-  /** Unloaded, from the tyre size. */
-  tyreCircumferenceMm: number;
-  /** The circumference the speeds (and the datalog analysis) use, and where it came from. */
-  rollingCircumferenceMm: number;
-  circumferenceSource: CircumferenceSource;
-  stoichAfr: number;
-  speeds: ReturnType<typeof speedTable>;
-}
-
 /** The vehicle with what its numbers mean: road speed per gear and the fuel's stoichiometric ratio. */
-function vehicleRowToVehicle(row: VehicleListRow) {
+function vehicleRowToVehicle(row: VehicleListRow): Vehicle {
   const spec = JSON.parse(row.spec) as VehicleInput;
-  let derived: VehicleDerived | null;
+  let derived: Vehicle['derived'];
   try {
     const tyre = parseTyreSize(spec.tyreSize);
     const rolling = rollingCircumference(spec);
@@ -51,7 +41,6 @@ function vehicleRowToVehicle(row: VehicleListRow) {
     dealerId: row.dealer_id,
     vin: row.vin,
     vinRegion: vin.region,
-    /** Notes on the VIN a user should see, e.g. that its region encodes no model year. */
     vinWarnings: vin.warnings,
     modelYear: row.model_year,
     description: row.description,

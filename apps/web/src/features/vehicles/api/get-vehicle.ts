@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ItemResponse } from '../../../lib/api-client';
-import { vehiclesRootKey, type Vehicle } from './get-vehicles';
+import type { Vehicle } from '@revloop/contract';
+import { vehiclesRootKey } from './get-vehicles';
 
 export const getVehicle = (vehicleId: string) => api.get<ItemResponse<Vehicle>>(`/api/vehicles/${encodeURIComponent(vehicleId)}`);
 

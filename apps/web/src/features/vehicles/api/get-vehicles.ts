@@ -1,31 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { CircumferenceSource, SpeedTableRow, VehicleInput, VinRegion } from '@revloop/domain/vehicles';
+import type { Vehicle } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
-
-/** A vehicle with what its numbers mean, computed by the server from the same domain code. */
-export interface Vehicle {
-  id: string;
-  owner: { id: string; name: string; email: string };
-  dealerId: string | null;
-  vin: string;
-  vinRegion: VinRegion | null;
-  /** Notes on the VIN, e.g. that VINs from its region encode no model year. */
-  vinWarnings: string[];
-  modelYear: number;
-  description: string;
-  spec: VehicleInput;
-  derived: {
-    tyreDiameterMm: number;
-    /** Unloaded, from the tyre size. */
-    tyreCircumferenceMm: number;
-    /** What the speeds and the datalog analysis use: measured when given, else the tyre size's. */
-    rollingCircumferenceMm: number;
-    circumferenceSource: CircumferenceSource;
-    stoichAfr: number;
-    speeds: SpeedTableRow[];
-  } | null;
-  createdAt: string;
-}
 
 export const getVehicles = (ownerUserId?: string) =>
   api.get<ListResponse<Vehicle>>(ownerUserId ? `/api/vehicles?owner=${encodeURIComponent(ownerUserId)}` : '/api/vehicles');

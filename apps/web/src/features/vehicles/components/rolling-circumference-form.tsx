@@ -1,9 +1,9 @@
+import type { Vehicle } from '@revloop/contract';
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../../components/ui/field';
 import { Input } from '../../../components/ui/input';
 import { errorMessage, fieldErrorsFrom } from '../../../lib/form-errors';
-import type { Vehicle } from '../api/get-vehicles';
 import { useUpdateVehicle } from '../api/update-vehicle';
 
 /** How to measure, shown at intake and on the vehicle page. */

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { UnitSystem } from '@revloop/contract';
+import type { UnitSystem, Vehicle } from '@revloop/contract';
 import {
   ASPIRATION_LABELS,
   COMMON_MODIFICATIONS,
@@ -10,7 +10,6 @@ import {
 } from '@revloop/domain/vehicles';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
-import type { Vehicle } from '../api/get-vehicles';
 import { RollingCircumferenceForm } from './rolling-circumference-form';
 import { circumferenceDeviation, formatLength, formatMass, formatSpeed, speedUnit } from './vehicle-units';
 import { ScrollRegion } from '../../../components/ui/scroll-region';

@@ -8,11 +8,10 @@ import { Button } from '../../../components/ui/button';
 import { FormErrorSummary } from '../../../components/ui/form-error-summary';
 import { errorMessage, fieldErrorsFrom } from '../../../lib/form-errors';
 import { plainErrors } from '../../../lib/form-messages';
-import type { UnitSystem } from '@revloop/contract';
+import type { UnitSystem, Vehicle } from '@revloop/contract';
 import { fieldId, flattenFieldErrors } from '../../jobs/components/intake-errors';
 import { IntakeVehicleFields } from '../../jobs/components/intake-vehicle-fields';
 import { useUpdateVehicle } from '../api/update-vehicle';
-import type { Vehicle } from '../api/get-vehicles';
 
 // The intake's vehicle fields and schema, so a vehicle is entered and edited the same way and checked by one rule.
 const editSchema = z.object({ vehicle: z.object({ kind: z.literal('new'), vehicle: vehicleInputSchema }) });
