@@ -120,11 +120,13 @@ async function main(): Promise<void> {
     const paths = ['turnaround', 'rounds', 'weekly-jobs', 'tuner-load', 'revenue?by=month', 'revenue?by=package', 'revenue?by=dealer', 'log-quality'].map(
       (p) => `/api/reports/${p}${p.includes('?') ? '&' : '?'}${range}`,
     );
+    // The Customers list sorted by money paid reads the same payments and refunds.
+    const customersByPaid = '/api/customers?sort=paid&dir=desc&pageSize=25';
     await autocannon({ url: base + paths[0], headers, duration: 2, connections: 1 });
     console.log(`load average before measuring: ${os.loadavg().map((l) => l.toFixed(1)).join(', ')} on ${os.availableParallelism()} cores`);
 
     const figures: Figure[] = [];
-    for (const p of [...paths, `${paths[0]}&format=csv`]) {
+    for (const p of [...paths, `${paths[0]}&format=csv`, customersByPaid]) {
       const before = cpuMsOf(server.pid);
       const result = await autocannon({ url: base + p, headers, duration: DURATION_S, connections: CONNECTIONS });
       figures.push(report(`GET ${p.replace(range, 'one year')}`, { ...result, cpuMs: cpuMsOf(server.pid) - before }, { p99: TARGET_P99_MS }));
