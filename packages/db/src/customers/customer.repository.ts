@@ -48,8 +48,14 @@ const likePattern = (text: string) => `%${text.toLowerCase().replace(/[\\%_]/g, 
  * thousands of customers; `total` is the count before paging.
  */
 export async function listCustomers(db: Db, shopId: string, query: CustomerListQuery): Promise<{ rows: CustomerListRow[]; total: number }> {
+  const rows = await customerPageQuery(shopId, query).execute(db);
+  const total = await sql<{ n: number }>`select count(*) as n from memberships m join users u on u.id = m.user_id where ${customerWhere(shopId, query)}`.execute(db);
+  return { rows: rows.rows, total: Number(total.rows[0]?.n ?? 0) };
+}
+
+function customerWhere(shopId: string, query: CustomerListQuery) {
   const pattern = query.q?.trim() ? likePattern(query.q.trim()) : null;
-  const where = sql`m.shop_id = ${shopId} and m.role = 'customer'
+  return sql`m.shop_id = ${shopId} and m.role = 'customer'
     ${query.dealerId ? sql`and m.dealer_id = ${query.dealerId}` : sql``}
     ${
       pattern
@@ -58,13 +64,18 @@ export async function listCustomers(db: Db, shopId: string, query: CustomerListQ
               and (lower(sv.vin) like ${pattern} escape '\\' or lower(sv.description) like ${pattern} escape '\\')))`
         : sql``
     }`;
+}
+
+/** One page of the Customers list with its sums (exported for its query-plan test). */
+export function customerPageQuery(shopId: string, query: CustomerListQuery) {
+  const where = customerWhere(shopId, query);
   const dir = query.dir === 'desc' ? sql`desc` : sql`asc`;
   const order = sql`order by ${SORT_SQL[query.sort]} ${dir}, u.name asc, m.id asc`;
   // Sorted by name or e-mail, the page is chosen first and only its customers' jobs and vehicles are summed; the
   // other sorts need every customer's sums. Money paid is one row per customer, kept by the payment writers.
   const pageFirst = query.sort === 'name' || query.sort === 'email';
   const pageOnly = (column: string) => (pageFirst ? sql`and ${sql.ref(column)} in (select user_id from page)` : sql``);
-  const rows = await sql<CustomerListRow>`
+  return sql<CustomerListRow>`
     with page as (
       select m.user_id from memberships m join users u on u.id = m.user_id
       where ${pageFirst ? where : sql`0`} ${order} limit ${query.limit} offset ${query.offset}
@@ -91,9 +102,7 @@ export async function listCustomers(db: Db, shopId: string, query: CustomerListQ
     left join vehicle_agg va on va.owner_user_id = m.user_id
     where ${where} ${pageOnly('m.user_id')}
     ${order}
-    limit ${query.limit} offset ${pageFirst ? 0 : query.offset}`.execute(db);
-  const total = await sql<{ n: number }>`select count(*) as n from memberships m join users u on u.id = m.user_id where ${where}`.execute(db);
-  return { rows: rows.rows, total: Number(total.rows[0]?.n ?? 0) };
+    limit ${query.limit} offset ${pageFirst ? 0 : query.offset}`;
 }
 
 /** The customer's membership in this shop, or undefined when the user is not a customer here. */

@@ -16,13 +16,12 @@ export async function up(db: Kysely<any>): Promise<void> {
     state text not null,
     entered_at text not null,
     left_at text not null,
-    hours real generated always as ((julianday(left_at) - julianday(entered_at)) * 24) stored,
     to_state text not null,
     round integer not null,
     left_by_user_id text references users(id) on delete set null
   )`.execute(db);
   // Turnaround and review times: the stints that ended in the range, with what the quantiles need, from the index alone.
-  await sql`create index job_stints_shop_left on job_stints (shop_id, left_at, state, hours, left_by_user_id)`.execute(db);
+  await sql`create index job_stints_shop_left on job_stints (shop_id, left_at, state, entered_at, left_by_user_id)`.execute(db);
   // Jobs dialed in (rounds, weekly counts, per tuner): the moves into one state in the range.
   await sql`create index job_stints_shop_to_left on job_stints (shop_id, to_state, left_at, round, left_by_user_id)`.execute(db);
   await sql`create index job_stints_job on job_stints (job_id, left_at)`.execute(db);

@@ -54,12 +54,12 @@ export async function insertJobStint(db: Db, row: InsertableJobStintRow): Promis
 
 /**
  * Every completed stint of a job in one state that ended inside the range (job_stints, one row per move, kept by the
- * job workflow): read from the index on (shop, left_at) with the state, hours and mover in it.
+ * job workflow): read from the index on (shop, left_at) that holds the state, its start and the mover.
  */
-function stintsQuery(db: Db, shopId: string, range: ReportRange) {
+export function stintsQuery(db: Db, shopId: string, range: ReportRange) {
   return db
     .selectFrom('job_stints as s')
-    .select(['s.job_id', 's.left_by_user_id as actor_id', sql<JobState>`s.state`.as('state'), 's.hours'])
+    .select(['s.left_by_user_id as actor_id', sql<JobState>`s.state`.as('state'), sql<number>`(julianday(s.left_at) - julianday(s.entered_at)) * 24`.as('hours')])
     .where('s.shop_id', '=', shopId)
     .where('s.left_at', '>=', range.from)
     .where('s.left_at', '<', range.to);
@@ -116,14 +116,19 @@ export interface WeeklyJobsRow {
 /** Jobs opened and jobs dialed in per week (one bucket per week, as the caller cut them in the shop's time zone). */
 export async function weeklyJobsReport(db: Db, shopId: string, weeks: ReportBucket[]): Promise<WeeklyJobsRow[]> {
   if (weeks.length === 0) return [];
-  const result = await sql<{ bucket_key: string; opened: number; dialed_in: number }>`
+  const result = await weeklyJobsQuery(shopId, weeks).execute(db);
+  return result.rows.map((r) => ({ weekStart: r.bucket_key, opened: r.opened, dialedIn: r.dialed_in }));
+}
+
+/** The weekly counts' statement (exported for its query-plan test): two index range counts per week. */
+export function weeklyJobsQuery(shopId: string, weeks: ReportBucket[]) {
+  return sql<{ bucket_key: string; opened: number; dialed_in: number }>`
     with ${bucketsCte(weeks)}
     select b.bucket_key,
       (select count(*) from jobs j where j.shop_id = ${shopId} and j.created_at >= b.bucket_start and j.created_at < b.bucket_end) as opened,
       (select count(*) from job_stints m where m.shop_id = ${shopId} and m.to_state = 'dialed_in'
         and m.left_at >= b.bucket_start and m.left_at < b.bucket_end) as dialed_in
-    from buckets b order by b.bucket_start`.execute(db);
-  return result.rows.map((r) => ({ weekStart: r.bucket_key, opened: r.opened, dialedIn: r.dialed_in }));
+    from buckets b order by b.bucket_start`;
 }
 
 export interface TunerLoadRow {

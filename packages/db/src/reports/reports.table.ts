@@ -1,4 +1,4 @@
-import type { Generated, Insertable, Selectable } from 'kysely';
+import type { Insertable, Selectable } from 'kysely';
 
 /** One check result of one analysed log, kept by triggers from `datalogs.report` (migration 010); never written by code. */
 export interface DatalogCheckTable {
@@ -13,7 +13,7 @@ export type DatalogCheckRow = Selectable<DatalogCheckTable>;
 
 /**
  * One finished stint of a job in a state: written by the job workflow's one writer of job state in the move's
- * transaction (its id is the move's audit event), never updated. `hours` is computed by SQLite.
+ * transaction (its id is the move's audit event), never updated.
  */
 export interface JobStintTable {
   id: string;
@@ -23,7 +23,6 @@ export interface JobStintTable {
   state: string;
   entered_at: string;
   left_at: string;
-  hours: Generated<number>;
   /** The state the move that ended the stint took the job to. */
   to_state: string;
   /** The job's round after that move. */
