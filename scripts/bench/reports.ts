@@ -6,6 +6,7 @@ import type { ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 import autocannon from 'autocannon';
 import { backfillJobStints, createDb, migrateToLatest, newId, refreshCustomerSummaries, type Db } from '@revloop/db';
 import { seedDemo, type SeededShop } from '../../seeds/demo/seed-demo';
@@ -25,7 +26,7 @@ function chunks<T>(items: T[], size: number): T[][] {
 }
 
 /** What the reports read besides the moves: a dialed-in move per finished job, its payment, and two analysed logs. */
-async function addReportHistory(db: Db, shop: SeededShop): Promise<{ payments: number; logs: number }> {
+export async function addReportHistory(db: Db, shop: SeededShop): Promise<{ payments: number; logs: number }> {
   let payments = 0;
   let logs = 0;
   await db.transaction().execute(async (trx) => {
@@ -143,4 +144,4 @@ async function main(): Promise<void> {
   }
 }
 
-await main();
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) await main();

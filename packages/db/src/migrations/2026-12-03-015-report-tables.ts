@@ -16,12 +16,15 @@ export async function up(db: Kysely<any>): Promise<void> {
     state text not null,
     entered_at text not null,
     left_at text not null,
+    -- left_at − entered_at in hours, stored so the reports' quantiles read it from the index (SQLite does not cover
+    -- generated columns with an index).
+    hours real not null,
     to_state text not null,
     round integer not null,
     left_by_user_id text references users(id) on delete set null
   )`.execute(db);
   // Turnaround and review times: the stints that ended in the range, with what the quantiles need, from the index alone.
-  await sql`create index job_stints_shop_left on job_stints (shop_id, left_at, state, entered_at, left_by_user_id)`.execute(db);
+  await sql`create index job_stints_shop_left on job_stints (shop_id, left_at, state, hours, left_by_user_id)`.execute(db);
   // Jobs dialed in (rounds, weekly counts, per tuner): the moves into one state in the range.
   await sql`create index job_stints_shop_to_left on job_stints (shop_id, to_state, left_at, round, left_by_user_id)`.execute(db);
   await sql`create index job_stints_job on job_stints (job_id, left_at)`.execute(db);
@@ -50,15 +53,18 @@ export async function up(db: Kysely<any>): Promise<void> {
  * takes the move's event id, so running this again adds nothing.
  */
 export async function backfillJobStints(db: Kysely<any>): Promise<void> {
-  await sql`insert or ignore into job_stints (id, shop_id, job_id, state, entered_at, left_at, to_state, round, left_by_user_id)
-    select m.id, m.shop_id, m.subject_id, json_extract(m.details, '$.from'),
-      coalesce((select max(p.created_at) from audit_events p
-        where p.shop_id = m.shop_id and p.subject_id = m.subject_id and p.action in ('job.opened', 'job.moved') and p.created_at < m.created_at), j.created_at),
-      m.created_at, json_extract(m.details, '$.to'), coalesce(json_extract(m.details, '$.round'), j.round),
-      (select u.id from users u where u.id = m.actor_user_id)
-    from audit_events m join jobs j on j.id = m.subject_id and j.shop_id = m.shop_id
-    where m.action = 'job.moved' and m.subject_type = 'Job'
-      and json_extract(m.details, '$.from') is not null and json_extract(m.details, '$.to') is not null`.execute(db);
+  await sql`insert or ignore into job_stints (id, shop_id, job_id, state, entered_at, left_at, hours, to_state, round, left_by_user_id)
+    select id, shop_id, job_id, state, entered_at, left_at, (julianday(left_at) - julianday(entered_at)) * 24, to_state, round, left_by_user_id
+    from (
+      select m.id, m.shop_id, m.subject_id as job_id, json_extract(m.details, '$.from') as state,
+        coalesce((select max(p.created_at) from audit_events p
+          where p.shop_id = m.shop_id and p.subject_id = m.subject_id and p.action in ('job.opened', 'job.moved') and p.created_at < m.created_at), j.created_at) as entered_at,
+        m.created_at as left_at, json_extract(m.details, '$.to') as to_state, coalesce(json_extract(m.details, '$.round'), j.round) as round,
+        (select u.id from users u where u.id = m.actor_user_id) as left_by_user_id
+      from audit_events m join jobs j on j.id = m.subject_id and j.shop_id = m.shop_id
+      where m.action = 'job.moved' and m.subject_type = 'Job'
+        and json_extract(m.details, '$.from') is not null and json_extract(m.details, '$.to') is not null
+    )`.execute(db);
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

@@ -49,17 +49,18 @@ async function quantilesByGroup(db: Db, source: Expression<unknown> | RawBuilder
 
 /** Writes the stint a move ended. Only the job workflow's one writer of job state calls this, in the move's transaction. */
 export async function insertJobStint(db: Db, row: InsertableJobStintRow): Promise<void> {
-  await db.insertInto('job_stints').values(row).execute();
+  const hours = (Date.parse(row.left_at) - Date.parse(row.entered_at)) / 3_600_000;
+  await db.insertInto('job_stints').values({ ...row, hours }).execute();
 }
 
 /**
  * Every completed stint of a job in one state that ended inside the range (job_stints, one row per move, kept by the
- * job workflow): read from the index on (shop, left_at) that holds the state, its start and the mover.
+ * job workflow): read from the index on (shop, left_at) that holds the state, the hours and the mover.
  */
 export function stintsQuery(db: Db, shopId: string, range: ReportRange) {
   return db
     .selectFrom('job_stints as s')
-    .select(['s.left_by_user_id as actor_id', sql<JobState>`s.state`.as('state'), sql<number>`(julianday(s.left_at) - julianday(s.entered_at)) * 24`.as('hours')])
+    .select(['s.left_by_user_id as actor_id', sql<JobState>`s.state`.as('state'), 's.hours'])
     .where('s.shop_id', '=', shopId)
     .where('s.left_at', '>=', range.from)
     .where('s.left_at', '<', range.to);

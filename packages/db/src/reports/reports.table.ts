@@ -23,6 +23,8 @@ export interface JobStintTable {
   state: string;
   entered_at: string;
   left_at: string;
+  /** `left_at` − `entered_at` in hours, written with the row (insertJobStint computes it). */
+  hours: number;
   /** The state the move that ended the stint took the job to. */
   to_state: string;
   /** The job's round after that move. */
@@ -31,7 +33,7 @@ export interface JobStintTable {
   left_by_user_id: string | null;
 }
 export type JobStintRow = Selectable<JobStintTable>;
-export type InsertableJobStintRow = Insertable<JobStintTable>;
+export type InsertableJobStintRow = Omit<Insertable<JobStintTable>, 'hours'>;
 
 /** Money one customer paid the shop for jobs and got back, kept by the payment writers; never written elsewhere. */
 export interface CustomerSummaryTable {

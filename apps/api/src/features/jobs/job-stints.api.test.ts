@@ -44,6 +44,7 @@ describe('job stints', () => {
       left_by_user_id: shop.owner.id,
     });
     expect(Date.parse(stint.left_at) - Date.parse(stint.entered_at)).toBe(5 * HOUR);
+    expect(stint.hours).toBe(5);
   });
 
   it('every move of a job has its stint, and each stint begins where the one before it ended', async () => {
