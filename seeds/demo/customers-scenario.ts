@@ -1,5 +1,7 @@
 import { findShopById, updateShop, type Db } from '@revloop/db';
+import { defaultLogRequest, type LogRequest } from '@revloop/domain/datalog';
 import { parseShopSettings } from '@revloop/domain/shops';
+import type { VehicleInput } from '@revloop/domain/vehicles';
 import type { SeededShop } from './seed-demo';
 
 /**
@@ -19,4 +21,18 @@ export async function seedCustomers(db: Db, kestrel: SeededShop): Promise<void> 
     },
   };
   await updateShop(db, kestrel.shopId, { settings: JSON.stringify(settings) });
+}
+
+/**
+ * An established shop has its log-request defaults set (the first-run checklist's second step): one per engine family
+ * the shop has worked on, starting from the built-in request for a first log, so the checklist does not nag the demo
+ * owners and new jobs ask for what the demo's jobs asked for.
+ */
+export async function seedLogRequestDefaults(db: Db, seeded: SeededShop): Promise<void> {
+  const shop = (await findShopById(db, seeded.shopId))!;
+  const specs = await db.selectFrom('vehicles').select('spec').where('shop_id', '=', seeded.shopId).execute();
+  const families = [...new Set(specs.map((v) => (JSON.parse(v.spec) as VehicleInput).engine.family))].sort();
+  const logRequestDefaults: Record<string, LogRequest> = Object.fromEntries(families.map((family) => [family, defaultLogRequest(family, 1)]));
+  const settings = { ...parseShopSettings(shop.settings), logRequestDefaults };
+  await updateShop(db, seeded.shopId, { settings: JSON.stringify(settings) });
 }

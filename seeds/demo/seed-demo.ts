@@ -10,7 +10,7 @@ import { sql } from 'kysely';
 import type { ShopRole } from '@revloop/domain/auth';
 import { hashPassword, type BlobStore } from '@revloop/api';
 import { seedBilling } from './billing-scenario';
-import { seedCustomers } from './customers-scenario';
+import { seedCustomers, seedLogRequestDefaults } from './customers-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
 import { seedRentals } from './rentals-scenario';
 import { DEMO_ADMIN, DEMO_PASSWORD, HARBOR, KESTREL } from './people';
@@ -130,6 +130,7 @@ export async function seedDemo(db: Db, now: Date, options: SeedOptions): Promise
   await seedBilling(db, now, { kestrel, harbor }, jobs);
   await seedRentals(db, now, kestrel, jobs);
   await seedCustomers(db, kestrel);
+  for (const shop of [kestrel, harbor]) await seedLogRequestDefaults(db, shop);
   return { adminId, kestrel, harbor, jobs };
 }
 

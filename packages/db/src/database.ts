@@ -17,7 +17,7 @@ import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
 import type { KitTable, RentalEntryTable, RentalReminderTable, RentalTable } from './rentals/rental.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
-import type { DatalogCheckTable } from './reports/reports.table';
+import type { CustomerSummaryTable, DatalogCheckTable, JobStintTable } from './reports/reports.table';
 import type { InvitationTable } from './invitations/invitation.table';
 import type { SessionTable } from './sessions/session.table';
 import type { PublicSignUpTable } from './shops/public-sign-up.table';
@@ -44,6 +44,8 @@ export interface Database {
   datalogs: DatalogTable;
   datalog_mappings: DatalogMappingTable;
   datalog_checks: DatalogCheckTable;
+  job_stints: JobStintTable;
+  customer_summaries: CustomerSummaryTable;
   calibration_files: CalibrationFileTable;
   shop_subscriptions: ShopSubscriptionTable;
   subscription_changes: SubscriptionChangeTable;

@@ -42,3 +42,6 @@ export * from './reports/reports.repository';
 export * from './rentals/rental.table';
 export * from './rentals/rental.repository';
 export * from './customers/customer.repository';
+// For loaders that write job moves as audit events in bulk (the benchmark's history, report test fixtures): the stints
+// those moves end, derived as migration 015 derived them for moves made before it.
+export { backfillJobStints } from './migrations/2026-12-03-015-report-tables';

@@ -1,8 +1,46 @@
+import { sql } from 'kysely';
 import type { Db } from '../client';
+import { inTransaction } from '../transaction';
 import type { InsertablePaymentRefundRow, InsertablePaymentRow, PaymentRefundRow, PaymentRow } from './billing.table';
 
+/**
+ * The customer's money summary (Customers list "money paid") moves with each payment that lands and each refund, in
+ * the writer's transaction: these three functions are its only writers. A payment not for a job changes nothing.
+ */
+async function addToCustomerSummary(db: Db, shopId: string, paymentId: string, change: { paidMinor: number; refundedMinor: number }, at: string): Promise<void> {
+  await sql`insert into customer_summaries (shop_id, customer_user_id, paid_minor, refunded_minor, updated_at)
+    select p.shop_id, j.customer_user_id, ${change.paidMinor}, ${change.refundedMinor}, ${at}
+    from payments p join jobs j on j.id = p.job_id and j.shop_id = p.shop_id
+    where p.shop_id = ${shopId} and p.id = ${paymentId}
+    on conflict (shop_id, customer_user_id) do update set
+      paid_minor = paid_minor + excluded.paid_minor, refunded_minor = refunded_minor + excluded.refunded_minor, updated_at = excluded.updated_at`.execute(db);
+}
+
+/** A payment row; one written already paid (as an import or a test fixture does) counts toward its customer's summary. */
 export async function insertPayment(db: Db, row: InsertablePaymentRow): Promise<PaymentRow> {
-  return db.insertInto('payments').values(row).returningAll().executeTakeFirstOrThrow();
+  return inTransaction(db, async (trx) => {
+    const inserted = await trx.insertInto('payments').values(row).returningAll().executeTakeFirstOrThrow();
+    if (inserted.status === 'paid' && inserted.job_id) {
+      await addToCustomerSummary(trx, inserted.shop_id, inserted.id, { paidMinor: inserted.amount_minor, refundedMinor: 0 }, inserted.paid_at ?? inserted.created_at);
+    }
+    return inserted;
+  });
+}
+
+/**
+ * Sums the shop's customer summaries again from its payments and refunds. Only for bulk loaders that write payment
+ * rows in batches without the writers above (the benchmark's invented history); the app never needs it.
+ */
+export async function refreshCustomerSummaries(db: Db, shopId: string, at: string): Promise<void> {
+  await inTransaction(db, async (trx) => {
+    await trx.deleteFrom('customer_summaries').where('shop_id', '=', shopId).execute();
+    await sql`insert into customer_summaries (shop_id, customer_user_id, paid_minor, refunded_minor, updated_at)
+      select p.shop_id, j.customer_user_id, sum(p.amount_minor),
+        coalesce(sum((select sum(r.amount_minor) from payment_refunds r where r.shop_id = p.shop_id and r.payment_id = p.id)), 0), ${at}
+      from payments p join jobs j on j.id = p.job_id and j.shop_id = p.shop_id
+      where p.shop_id = ${shopId} and p.status = 'paid'
+      group by p.shop_id, j.customer_user_id`.execute(trx);
+  });
 }
 
 export async function findPayment(db: Db, shopId: string, id: string): Promise<PaymentRow | undefined> {
@@ -14,7 +52,10 @@ export async function findPaymentByCheckoutSession(db: Db, sessionId: string): P
   return db.selectFrom('payments').selectAll().where('stripe_checkout_session_id', '=', sessionId).executeTakeFirst();
 }
 
-/** Marks an open payment paid; false when it was already paid, so its effect is applied once. */
+/**
+ * Marks an open payment paid and adds it to its customer's summary; false when it was already paid, so its effect is
+ * applied once. Call it inside the transaction that applies the payment.
+ */
 export async function markPaymentPaid(db: Db, shopId: string, id: string, paymentIntentId: string | null, at: string): Promise<boolean> {
   const result = await db
     .updateTable('payments')
@@ -23,7 +64,10 @@ export async function markPaymentPaid(db: Db, shopId: string, id: string, paymen
     .where('id', '=', id)
     .where('status', '!=', 'paid')
     .executeTakeFirst();
-  return Number(result.numUpdatedRows) === 1;
+  if (Number(result.numUpdatedRows) !== 1) return false;
+  const { amount_minor } = await db.selectFrom('payments').select('amount_minor').where('shop_id', '=', shopId).where('id', '=', id).executeTakeFirstOrThrow();
+  await addToCustomerSummary(db, shopId, id, { paidMinor: amount_minor, refundedMinor: 0 }, at);
+  return true;
 }
 
 export async function markPaymentExpired(db: Db, shopId: string, id: string): Promise<void> {
@@ -67,8 +111,13 @@ export async function listOpenCheckoutForJob(db: Db, shopId: string, jobId: stri
   return db.selectFrom('payments').selectAll().where('shop_id', '=', shopId).where('job_id', '=', jobId).where('status', '=', 'open').execute();
 }
 
+/** A refund of a payment, taken off its customer's summary in the same transaction. */
 export async function insertPaymentRefund(db: Db, row: InsertablePaymentRefundRow): Promise<PaymentRefundRow> {
-  return db.insertInto('payment_refunds').values(row).returningAll().executeTakeFirstOrThrow();
+  return inTransaction(db, async (trx) => {
+    const inserted = await trx.insertInto('payment_refunds').values(row).returningAll().executeTakeFirstOrThrow();
+    await addToCustomerSummary(trx, inserted.shop_id, inserted.payment_id, { paidMinor: 0, refundedMinor: inserted.amount_minor }, inserted.created_at);
+    return inserted;
+  });
 }
 
 export async function findRefundByProviderId(db: Db, shopId: string, stripeRefundId: string): Promise<PaymentRefundRow | undefined> {

@@ -48,8 +48,14 @@ const likePattern = (text: string) => `%${text.toLowerCase().replace(/[\\%_]/g, 
  * thousands of customers; `total` is the count before paging.
  */
 export async function listCustomers(db: Db, shopId: string, query: CustomerListQuery): Promise<{ rows: CustomerListRow[]; total: number }> {
+  const rows = await customerPageQuery(shopId, query).execute(db);
+  const total = await sql<{ n: number }>`select count(*) as n from memberships m join users u on u.id = m.user_id where ${customerWhere(shopId, query)}`.execute(db);
+  return { rows: rows.rows, total: Number(total.rows[0]?.n ?? 0) };
+}
+
+function customerWhere(shopId: string, query: CustomerListQuery) {
   const pattern = query.q?.trim() ? likePattern(query.q.trim()) : null;
-  const where = sql`m.shop_id = ${shopId} and m.role = 'customer'
+  return sql`m.shop_id = ${shopId} and m.role = 'customer'
     ${query.dealerId ? sql`and m.dealer_id = ${query.dealerId}` : sql``}
     ${
       pattern
@@ -58,24 +64,24 @@ export async function listCustomers(db: Db, shopId: string, query: CustomerListQ
               and (lower(sv.vin) like ${pattern} escape '\\' or lower(sv.description) like ${pattern} escape '\\')))`
         : sql``
     }`;
+}
+
+/** One page of the Customers list with its sums (exported for its query-plan test). */
+export function customerPageQuery(shopId: string, query: CustomerListQuery) {
+  const where = customerWhere(shopId, query);
   const dir = query.dir === 'desc' ? sql`desc` : sql`asc`;
   const order = sql`order by ${SORT_SQL[query.sort]} ${dir}, u.name asc, m.id asc`;
-  // Sorted by name or e-mail, the page is chosen first and only its customers' jobs, payments and vehicles are
-  // summed; the other sorts need every customer's sums.
+  // Sorted by name or e-mail, the page is chosen first and only its customers' jobs and vehicles are summed; the
+  // other sorts need every customer's sums. Money paid is one row per customer, kept by the payment writers.
   const pageFirst = query.sort === 'name' || query.sort === 'email';
   const pageOnly = (column: string) => (pageFirst ? sql`and ${sql.ref(column)} in (select user_id from page)` : sql``);
-  const rows = await sql<CustomerListRow>`
+  return sql<CustomerListRow>`
     with page as (
       select m.user_id from memberships m join users u on u.id = m.user_id
       where ${pageFirst ? where : sql`0`} ${order} limit ${query.limit} offset ${query.offset}
     ), job_agg as (
       select customer_user_id, count(*) as job_count, sum(is_open) as open_jobs, max(updated_at) as last_job_at
       from jobs where shop_id = ${shopId} ${pageOnly('customer_user_id')} group by customer_user_id
-    ), paid_agg as (
-      select j.customer_user_id,
-        sum(p.amount_minor - coalesce((select sum(r.amount_minor) from payment_refunds r where r.shop_id = p.shop_id and r.payment_id = p.id), 0)) as paid_minor
-      from payments p join jobs j on j.id = p.job_id and j.shop_id = p.shop_id
-      where p.shop_id = ${shopId} and p.status = 'paid' ${pageOnly('j.customer_user_id')} group by j.customer_user_id
     ), vehicle_agg as (
       select owner_user_id, count(*) as vehicle_count, max(updated_at) as last_vehicle_at
       from vehicles where shop_id = ${shopId} ${pageOnly('owner_user_id')} group by owner_user_id
@@ -87,18 +93,16 @@ export async function listCustomers(db: Db, shopId: string, query: CustomerListQ
          where lv.shop_id = ${shopId} and lv.owner_user_id = m.user_id order by lv.created_at limit 3)) as vehicles,
       coalesce(ja.open_jobs, 0) as open_jobs, coalesce(ja.job_count, 0) as job_count,
       max(m.created_at, coalesce(ja.last_job_at, ''), coalesce(va.last_vehicle_at, '')) as last_activity,
-      coalesce(pa.paid_minor, 0) as paid_minor
+      coalesce(cs.paid_minor - cs.refunded_minor, 0) as paid_minor
     from memberships m
     join users u on u.id = m.user_id
     left join dealers d on d.id = m.dealer_id and d.shop_id = m.shop_id
     left join job_agg ja on ja.customer_user_id = m.user_id
-    left join paid_agg pa on pa.customer_user_id = m.user_id
+    left join customer_summaries cs on cs.shop_id = m.shop_id and cs.customer_user_id = m.user_id
     left join vehicle_agg va on va.owner_user_id = m.user_id
     where ${where} ${pageOnly('m.user_id')}
     ${order}
-    limit ${query.limit} offset ${pageFirst ? 0 : query.offset}`.execute(db);
-  const total = await sql<{ n: number }>`select count(*) as n from memberships m join users u on u.id = m.user_id where ${where}`.execute(db);
-  return { rows: rows.rows, total: Number(total.rows[0]?.n ?? 0) };
+    limit ${query.limit} offset ${pageFirst ? 0 : query.offset}`;
 }
 
 /** The customer's membership in this shop, or undefined when the user is not a customer here. */

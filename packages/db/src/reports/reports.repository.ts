@@ -1,6 +1,7 @@
 import { sql, type Expression, type RawBuilder } from 'kysely';
 import type { JobState } from '@revloop/domain/jobs';
 import type { Db } from '../client';
+import type { InsertableJobStintRow } from './reports.table';
 
 /** A report's time span: ISO instants, `from` included, `to` excluded. */
 export interface ReportRange {
@@ -46,31 +47,23 @@ async function quantilesByGroup(db: Db, source: Expression<unknown> | RawBuilder
   return result.rows;
 }
 
+/** Writes the stint a move ended. Only the job workflow's one writer of job state calls this, in the move's transaction. */
+export async function insertJobStint(db: Db, row: InsertableJobStintRow): Promise<void> {
+  const hours = (Date.parse(row.left_at) - Date.parse(row.entered_at)) / 3_600_000;
+  await db.insertInto('job_stints').values({ ...row, hours }).execute();
+}
+
 /**
- * Every completed stint of a job in one state that ended inside the range: each move closes the stint of the state it
- * left (`details.from`), which began at the job's previous move or its opening. One row per move, one number each.
+ * Every completed stint of a job in one state that ended inside the range (job_stints, one row per move, kept by the
+ * job workflow): read from the index on (shop, left_at) that holds the state, the hours and the mover.
  */
-function stintsQuery(db: Db, shopId: string, range: ReportRange) {
+export function stintsQuery(db: Db, shopId: string, range: ReportRange) {
   return db
-    .selectFrom('audit_events as m')
-    .select((eb) => [
-      'm.subject_id as job_id',
-      'm.actor_user_id as actor_id',
-      sql<JobState>`json_extract(m.details, '$.from')`.as('state'),
-      sql<number | null>`(julianday(m.created_at) - julianday(${eb
-        .selectFrom('audit_events as p')
-        .select((p) => p.fn.max('p.created_at').as('t'))
-        .whereRef('p.shop_id', '=', 'm.shop_id')
-        .whereRef('p.subject_id', '=', 'm.subject_id')
-        // Literal, not bound: only then may SQLite answer from the partial index of job moves (migration 010).
-        .where(sql<boolean>`p.action in ('job.opened', 'job.moved')`)
-        .whereRef('p.created_at', '<', 'm.created_at')})) * 24`.as('hours'),
-    ])
-    .where('m.shop_id', '=', shopId)
-    .where('m.action', '=', 'job.moved')
-    .where('m.subject_type', '=', 'Job')
-    .where('m.created_at', '>=', range.from)
-    .where('m.created_at', '<', range.to);
+    .selectFrom('job_stints as s')
+    .select(['s.left_by_user_id as actor_id', sql<JobState>`s.state`.as('state'), 's.hours'])
+    .where('s.shop_id', '=', shopId)
+    .where('s.left_at', '>=', range.from)
+    .where('s.left_at', '<', range.to);
 }
 
 export interface TurnaroundRow {
@@ -87,15 +80,14 @@ export async function turnaroundReport(db: Db, shopId: string, range: ReportRang
   return rows.map((r) => ({ state: r.grp as JobState, stints: r.n, medianHours: r.median, p90Hours: r.p90 }));
 }
 
-/** The moves into Dialed in made inside the range, with the round the job finished on. */
-function dialedInQuery(db: Db, shopId: string, range: ReportRange) {
+/** The moves into Dialed in made inside the range (the stints they ended), with the round the job finished on. */
+export function dialedInQuery(db: Db, shopId: string, range: ReportRange) {
   return db
-    .selectFrom('audit_events as m')
+    .selectFrom('job_stints as m')
     .where('m.shop_id', '=', shopId)
-    .where('m.action', '=', 'job.moved')
-    .where('m.created_at', '>=', range.from)
-    .where('m.created_at', '<', range.to)
-    .where(sql<boolean>`json_extract(m.details, '$.to') = 'dialed_in'`);
+    .where('m.to_state', '=', 'dialed_in')
+    .where('m.left_at', '>=', range.from)
+    .where('m.left_at', '<', range.to);
 }
 
 export interface RoundsRow {
@@ -106,10 +98,9 @@ export interface RoundsRow {
 /** How many rounds (revisions sent) each job dialed in during the range took: jobs per round count. */
 export async function roundsReport(db: Db, shopId: string, range: ReportRange): Promise<RoundsRow[]> {
   const rows = await dialedInQuery(db, shopId, range)
-    .leftJoin('jobs as j', (join) => join.onRef('j.id', '=', 'm.subject_id').onRef('j.shop_id', '=', 'm.shop_id'))
-    .select([sql<number>`coalesce(json_extract(m.details, '$.round'), j.round)`.as('rounds'), (eb) => eb.fn.countAll<number>().as('jobs')])
-    .groupBy('rounds')
-    .orderBy('rounds')
+    .select(['m.round as rounds', (eb) => eb.fn.countAll<number>().as('jobs')])
+    .groupBy('m.round')
+    .orderBy('m.round')
     .execute();
   return rows.map((r) => ({ rounds: Number(r.rounds), jobs: Number(r.jobs) }));
 }
@@ -126,14 +117,19 @@ export interface WeeklyJobsRow {
 /** Jobs opened and jobs dialed in per week (one bucket per week, as the caller cut them in the shop's time zone). */
 export async function weeklyJobsReport(db: Db, shopId: string, weeks: ReportBucket[]): Promise<WeeklyJobsRow[]> {
   if (weeks.length === 0) return [];
-  const result = await sql<{ bucket_key: string; opened: number; dialed_in: number }>`
+  const result = await weeklyJobsQuery(shopId, weeks).execute(db);
+  return result.rows.map((r) => ({ weekStart: r.bucket_key, opened: r.opened, dialedIn: r.dialed_in }));
+}
+
+/** The weekly counts' statement (exported for its query-plan test): two index range counts per week. */
+export function weeklyJobsQuery(shopId: string, weeks: ReportBucket[]) {
+  return sql<{ bucket_key: string; opened: number; dialed_in: number }>`
     with ${bucketsCte(weeks)}
     select b.bucket_key,
       (select count(*) from jobs j where j.shop_id = ${shopId} and j.created_at >= b.bucket_start and j.created_at < b.bucket_end) as opened,
-      (select count(*) from audit_events m where m.shop_id = ${shopId} and m.action = 'job.moved'
-        and m.created_at >= b.bucket_start and m.created_at < b.bucket_end and json_extract(m.details, '$.to') = 'dialed_in') as dialed_in
-    from buckets b order by b.bucket_start`.execute(db);
-  return result.rows.map((r) => ({ weekStart: r.bucket_key, opened: r.opened, dialedIn: r.dialed_in }));
+      (select count(*) from job_stints m where m.shop_id = ${shopId} and m.to_state = 'dialed_in'
+        and m.left_at >= b.bucket_start and m.left_at < b.bucket_end) as dialed_in
+    from buckets b order by b.bucket_start`;
 }
 
 export interface TunerLoadRow {
@@ -167,7 +163,7 @@ export async function tunerLoadReport(db: Db, shopId: string, range: ReportRange
         .as('open_jobs'),
       dialedInQuery(db, shopId, range)
         .select((m) => m.fn.countAll<number>().as('n'))
-        .where('m.actor_user_id', '=', sql<string>`u.id`)
+        .where('m.left_by_user_id', '=', sql<string>`u.id`)
         .as('dialed_in'),
     ])
     .where('ms.shop_id', '=', shopId)

@@ -10,10 +10,11 @@ export interface AuditInput {
   at: Date;
 }
 
-/** Every change that matters leaves one row here; the job page and the owner's log read them back. */
-export async function recordAudit(db: Db, input: AuditInput): Promise<void> {
+/** Every change that matters leaves one row here; the job page and the owner's log read them back. Returns its id. */
+export async function recordAudit(db: Db, input: AuditInput): Promise<string> {
+  const id = newId();
   await insertAuditEvent(db, {
-    id: newId(),
+    id,
     shop_id: input.shopId,
     actor_user_id: input.actorUserId,
     action: input.action,
@@ -22,4 +23,5 @@ export async function recordAudit(db: Db, input: AuditInput): Promise<void> {
     details: JSON.stringify(input.details ?? {}),
     created_at: input.at.toISOString(),
   });
+  return id;
 }

@@ -1,4 +1,4 @@
-import { findJob, findMembershipOfUser, inTransaction, listRentals, markRevisionsSent, updateJob, type Db, type JobListRow } from '@revloop/db';
+import { findJob, findMembershipOfUser, inTransaction, insertJobStint, listRentals, markRevisionsSent, updateJob, type Db, type JobListRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { systemActorFor, type Actor, type AppAbility } from '@revloop/domain/auth';
 import type { LogRequest } from '@revloop/domain/datalog';
@@ -26,8 +26,9 @@ export interface Mover {
 
 /**
  * The one writer of a job's state. In the caller's transaction: checks the actor's ability and the machine's guard
- * (domain `assertTransition`), updates the row only if nobody moved it first, writes the audit event and queues the
- * notices (in-app and e-mail). Callers drain the mail outbox after their commit.
+ * (domain `assertTransition`), updates the row only if nobody moved it first, writes the audit event and the stint the
+ * move ends (job_stints, read by the reports) and queues the notices (in-app and e-mail). Callers drain the mail
+ * outbox after their commit.
  */
 export async function transitionJob(
   deps: JobFlowDeps,
@@ -71,7 +72,7 @@ export async function transitionJob(
   if (!updated) throw new DomainError('conflict', 'Someone else just moved this job. Reload and try again.');
   // Send revision: the drafts of the round it starts go out, each carrying the note the customer reads.
   if (note) await markRevisionsSent(trx, job.shop_id, job.id, next.round, note, at);
-  await recordAudit(trx, {
+  const moveEventId = await recordAudit(trx, {
     shopId: job.shop_id,
     // The system actor is nobody: the timeline shows its moves as Revloop's.
     actorUserId: actor.system ? null : actor.userId,
@@ -80,6 +81,18 @@ export async function transitionJob(
     subjectId: job.id,
     details: { from: job.state, to, round: next.round, ...(actor.system && { automatic: true }), ...(note && { note }), ...(options.auditText && { text: options.auditText }) },
     at: clock.now(),
+  });
+  // The stint the move ends, for the reports' time in each state: begun when the job last changed state, ended now.
+  await insertJobStint(trx, {
+    id: moveEventId,
+    shop_id: job.shop_id,
+    job_id: job.id,
+    state: job.state,
+    entered_at: job.state_changed_at,
+    left_at: at,
+    to_state: to,
+    round: next.round,
+    left_by_user_id: actor.system ? null : actor.userId,
   });
   const fresh = (await findJob(trx, job.shop_id, job.id))!;
   for (const n of await noticesForMove(trx, fresh, to, note)) {

@@ -1,6 +1,6 @@
 import { median, quantileSeq, sum } from 'mathjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { newId, type Db } from '@revloop/db';
+import { backfillJobStints, newId, type Db } from '@revloop/db';
 import type { JobState } from '@revloop/domain/jobs';
 import { createTestApp, signIn, TEST_PASSWORD, type TestApp } from '../../testing/test-app';
 import { hashPassword } from '../auth/password';
@@ -189,6 +189,9 @@ async function buildShop(db: Db, name: string, seed: number, count: number): Pro
     }
     await db.insertInto('audit_events').values(rows).execute();
   }
+  // The moves' stints, as migration 015 derives them from these audit events (the workflow writes the same rows on
+  // each move: see jobs/job-stints.api.test.ts).
+  await backfillJobStints(db);
   return { shopId, emails, users, jobIds, plan, packageIds };
 }
 
