@@ -170,6 +170,7 @@ export const rentalListQuerySchema = z.object({
   kitId: idSchema.optional(),
   state: rentalStateSchema.optional(),
 });
+export type RentalListQuery = z.input<typeof rentalListQuerySchema>;
 
 const returnedItemSchema = z.object({ item: shortText(120).min(1), present: z.boolean() });
 

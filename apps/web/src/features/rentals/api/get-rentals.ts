@@ -1,13 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RentalSummary } from '@revloop/contract';
-import type { RentalState } from '@revloop/domain/rentals';
+import type { RentalListQuery, RentalSummary } from '@revloop/contract';
 import { api, type ListResponse } from '../../../lib/api-client';
 
-export interface RentalListParams {
-  jobId?: string;
-  kitId?: string;
-  state?: RentalState;
-}
+/** The rental list's filters, as the API's query schema takes them. */
+export type RentalListParams = RentalListQuery;
 
 export const getRentals = (params: RentalListParams) => {
   const search = new URLSearchParams(Object.entries(params).filter((entry): entry is [string, string] => Boolean(entry[1])));
