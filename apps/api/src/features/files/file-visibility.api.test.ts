@@ -1,7 +1,7 @@
 import type request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { asSubject, defineAbilityFor, type Actor } from '@revloop/domain/auth';
-import { createCustomer, createJob, createLedgerEntry, createMember, createPackage, createTwoShops } from '../../testing/factories';
+import { createCustomer, createJob, createLedgerEntry, createMember, createPackage, createTwoShops, payJob } from '../../testing/factories';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 
 let t: TestApp;
@@ -112,6 +112,8 @@ describe('the files API agrees with the File abilities', () => {
         customer: dealerSide ? await createCustomer(t, shop, { dealer }) : people.customer,
         package: await createPackage(t, shop, { modules: ['ECM', 'TCM'] }),
       });
+      // Paid, so the paid-before-download lock (tested in download-lock.api.test.ts) does not hide what visibility decides.
+      if (!dealerSide) await payJob(t, job);
       const members = await membersOf(shop.id, job.customer.id);
       const row = await t.db
         .selectFrom('jobs')

@@ -5,7 +5,7 @@ import { crc32 as zlibCrc32 } from 'node:zlib';
 import MemoryMap from 'nrf-intel-hex';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createCustomer, createJob, createLedgerEntry, createMember, createPackage, createTwoShops, type JobOptions, type TestJob } from '../../testing/factories';
+import { createCustomer, createJob, createLedgerEntry, createMember, createPackage, createTwoShops, payJob, type JobOptions, type TestJob } from '../../testing/factories';
 import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../../testing/test-app';
 import { signFileLink } from './file-links';
 
@@ -204,6 +204,8 @@ describe('upload', () => {
 describe('revisions and the job flow', () => {
   it('numbers revisions per module, waits for every package module, then sends the job with signed links and cautions', async () => {
     const job = await twoModuleBench();
+    // Paid, so the shop's paid-before-download lock (on by default) lets the customer's links work.
+    await payJob(t, job);
     const tuner = await tunerOf(job.id);
     const ecm = await upload(tuner, job.id, rawImage(1), 'ecm-rev.bin', { module: 'ECM', kind: 'revision', notes: 'Fuel and spark for the intake.' });
     expect(ecm.status).toBe(201);
@@ -264,6 +266,7 @@ describe('revisions and the job flow', () => {
 
   it('a signed link stops working when expired or tampered with', async () => {
     const job = await twoModuleBench();
+    await payJob(t, job);
     const tuner = await tunerOf(job.id);
     await upload(tuner, job.id, rawImage(1), 'ecm.bin', { module: 'ECM', kind: 'revision' });
     t.mailbox.clear();
