@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { mailTo, signIn } from './support';
+import { mailTo, useSession } from './support';
 
 test.describe.configure({ mode: 'serial' });
 
@@ -83,7 +83,7 @@ for (const viewport of VIEWPORTS) {
 }
 
 test('a page turned off answers "no page here"; the owner turns it back on', async ({ page }) => {
-  await signIn(page, 'owner@harbor.test');
+  await useSession(page, 'owner@harbor.test');
   await page.goto('/settings/shop');
   const publicPage = page.locator('section').filter({ has: page.getByRole('heading', { name: 'Public page' }) });
   await expect(publicPage.getByLabel('Page address')).toHaveValue('harbor-dyno');

@@ -1,10 +1,10 @@
 import { expect, test } from '@playwright/test';
-import { asPlatformAdmin, DEMO_PASSWORD, mailTo, signIn } from './support';
+import { asPlatformAdmin, DEMO_PASSWORD, mailTo, useSession } from './support';
 
 test.describe.configure({ mode: 'serial' });
 
 test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel checks, and gets the e-mail', async ({ page, request }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   await expect(page.getByRole('heading', { name: 'My jobs' })).toBeVisible();
   await page.getByRole('link', { name: 'Open a job' }).click();
   await expect(page.getByRole('heading', { name: 'Open a job' })).toBeVisible();
@@ -62,7 +62,7 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
 });
 
 test('a tuner takes an unassigned ready job and starts work on it from the board', async ({ page }) => {
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   await expect(page.getByRole('heading', { name: 'Jobs', exact: true })).toBeVisible();
   const ready = page.getByRole('region', { name: /^Ready/ });
   const card = ready.getByRole('article').filter({ has: page.getByRole('button', { name: /^Take job/ }) }).first();
@@ -92,7 +92,7 @@ test('the dealer sees only its own customers and their jobs', async ({ page, pla
   const directJobId = data[0]!.id;
   await customer.dispose();
 
-  await signIn(page, 'dealer@kestrel.test');
+  await useSession(page, 'dealer@kestrel.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Customers' }).click();
   const table = page.getByRole('table', { name: 'Customers' });
   await expect(table.getByText('Morgan Pryce')).toBeVisible();
