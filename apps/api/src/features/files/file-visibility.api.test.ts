@@ -78,10 +78,13 @@ async function filesTheAbilityAllows(actor: Actor, jobId: string) {
       assignedTunerId: job.assigned_tuner_id,
       dealerId: job.dealer_id,
       customerUserId: job.customer_user_id,
+      // Any tuner of the shop reviews the files of a job whose draft waits for a second person's approval.
+      awaitingApproval: job.drafts_awaiting_approval > 0,
       kind: f.kind,
       // A revision is made for the coming round and reaches the customer side when that round starts.
       sent: f.kind !== 'revision' || (f.for_round ?? 0) <= job.round,
       uploadedByUserId: f.uploaded_by_user_id,
+      approvalPending: f.approval_required === 1 && f.approved_by_user_id === null,
     });
   return {
     all: files.map((f) => f.id).sort(),
@@ -128,20 +131,23 @@ describe('the files API agrees with the File abilities', () => {
       expect(await uploadAs(tunerEmail, dealerSide ? 11 : 12, 'revision')).toBe(201);
       expect(await uploadAs(customerEmail, dealerSide ? 21 : 22, 're_read')).toBe(201);
 
+      // The job as it stands after the uploads: a draft waiting for approval opens it to every tuner of the shop.
+      const now = await t.db.selectFrom('jobs').selectAll().where('id', '=', job!.id).executeTakeFirstOrThrow();
       let hidden = 0;
       for (const { email, actor } of members) {
         const allowed = await filesTheAbilityAllows(actor, job!.id);
         const agent = await signIn(t.app, email);
         const list = await agent.get(`/api/jobs/${job!.id}/files`);
-        const seesJob = defineAbilityFor(actor).can(
-          'read',
-          asSubject('Job', {
-            shopId: row.shop_id,
-            assignedTunerId: row.assigned_tuner_id,
-            dealerId: row.dealer_id,
-            customerUserId: row.customer_user_id,
-          }),
-        );
+        const jobAsSubject = asSubject('Job', {
+          shopId: now.shop_id,
+          assignedTunerId: now.assigned_tuner_id,
+          dealerId: now.dealer_id,
+          customerUserId: now.customer_user_id,
+          awaitingApproval: now.drafts_awaiting_approval > 0,
+        });
+        const seesJob = defineAbilityFor(actor).can('read', jobAsSubject);
+        // A tuner reviewing a draft outside the job reads its files but downloads only from jobs in their reach.
+        const downloads = defineAbilityFor(actor).can('download', jobAsSubject);
         expect({ email, status: list.status }).toEqual({ email, status: seesJob ? 200 : 404 });
         const listed = seesJob
           ? (list.body.data as Array<{ id: string }>).map((f) => f.id).sort()
@@ -164,7 +170,7 @@ describe('the files API agrees with the File abilities', () => {
             email,
             id,
             status: (await agent.get(`/api/files/${id}/download`)).status,
-          }).toEqual({ email, id, status: sees ? 200 : 404 });
+          }).toEqual({ email, id, status: !sees ? 404 : downloads ? 200 : 403 });
           const verify = (await agent.get(`/api/files/${id}/verify`)).status;
           expect({ email, id, verify }).toEqual({
             email,
