@@ -46,6 +46,22 @@ const upload = (agent: ReturnType<typeof request.agent>, jobId: string, body: Bu
   return req.attach('file', body, name);
 };
 
+/**
+ * Sends the job's revision drafts the way the shop does: Kestrel asks for a second person's approval, so every draft
+ * is approved by whoever of the owner and the tuners may approve it (never its uploader), then `sender` sends the
+ * revision with its "what changed" note (the drafts flow itself is tested in revision-drafts.api.test.ts).
+ */
+async function approveAndSend(sender: ReturnType<typeof request.agent>, jobId: string, note = 'Fuel and spark for the intake.') {
+  for (const email of ['owner@kestrel.test', 'tuner@kestrel.test', 'tuner2@kestrel.test']) {
+    const reviewer = await signIn(t.app, email);
+    const files = (await reviewer.get(`/api/jobs/${jobId}/files`)).body.data as Array<{ id: string; canApprove: boolean }> | undefined;
+    for (const file of files ?? []) if (file.canApprove) expect((await reviewer.post(`/api/files/${file.id}/approve`)).status).toBe(200);
+  }
+  const sent = await sender.post(`/api/jobs/${jobId}/transitions`).send({ to: 'with_customer', note });
+  expect(sent.status, JSON.stringify(sent.body)).toBe(200);
+  return sent;
+}
+
 function filesOnDisk(): string[] {
   const walk = (dir: string): string[] =>
     fs.existsSync(dir) ? fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)])) : [];
@@ -201,7 +217,10 @@ describe('revisions and the job flow', () => {
     t.mailbox.clear();
     const tcm = await upload(tuner, job.id, Buffer.from(SREC_EXAMPLE), 'tcm-rev.s19', { module: 'TCM', kind: 'revision' });
     expect(tcm.status).toBe(201);
-    expect(tcm.body.meta.movedTo).toBe('with_customer');
+    // Every module is in: the drafts wait for approval and Send revision, the job stays on the bench until then.
+    expect(tcm.body.meta.waitingFor).toEqual([]);
+    expect((await jobRow(job.id)).state).toBe('on_bench');
+    await approveAndSend(tuner, job.id);
     const row = await jobRow(job.id);
     expect([row.state, row.round]).toEqual(['with_customer', 1]);
 
@@ -246,6 +265,7 @@ describe('revisions and the job flow', () => {
     await upload(tuner, job.id, rawImage(1), 'ecm.bin', { module: 'ECM', kind: 'revision' });
     t.mailbox.clear();
     await upload(tuner, job.id, rawImage(2), 'tcm.bin', { module: 'TCM', kind: 'revision' });
+    await approveAndSend(tuner, job.id);
     const mail = t.mailbox.list().find((m) => m.subject.includes('Revision 1 is ready'))!;
     const link = mail.text.match(new RegExp(`${TEST_ORIGIN}(/api/files/\\S+)`))![1]!;
     const url = new URL(link, TEST_ORIGIN);
@@ -355,7 +375,9 @@ describe('proof of what is on the car', () => {
     const owner = await signIn(t.app, 'owner@kestrel.test');
     expect((await owner.post(`/api/jobs/${job.id}/transitions`).send({ to: 'on_bench' })).status).toBe(200);
     const rev1 = await upload(owner, job.id, rawImage(101), 'rev1.bin', { module: 'ECM', kind: 'revision' });
-    expect(rev1.body.meta.movedTo).toBe('with_customer');
+    expect(rev1.status).toBe(201);
+    await approveAndSend(owner, job.id);
+    expect((await jobRow(job.id)).state).toBe('with_customer');
     return { job, owner, rev1: rev1.body.data as { id: string; revisionNumber: number } };
   }
 
@@ -456,8 +478,11 @@ describe('demo files', () => {
       }
       for (const module of job.modules) {
         expect(mine.filter((f) => f.module === module && f.kind === 'read')).toHaveLength(1);
-        const revisions = mine.filter((f) => f.module === module && f.kind === 'revision').map((f) => f.revision_number);
+        const revisions = mine.filter((f) => f.module === module && f.kind === 'revision' && (f.for_round ?? 0) <= row.round).map((f) => f.revision_number);
         expect(revisions.sort()).toEqual(Array.from({ length: row.round }, (_, i) => i + 1));
+        // A job whose next revision waits for approval has that one draft per module, and no other job has a draft.
+        const drafts = mine.filter((f) => f.module === module && f.kind === 'revision' && (f.for_round ?? 0) > row.round);
+        expect(drafts).toHaveLength(row.drafts_awaiting_approval > 0 ? 1 : 0);
       }
     }
     const reReads = files.filter((f) => f.kind === 're_read');
