@@ -104,3 +104,21 @@ export async function mailTo(request: APIRequestContext, address: string): Promi
   const { data } = (await response.json()) as { data: Mail[] };
   return data.filter((mail) => mail.to.includes(address));
 }
+
+/**
+ * Fills the intake's vehicle fields after the VIN (make to ethanol) with one made-up V6 sedan; the specs check the VIN
+ * and what the form derives (tyre size, stoichiometric AFR) themselves.
+ */
+export async function fillVehicle(page: Page, make = 'Sedan, 3.8 V6, 5-speed manual'): Promise<void> {
+  await page.getByLabel('Make, model and trim').fill(make);
+  await page.getByLabel('Displacement (L)').fill('3.8');
+  await page.getByLabel('Cylinders').fill('6');
+  await page.getByLabel('Engine family').fill('V6');
+  await page.getByLabel('Current rev limit (rpm)').fill('6000');
+  await page.getByLabel('Gear ratios, first gear first').fill('3.36 2.09 1.47 1.10 0.87');
+  await page.getByLabel('Final drive ratio').fill('3.15');
+  await page.getByLabel('Tyre size', { exact: true }).fill('245/40R20');
+  await page.getByLabel('Curb mass (kg)').fill('1500');
+  await page.getByLabel('Pump octane').fill('91');
+  await page.getByLabel('Ethanol (% by volume)').fill('10');
+}
