@@ -20,7 +20,7 @@ export default defineConfig({
   fullyParallel: false,
   workers: Number(process.env.E2E_WORKERS ?? 2),
   projects: [
-    { name: 'setup', testMatch: /sessions\.setup\.ts$/ },
+    { name: 'setup', testMatch: /sessions\.setup\.ts$/, fullyParallel: true },
     { name: 'flows', testIgnore: [/sessions\.setup\.ts$/, ...PAGES], dependencies: ['setup'], workers: 1 },
     { name: 'pages', testMatch: PAGES, dependencies: ['setup'], fullyParallel: true },
   ],
