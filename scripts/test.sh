@@ -7,14 +7,27 @@ bash scripts/ensure-chromium.sh
 mkdir -p .tmp
 rm -f .tmp/vitest.json .tmp/playwright.json
 
-echo "== compile the CLI and datalog workers"; node apps/api/scripts/build-node.mjs
-echo "== typecheck"; npm run -s typecheck
-echo "== lint"; npm run -s lint
-echo "== unit and API tests"
+# Each phase's wall time, printed before the summary line (DEVELOPERS.md keeps the figures).
+times=""
+current=""
+mark=$SECONDS
+phase() {
+  if [ -n "$current" ]; then times="$times${times:+, }$current $((SECONDS - mark)) s"; fi
+  current="$1"
+  mark=$SECONDS
+  if [ -n "$1" ]; then echo "== $1"; fi
+}
+
+phase "compile the CLI and datalog workers"; node apps/api/scripts/build-node.mjs
+phase "typecheck"; npm run -s typecheck
+phase "lint"; npm run -s lint
+phase "unit and API tests"
 status=0
 npx vitest run --reporter=default --reporter=json --outputFile.json=.tmp/vitest.json || status=$?
-echo "== build web app"; npm run -s build
-echo "== browser tests"
+phase "build web app"; npm run -s build
+phase "browser tests"
 PLAYWRIGHT_JSON_OUTPUT_NAME=.tmp/playwright.json npx playwright test --reporter=list,json || status=$?
+phase ""
+echo "phases: $times"
 node scripts/test-summary.mjs .tmp/vitest.json .tmp/playwright.json
 exit "$status"

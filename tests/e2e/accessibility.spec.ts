@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { LAPTOP, PHONE, mainPagesOf, openMainPage, seriousViolations } from './a11y';
-import { signIn } from './support';
+import { useSession } from './support';
 
 const ROLES = ['owner@kestrel.test', 'tuner@kestrel.test', 'dealer@kestrel.test', 'customer@kestrel.test', 'admin@revloop.test'];
 
@@ -19,7 +19,7 @@ for (const email of ROLES) {
   test(`every main page of ${email} has no critical or serious axe findings`, async ({ page }) => {
     // About fifteen pages, each loaded and scanned by axe: minutes on a busy two-core machine.
     test.setTimeout(900_000);
-    await signIn(page, email);
+    await useSession(page, email);
     const found: string[] = [];
     for (const target of await mainPagesOf(page)) {
       await openMainPage(page, target);

@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { TEST_VEHICLE } from '../../apps/api/src/testing/test-vehicle';
-import { signIn } from './support';
+import { useSession } from './support';
 
 // The API starts the local Stripe stand-in on its own port + 1 (scripts/e2e-server.sh sets PORT).
 const FAKE = `http://127.0.0.1:${Number(process.env.E2E_PORT ?? 8181) + 1}`;
@@ -31,7 +31,7 @@ async function newestSubscriptionId(page: Page): Promise<string> {
 }
 
 test('an owner upgrades through Checkout', async ({ page }) => {
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Billing' }).click();
   await expect(page.getByRole('heading', { name: 'Workshop plan' })).toBeVisible();
   await page.getByRole('radio', { name: /Fleet/ }).check();
@@ -47,7 +47,7 @@ test('an owner upgrades through Checkout', async ({ page }) => {
 });
 
 test('a customer pays for a job and sees it on the job', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   const jobs = (await (await page.request.get('/api/jobs?pageSize=100')).json()).data as Array<{ id: string; dealer: unknown; state: string }>;
   const job = jobs.find((j) => j.dealer === null && j.state !== 'cancelled' && j.state !== 'dialed_in');
   if (!job) throw new Error('no open direct job for the demo customer');
@@ -65,7 +65,7 @@ test('a customer pays for a job and sees it on the job', async ({ page }) => {
 });
 
 test('a dealer tops up the balance and a new job is debited from it', async ({ page }) => {
-  await signIn(page, 'dealer@kestrel.test');
+  await useSession(page, 'dealer@kestrel.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Statement' }).click();
   const balance = page.getByLabel('Balance');
   const before = await balance.innerText();
@@ -97,7 +97,7 @@ test('a dealer tops up the balance and a new job is debited from it', async ({ p
 });
 
 test('a failed renewal makes the shop read-only and a new card restores it', async ({ page }) => {
-  await signIn(page, 'owner@harbor.test');
+  await useSession(page, 'owner@harbor.test');
   await page.goto('/billing');
   await page.getByRole('radio', { name: /Workshop/ }).check();
   await page.getByRole('button', { name: 'Continue to payment' }).click();
@@ -129,7 +129,7 @@ test('a failed renewal makes the shop read-only and a new card restores it', asy
 });
 
 test('the platform admin sees plans, MRR and its history', async ({ page }) => {
-  await signIn(page, 'admin@revloop.test');
+  await useSession(page, 'admin@revloop.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Revenue' }).click();
   await expect(page.getByRole('heading', { name: 'MRR over the last 12 months' })).toBeVisible();
   const table = page.getByRole('table', { name: 'Shops and their subscriptions' });

@@ -1,13 +1,13 @@
 import { expect, test } from '@playwright/test';
 import { LAPTOP, PHONE, overflowPx, seriousViolations } from './a11y';
-import { signIn } from './support';
+import { useSession } from './support';
 
 test.describe.configure({ mode: 'serial' });
 
 for (const [name, size] of [['laptop', LAPTOP], ['phone', PHONE]] as const) {
   test(`owner finds a customer, opens a vehicle's history and edits the vehicle (${name})`, async ({ page }) => {
     // Sign in where the main navigation shows, then look at the pages at this size.
-    await signIn(page, 'owner@kestrel.test');
+    await useSession(page, 'owner@kestrel.test');
     await page.setViewportSize(size);
     await page.goto('/customers');
     await expect(page.getByRole('heading', { name: 'Customers' })).toBeVisible();
@@ -42,7 +42,7 @@ for (const [name, size] of [['laptop', LAPTOP], ['phone', PHONE]] as const) {
 
 test('a read of an unexpected size is flagged on the vehicle history', async ({ page }) => {
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   const vehicles = (await (await page.request.get('/api/vehicles')).json()).data as Array<{ id: string; spec: { engine: { family: string } } }>;
   const i3 = vehicles.find((v) => v.spec.engine.family === '1.5 turbo I3')!;
   await page.goto(`/vehicles/${i3.id}`);
@@ -52,7 +52,7 @@ test('a read of an unexpected size is flagged on the vehicle history', async ({ 
 
 for (const [name, size] of [['laptop', LAPTOP], ['phone', PHONE]] as const) {
   test(`a dealer sees its balance, statement and jobs; the owner sees them too (${name})`, async ({ page }) => {
-    await signIn(page, 'dealer@kestrel.test');
+    await useSession(page, 'dealer@kestrel.test');
     await page.setViewportSize(size);
     await page.goto('/customers');
     await page.getByRole('link', { name: 'Balance and statement' }).click();
@@ -66,7 +66,7 @@ for (const [name, size] of [['laptop', LAPTOP], ['phone', PHONE]] as const) {
 
     await page.context().clearCookies();
     await page.setViewportSize(LAPTOP);
-    await signIn(page, 'owner@kestrel.test');
+    await useSession(page, 'owner@kestrel.test');
     await page.setViewportSize(size);
     await page.goto(dealerUrl);
     await expect(page.getByLabel('Dealer balance')).toBeVisible();

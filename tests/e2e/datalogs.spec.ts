@@ -1,7 +1,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import { KNOCKING_DRIVE, generateLog } from '@revloop/domain/datalog/testing';
-import { signIn } from './support';
+import { useSession } from './support';
 
 /** The first job in this state that the signed-in user can see, through the same API the app uses. */
 async function firstJobIn(page: Page, state: string): Promise<{ id: string; number: number }> {
@@ -13,7 +13,7 @@ async function firstJobIn(page: Page, state: string): Promise<{ id: string; numb
 }
 
 test('a customer uploads a log and sees its checklist at once', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   const job = await firstJobIn(page, 'with_customer');
   await page.goto(`/jobs/${job.id}/logs`);
   const panel = page.getByRole('region', { name: 'Datalogs' }).or(page.locator('section').filter({ hasText: 'Datalogs' })).first();
@@ -37,7 +37,7 @@ test('a customer uploads a log and sees its checklist at once', async ({ page })
 });
 
 test('the tuner sees the trim grid and the chart of a log in review', async ({ page }) => {
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   const job = await firstJobIn(page, 'log_review');
   const logs = await (await page.request.get(`/api/jobs/${job.id}/datalogs`)).json();
   await page.goto(`/datalogs/${logs.data[0].id}`);
@@ -55,7 +55,7 @@ test('the tuner sees the trim grid and the chart of a log in review', async ({ p
 });
 
 test('the tuner states a column unit and the AFR scale, and the log is checked again with them', async ({ page }) => {
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   const job = await firstJobIn(page, 'log_review');
   const logs = await (await page.request.get(`/api/jobs/${job.id}/datalogs`)).json();
   const id = logs.data[0].id as string;
@@ -105,7 +105,7 @@ const readoutRow = (page: Page, channel: string): Locator =>
 
 test('the chart has an axis per unit, a legend, pulls and knock marked, and a readout of every ticked channel', async ({ page }) => {
   await page.setViewportSize({ width: 1366, height: 900 });
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   test.setTimeout(180_000);
   await openKnockingLog(page);
   const chart = page.getByRole('group', { name: /^Chart of engine speed/ });
@@ -155,7 +155,7 @@ test('the chart has an axis per unit, a legend, pulls and knock marked, and a re
 test('two logs of a job overlaid on a pull, and one channel against another coloured by a third', async ({ page }) => {
   await page.setViewportSize({ width: 1366, height: 900 });
   test.setTimeout(180_000);
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   await openKnockingLog(page);
 
   // The view switch is a radio group: arrow keys move between views.
@@ -196,7 +196,7 @@ test('two logs of a job overlaid on a pull, and one channel against another colo
 for (const email of ['tuner@kestrel.test', 'customer@kestrel.test']) {
   test(`the report page is never wider than a 390 px phone (${email})`, async ({ page }) => {
     test.setTimeout(180_000);
-    await signIn(page, email);
+    await useSession(page, email);
     // Signed in at the default size (the header's main navigation shows there), then onto the phone's width.
     await page.setViewportSize({ width: 390, height: 844 });
     const jobs = (await (await page.request.get('/api/jobs?sort=number&dir=asc&pageSize=100')).json()).data as { id: string }[];

@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { signIn } from './support';
+import { openSignedIn, useSession } from './support';
 
 interface ListedJob {
   id: string;
@@ -8,14 +8,15 @@ interface ListedJob {
   customer: { email: string };
   package: { name: string };
   tuner: { id: string } | null;
+  facts: { hasRevisionForRound: boolean };
 }
 
-/** An on-the-bench, engine-only job the signed-in tuner may revise, found through the API the app uses. */
+/** An on-the-bench, engine-only job of the signed-in tuner with no revision yet this round, found through the API the app uses. */
 async function benchJob(page: Page): Promise<ListedJob> {
-  const res = await page.request.get('/api/jobs?state=on_bench&sort=number&dir=asc&pageSize=100');
+  const res = await page.request.get('/api/jobs?state=on_bench&mine=true&sort=number&dir=asc&pageSize=100');
   expect(res.ok()).toBe(true);
   const jobs = (await res.json()).data as ListedJob[];
-  const job = jobs.find((j) => j.package.name === 'Engine calibration');
+  const job = jobs.find((j) => j.package.name === 'Engine calibration' && !j.facts.hasRevisionForRound);
   if (!job) throw new Error('no engine-only job on the bench for this tuner');
   return job;
 }
@@ -28,8 +29,8 @@ function rawImage(): Buffer {
 }
 
 test('a tuner uploads a revision with a progress bar and the customer downloads it', async ({ browser }) => {
-  const tunerPage = await browser.newPage();
-  await signIn(tunerPage, 'tuner@kestrel.test');
+  // The upload is a draft; Kestrel asks for a second person's approval before the tuner sends it (revision-review.spec.ts tells that story in full).
+  const tunerPage = await openSignedIn(browser, 'tuner2@kestrel.test');
   const job = await benchJob(tunerPage);
   const revision = job.round + 1;
   await tunerPage.goto(`/jobs/${job.id}`);
@@ -45,21 +46,32 @@ test('a tuner uploads a revision with a progress bar and the customer downloads 
   await form.getByLabel('Module').selectOption('ECM');
   await form.getByLabel('Kind').selectOption('revision');
   await form.getByLabel('Calibration file').setInputFiles({ name: 'my-revision.bin', mimeType: 'application/octet-stream', buffer: rawImage() });
-  await form.getByLabel('What changed (sent with the revision)').fill('Fuel and spark for the new intake.');
   await form.getByRole('button', { name: 'Upload file' }).click();
 
   const bar = form.getByRole('progressbar', { name: /Uploading my-revision\.bin/ });
   await expect(bar).toBeVisible();
   await expect.poll(async () => Number(await bar.getAttribute('aria-valuenow')), { timeout: 20_000 }).toBeGreaterThan(0);
   await expect(form.getByText('Upload complete')).toBeVisible({ timeout: 30_000 });
-  await expect(form.getByText(/The job is now With customer/)).toBeVisible();
+  await expect(form.getByText(/Saved as a draft/)).toBeVisible();
   await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
   await expect(panel.getByText(`Rev ${revision} (ECM)`).first()).toBeVisible();
   await tunerPage.screenshot({ path: '.tmp/files-tuner.png', fullPage: true });
+
+  // The owner approves the draft; the tuner sends it with the note of what changed, and the job is with the customer.
+  const ownerPage = await openSignedIn(browser, 'owner@kestrel.test');
+  await ownerPage.goto(`/jobs/${job.id}`);
+  await ownerPage.getByRole('button', { name: `Approve Rev ${revision} (ECM)` }).click();
+  await expect(ownerPage.getByText(/^Approved by /).first()).toBeVisible();
+  await ownerPage.close();
+  await tunerPage.reload();
+  await tunerPage.getByRole('button', { name: /^Send revision/ }).first().click();
+  const dialog = tunerPage.getByRole('dialog');
+  await dialog.getByLabel('What changed').fill('Fuel and spark for the new intake.');
+  await dialog.getByRole('button', { name: 'Send to the customer' }).click();
+  await expect(tunerPage.getByText('With customer', { exact: true }).first()).toBeVisible();
   await tunerPage.close();
 
-  const customerPage = await browser.newPage();
-  await signIn(customerPage, job.customer.email);
+  const customerPage = await openSignedIn(browser, job.customer.email);
   await customerPage.goto(`/jobs/${job.id}`);
   await expect(customerPage.getByRole('complementary', { name: 'Before you flash' })).toBeVisible();
   await expect(customerPage.getByText(/battery supporter/).first()).toBeVisible();
@@ -76,7 +88,7 @@ test('a tuner uploads a revision with a progress bar and the customer downloads 
 });
 
 test('the owner sees a re-read that differs from its revision and compares two revisions byte by byte', async ({ page }) => {
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   const res = await page.request.get('/api/jobs?state=with_customer,log_review&sort=number&dir=asc&pageSize=100');
   const jobs = (await res.json()).data as ListedJob[];
   let found: { job: ListedJob; reRead: string; revision: string } | null = null;

@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { LAPTOP } from './a11y';
-import { signIn } from './support';
+import { useSession } from './support';
 
 interface ApiJob {
   id: string;
@@ -15,7 +15,7 @@ async function jobsOf(page: Page): Promise<ApiJob[]> {
 test.use({ viewport: LAPTOP });
 
 test('intake: the vehicle choice goes back to "A vehicle on file" by click and by arrow keys', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   await page.goto('/jobs/new');
   const onFile = page.getByRole('radio', { name: 'A vehicle on file' });
   const another = page.getByRole('radio', { name: 'Another vehicle' });
@@ -39,7 +39,7 @@ test('intake: the vehicle choice goes back to "A vehicle on file" by click and b
 });
 
 test('intake: an empty submit focuses the error summary and shows it; the customer is addressed directly', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   await page.goto('/jobs/new');
   await page.getByRole('button', { name: 'Open the job' }).click();
   const summary = page.getByRole('alert').filter({ hasText: 'Please fix the following' });
@@ -50,13 +50,13 @@ test('intake: an empty submit focuses the error summary and shows it; the custom
 });
 
 test('intake: the shop staff still read about "the customer"', async ({ page }) => {
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.goto('/jobs/new');
   await expect(page.getByText('The customer has read and accepts these cautions.')).toBeVisible();
 });
 
 test('"Show check" on a read opens its check, never an empty row', async ({ page }) => {
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   const jobs = await jobsOf(page);
   let jobWithRead: string | undefined;
   for (const job of jobs) {
@@ -82,7 +82,7 @@ test('"Show check" on a read opens its check, never an empty row', async ({ page
 });
 
 test('"More actions" on a board card closes on Escape and gives focus back', async ({ page }) => {
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.goto('/jobs?view=board');
   const more = page.getByRole('button', { name: /^More actions/ }).first();
   await more.click();
@@ -96,7 +96,7 @@ test('"More actions" on a board card closes on Escape and gives focus back', asy
 });
 
 test('the upload panel follows the job: its Kind options fit, and no stale bench text after a move', async ({ page }) => {
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   const jobs = await jobsOf(page);
   const sendable = jobs.find((job) => job.state === 'on_bench' && job.transitions.some((t) => t.to === 'with_customer'));
   const revisable = jobs.find((job) => job.state === 'log_review' && job.transitions.some((t) => t.to === 'on_bench'));
@@ -134,7 +134,7 @@ test('the upload panel follows the job: its Kind options fit, and no stale bench
 });
 
 test('the job page states the log request once; the log upload form points to it', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   // Earlier specs may have moved the customer's waiting job on to review; either takes a log.
   const job = (await jobsOf(page)).find((j) => j.state === 'with_customer' || j.state === 'log_review');
   expect(job, 'a job that takes a log').toBeDefined();

@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { mailTo, signIn } from './support';
+import { fillVehicle, mailTo, useSession } from './support';
 
 test.describe.configure({ mode: 'serial' });
 
@@ -8,21 +8,12 @@ const VIEWPORTS = [
   { name: 'phone', width: 390, height: 844 },
 ] as const;
 
-async function fillVehicle(page: Page) {
+/** The VIN, then the shared vehicle fields. */
+async function fillVehicleWithVin(page: Page) {
   // 1G4AH59H45G118341: check digit 4 (49 CFR 565.15(c) Table V worked example [STD], REFERENCES "VIN check digit").
   await page.getByLabel('VIN').fill('1G4AH59H45G118341');
   await expect(page.getByLabel('Model year')).toHaveValue('2005');
-  await page.getByLabel('Make, model and trim').fill('Sedan, 3.8 V6, 5-speed manual');
-  await page.getByLabel('Displacement (L)').fill('3.8');
-  await page.getByLabel('Cylinders').fill('6');
-  await page.getByLabel('Engine family').fill('V6');
-  await page.getByLabel('Current rev limit (rpm)').fill('6000');
-  await page.getByLabel('Gear ratios, first gear first').fill('3.36 2.09 1.47 1.10 0.87');
-  await page.getByLabel('Final drive ratio').fill('3.15');
-  await page.getByLabel('Tyre size', { exact: true }).fill('245/40R20');
-  await page.getByLabel('Curb mass (kg)').fill('1500');
-  await page.getByLabel('Pump octane').fill('91');
-  await page.getByLabel('Ethanol (% by volume)').fill('10');
+  await fillVehicle(page);
 }
 
 for (const viewport of VIEWPORTS) {
@@ -48,7 +39,7 @@ for (const viewport of VIEWPORTS) {
     await form.getByLabel('Your name').fill('Riley Novak');
     await form.getByLabel('E-mail').fill(email);
     await form.getByLabel('Password').fill('a-long-enough-password');
-    await fillVehicle(page);
+    await fillVehicleWithVin(page);
     await form.getByLabel('Goals').fill('Smoother part throttle and a little more mid-range.');
     // Nothing is sent before the cautions are accepted.
     await form.getByRole('button', { name: 'Start a tune' }).click();
@@ -83,7 +74,7 @@ for (const viewport of VIEWPORTS) {
 }
 
 test('a page turned off answers "no page here"; the owner turns it back on', async ({ page }) => {
-  await signIn(page, 'owner@harbor.test');
+  await useSession(page, 'owner@harbor.test');
   await page.goto('/settings/shop');
   const publicPage = page.locator('section').filter({ has: page.getByRole('heading', { name: 'Public page' }) });
   await expect(publicPage.getByLabel('Page address')).toHaveValue('harbor-dyno');

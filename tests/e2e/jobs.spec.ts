@@ -1,10 +1,10 @@
 import { expect, test } from '@playwright/test';
-import { asPlatformAdmin, DEMO_PASSWORD, mailTo, signIn } from './support';
+import { asPlatformAdmin, DEMO_PASSWORD, fillVehicle, mailTo, useSession } from './support';
 
 test.describe.configure({ mode: 'serial' });
 
 test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel checks, and gets the e-mail', async ({ page, request }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   await expect(page.getByRole('heading', { name: 'My jobs' })).toBeVisible();
   await page.getByRole('link', { name: 'Open a job' }).click();
   await expect(page.getByRole('heading', { name: 'Open a job' })).toBeVisible();
@@ -17,20 +17,10 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
   await expect(page.getByLabel('Model year')).toHaveValue('2005');
   await page.getByLabel('Keep this VIN as entered').check();
 
-  await page.getByLabel('Make, model and trim').fill('Grey-market sedan, 3.8 V6, 5-speed manual');
-  await page.getByLabel('Displacement (L)').fill('3.8');
-  await page.getByLabel('Cylinders').fill('6');
-  await page.getByLabel('Engine family').fill('V6');
-  await page.getByLabel('Current rev limit (rpm)').fill('6000');
-  await page.getByLabel('Gear ratios, first gear first').fill('3.36 2.09 1.47 1.10 0.87');
-  await page.getByLabel('Final drive ratio').fill('3.15');
-  await page.getByLabel('Tyre size', { exact: true }).fill('245/40R20');
-  // D = 20·25.4 + 2·245·0.40 = 704.0 mm, C = π·D = 2211.7 mm from the ISO 4000-1 / ETRTO designation [CALC] (REFERENCES "metric tyre size").
+  await fillVehicle(page, 'Grey-market sedan, 3.8 V6, 5-speed manual');
+  // Tyre 245/40R20: D = 20·25.4 + 2·245·0.40 = 704.0 mm, C = π·D = 2211.7 mm from the ISO 4000-1 / ETRTO designation [CALC] (REFERENCES "metric tyre size").
   await expect(page.getByText('245/40R20: diameter 704.0 mm, circumference 2,211.7 mm.')).toBeVisible();
-  await page.getByLabel('Curb mass (kg)').fill('1500');
-  await page.getByLabel('Pump octane').fill('91');
-  await page.getByLabel('Ethanol (% by volume)').fill('10');
-  // E10 blended by mass: 14.10 (REFERENCES "ethanol blend" [CALC]).
+  // Ethanol 10 %, E10 blended by mass: 14.10 (REFERENCES "ethanol blend" [CALC]).
   await expect(page.getByText('Stoichiometric air-fuel ratio: 14.10 : 1')).toBeVisible();
   await page.getByLabel('Intercooler').check();
 
@@ -62,7 +52,7 @@ test('a customer opens a job for a new vehicle, with live VIN, tyre and fuel che
 });
 
 test('a tuner takes an unassigned ready job and starts work on it from the board', async ({ page }) => {
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   await expect(page.getByRole('heading', { name: 'Jobs', exact: true })).toBeVisible();
   const ready = page.getByRole('region', { name: /^Ready/ });
   const card = ready.getByRole('article').filter({ has: page.getByRole('button', { name: /^Take job/ }) }).first();
@@ -92,7 +82,7 @@ test('the dealer sees only its own customers and their jobs', async ({ page, pla
   const directJobId = data[0]!.id;
   await customer.dispose();
 
-  await signIn(page, 'dealer@kestrel.test');
+  await useSession(page, 'dealer@kestrel.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Customers' }).click();
   const table = page.getByRole('table', { name: 'Customers' });
   await expect(table.getByText('Morgan Pryce')).toBeVisible();

@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { LAPTOP, PHONE, mainPagesOf, openMainPage, overflowPx } from './a11y';
-import { signIn } from './support';
+import { useSession } from './support';
 
 const ROLES = ['owner@kestrel.test', 'tuner@kestrel.test', 'dealer@kestrel.test', 'customer@kestrel.test', 'admin@revloop.test'];
 
@@ -8,7 +8,7 @@ for (const email of ROLES) {
   test(`no page of ${email} is wider than a 390 px phone or a 1366 px laptop`, async ({ page }) => {
     test.setTimeout(600_000);
     await page.setViewportSize(LAPTOP);
-    await signIn(page, email);
+    await useSession(page, email);
     const pages = await mainPagesOf(page);
     const wide: string[] = [];
     for (const size of [PHONE, LAPTOP]) {
@@ -27,7 +27,7 @@ test.describe('the jobs board on a 1366 px laptop', () => {
   test.use({ viewport: LAPTOP });
 
   test('shows every open state side by side, and the table clips no column', async ({ page }) => {
-    await signIn(page, 'owner@kestrel.test');
+    await useSession(page, 'owner@kestrel.test');
     await page.goto('/jobs?view=board');
     for (const state of ['Intake', 'Ready', 'On the bench', 'With customer', 'Log review', 'On hold']) {
       const column = page.getByRole('region', { name: new RegExp(`^${state}`) });
@@ -42,7 +42,7 @@ test.describe('the jobs board on a 1366 px laptop', () => {
   });
 
   test('a keyboard reaches any column in a few keys: Tab to the state bar, arrows, Enter', async ({ page }) => {
-    await signIn(page, 'tuner@kestrel.test');
+    await useSession(page, 'tuner@kestrel.test');
     await page.goto('/jobs?view=board');
     const bar = page.getByRole('toolbar', { name: 'Jump to a column' });
     await expect(bar).toBeVisible();
@@ -64,7 +64,7 @@ test.describe('the jobs board on a 1366 px laptop', () => {
   });
 
   test('each state has its own colour and icon, the same on board and table', async ({ page }) => {
-    await signIn(page, 'owner@kestrel.test');
+    await useSession(page, 'owner@kestrel.test');
     await page.goto('/jobs?view=table&pageSize=100');
     const badges = page.locator('[data-state]');
     await expect(badges.first()).toBeVisible();

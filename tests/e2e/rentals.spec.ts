@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { LAPTOP, overflowPx, PHONE } from './a11y';
-import { signIn } from './support';
+import { useSession } from './support';
 
 // Issue 14's browser path: owner adds a kit; customer asks; owner books and ships; customer pays the fee and the
 // hold; the kit comes back damaged; the owner takes part of the deposit; the customer sees why.
@@ -17,7 +17,7 @@ async function payOnHostedPage(page: Page) {
 
 test('the owner adds a kit and sees it in the list at 1366 and 390 px', async ({ page }) => {
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Kits' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Kits' })).toBeVisible();
   await page.getByRole('button', { name: 'Add kit' }).click();
@@ -45,7 +45,7 @@ test('the owner adds a kit and sees it in the list at 1366 and 390 px', async ({
 });
 
 test('a customer asks for a kit on a job', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
   await page.setViewportSize(PHONE);
   const jobs = (await (await page.request.get('/api/jobs?pageSize=100')).json()).data as Array<{ id: string; dealer: unknown; state: string }>;
@@ -64,7 +64,7 @@ test('a customer asks for a kit on a job', async ({ page }) => {
 
 test('the owner books the new kit for the request', async ({ page }) => {
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.goto(`/jobs/${jobId}`);
   const rental = page.getByRole('article', { name: /Kit rental: kit to be picked/ }).last();
   await rental.getByRole('button', { name: 'Book the kit' }).first().click();
@@ -75,7 +75,7 @@ test('the owner books the new kit for the request', async ({ page }) => {
 });
 
 test('the customer agrees, pays the fee and authorises the deposit hold', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
   await page.setViewportSize(PHONE);
   await page.goto(`/jobs/${jobId}`);
@@ -95,7 +95,7 @@ test('the customer agrees, pays the fee and authorises the deposit hold', async 
 
 test('the owner ships, records a damaged return and captures part of the deposit', async ({ page }) => {
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.goto(`/jobs/${jobId}`);
   const rental = page.getByRole('article', { name: `Kit rental: ${KIT}` });
   await rental.getByRole('button', { name: 'Mark shipped' }).first().click();
@@ -119,7 +119,7 @@ test('the owner ships, records a damaged return and captures part of the deposit
 });
 
 test('the customer sees why part of the deposit was taken', async ({ page }) => {
-  await signIn(page, 'customer@kestrel.test');
+  await useSession(page, 'customer@kestrel.test');
   // The main navigation folds into a menu on a phone; sign in wide, then look at the phone width.
   await page.setViewportSize(PHONE);
   await page.goto(`/jobs/${jobId}`);

@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import { LAPTOP, overflowPx, PHONE, seriousViolations } from './a11y';
-import { signIn } from './support';
+import { useSession } from './support';
 
 /** Every report card: its heading, the caption of its table, and the name of its chart region. */
 const REPORTS = [
@@ -40,7 +40,7 @@ async function expectEveryReport(page: Page) {
 test('the owner sees every report with charts and tables, changes the dates and downloads a CSV', async ({ page }) => {
   test.setTimeout(180_000);
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await openReports(page);
   await expectEveryReport(page);
   await page.screenshot({ path: '.tmp/test-results/reports-1366.png', fullPage: true });
@@ -70,7 +70,7 @@ test('on a phone the reports fit the width: charts and tables scroll inside thei
   // Eight charts and an accessibility scan on a shared two-core machine.
   test.setTimeout(180_000);
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'owner@kestrel.test');
+  await useSession(page, 'owner@kestrel.test');
   await page.setViewportSize(PHONE);
   await page.goto('/reports');
   await expectEveryReport(page);
@@ -81,7 +81,7 @@ test('on a phone the reports fit the width: charts and tables scroll inside thei
 
 test('a tuner has no Reports link, and the page and API refuse them', async ({ page }) => {
   await page.setViewportSize(LAPTOP);
-  await signIn(page, 'tuner@kestrel.test');
+  await useSession(page, 'tuner@kestrel.test');
   await expect(page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Jobs' })).toBeVisible();
   await expect(page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Reports' })).toHaveCount(0);
   await page.goto('/reports');

@@ -1,5 +1,5 @@
 import { expect, test, type Browser, type Page } from '@playwright/test';
-import { signIn } from './support';
+import { openSignedIn } from './support';
 
 // Issue 13 part 2 in the browser: a tuner's revision upload is a draft the customer does not see; another tuner
 // approves it (Kestrel asks for approval); the tuner sends it with a note; the customer reads the note and downloads.
@@ -14,11 +14,8 @@ interface ListedJob {
   facts: { hasRevisionForRound: boolean };
 }
 
-async function pageAs(browser: Browser, email: string, width = 1366): Promise<Page> {
-  const page = await browser.newPage({ viewport: { width, height: width > 800 ? 900 : 844 } });
-  await signIn(page, email);
-  return page;
-}
+/** A page of its own signed in as `email`; at 390 px the main navigation folds into the menu. */
+const pageAs = (browser: Browser, email: string, width = 1366): Promise<Page> => openSignedIn(browser, email, { viewport: { width, height: width > 800 ? 900 : 844 } });
 
 /** An engine-only job of this tuner on the bench with no draft yet, found through the API the app uses. */
 async function benchJobWithoutDraft(page: Page): Promise<ListedJob> {

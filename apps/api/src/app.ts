@@ -9,6 +9,7 @@ import type { AppDeps } from './context';
 import { createAdminRouter } from './features/admin/admin.router';
 import { createAuditRouter } from './features/audit/audit.router';
 import { createAuthRouter } from './features/auth/auth.router';
+import { usePasswordHashCost } from './features/auth/password';
 import { sessionPolicyOf, secureCookiesOf } from './features/auth/start-session';
 import { createBillingRouter } from './features/billing/billing.router';
 import { createStripeWebhookRouter } from './features/billing/stripe-webhook.router';
@@ -35,6 +36,7 @@ import { sameOrigin } from './http/same-origin';
 
 /** Builds the app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {
+  usePasswordHashCost(deps.env);
   const app = express();
   app.disable('x-powered-by');
   if (deps.env.TRUST_PROXY) app.set('trust proxy', deps.env.TRUST_PROXY);

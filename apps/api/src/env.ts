@@ -34,6 +34,8 @@ const envSchema = z.object({
   TRUST_PROXY: z.string().optional(),
   /** HMAC key for e-mailed file download links; required in production, else made once and kept in DATA_DIR/secrets. */
   FILE_LINK_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
+  /** Tests only (refused unless NODE_ENV=test): 'low' hashes passwords with a tiny argon2 cost so sign-ins in API tests are cheap. */
+  TEST_ONLY_HASH_COST: z.enum(['low']).optional(),
 });
 
 export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET'> & {
@@ -51,6 +53,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   }
   const env = parsed.data;
   if (env.NODE_ENV === 'production' && !env.FILE_LINK_SECRET) throw new Error('Invalid environment: FILE_LINK_SECRET is required in production');
+  if (env.TEST_ONLY_HASH_COST && env.NODE_ENV !== 'test') throw new Error(`Invalid environment: TEST_ONLY_HASH_COST is for tests only and NODE_ENV is ${env.NODE_ENV}`);
   const dataDir = path.resolve(env.DATA_DIR);
   return {
     ...env,

@@ -103,6 +103,8 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     LOG_LEVEL: 'silent',
     DATA_DIR: dataDir,
     TRUST_PROXY: 'loopback',
+    // Cheap password hashes for the factories' people and sign-ups (refused outside NODE_ENV=test, see env.ts).
+    TEST_ONLY_HASH_COST: 'low',
     ...envOverrides,
   });
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: env.MAIL_FROM });
