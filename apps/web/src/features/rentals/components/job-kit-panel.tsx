@@ -1,6 +1,5 @@
 import { useState } from 'react';
 import { useAbility } from '@casl/react';
-import type { Rental } from '@revloop/contract';
 import type { AppAbility } from '@revloop/domain/auth';
 import { formatMoney } from '@revloop/domain/billing';
 import { addDays, RENTAL_ENTRY_LABELS, RENTAL_STATE_LABELS, type RentalState } from '@revloop/domain/rentals';
