@@ -41,4 +41,5 @@ export * from './reports/reports.table';
 export * from './reports/reports.repository';
 export * from './rentals/rental.table';
 export * from './rentals/rental.repository';
+export * from './rentals/kit-photo.repository';
 export * from './customers/customer.repository';
