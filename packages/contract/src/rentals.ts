@@ -117,7 +117,18 @@ export const kitHistoryItemSchema = z.object({
   rentalId: z.string().nullable(),
 });
 
-export const kitDetailSchema = kitSchema.extend({ history: z.array(kitHistoryItemSchema) });
+/** A photo of a kit (optional); the image is at `url`. */
+export const kitPhotoSchema = z.object({
+  id: z.string(),
+  url: z.string(),
+  contentType: z.string(),
+  originalName: z.string(),
+  sizeBytes: z.number().int(),
+  createdAt: z.string(),
+});
+export type KitPhoto = z.infer<typeof kitPhotoSchema>;
+
+export const kitDetailSchema = kitSchema.extend({ history: z.array(kitHistoryItemSchema), photos: z.array(kitPhotoSchema) });
 export type KitDetail = z.infer<typeof kitDetailSchema>;
 
 /** GET /api/kits/overview?from&to (owner). */

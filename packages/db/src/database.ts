@@ -15,7 +15,7 @@ import type { JobListVersionTable, JobMessageTable, JobStateCountTable, JobTable
 import type { MailOutboxTable } from './mail/mail-outbox.table';
 import type { NotificationTable } from './notifications/notification.table';
 import type { PackageTable } from './packages/package.table';
-import type { KitTable, RentalEntryTable, RentalReminderTable, RentalTable } from './rentals/rental.table';
+import type { KitPhotoTable, KitTable, RentalEntryTable, RentalReminderTable, RentalTable } from './rentals/rental.table';
 import type { VehicleTable } from './vehicles/vehicle.table';
 import type { CustomerSummaryTable, DatalogCheckTable, JobStintTable } from './reports/reports.table';
 import type { InvitationTable } from './invitations/invitation.table';
@@ -56,6 +56,7 @@ export interface Database {
   ledger_entries: LedgerEntryTable;
   public_sign_ups: PublicSignUpTable;
   kits: KitTable;
+  kit_photos: KitPhotoTable;
   rentals: RentalTable;
   rental_entries: RentalEntryTable;
   rental_reminders: RentalReminderTable;

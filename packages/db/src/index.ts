@@ -41,6 +41,7 @@ export * from './reports/reports.table';
 export * from './reports/reports.repository';
 export * from './rentals/rental.table';
 export * from './rentals/rental.repository';
+export * from './rentals/kit-photo.repository';
 export * from './customers/customer.repository';
 // For loaders that write job moves as audit events in bulk (the benchmark's history, report test fixtures): the stints
 // those moves end, derived as migration 015 derived them for moves made before it.

@@ -15,6 +15,7 @@ import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions'
 import * as revisionDrafts from './migrations/2026-12-02-013-revision-drafts';
 import * as paidBeforeDownload from './migrations/2026-12-03-014-paid-before-download';
 import * as reportTables from './migrations/2026-12-03-015-report-tables';
+import * as kitPhotos from './migrations/2026-12-03-016-kit-photos';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -33,6 +34,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-013-revision-drafts': revisionDrafts,
   '2026-12-03-014-paid-before-download': paidBeforeDownload,
   '2026-12-03-015-report-tables': reportTables,
+  '2026-12-03-016-kit-photos': kitPhotos,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

@@ -162,6 +162,32 @@ export async function listShopRentalEntries(db: Db, shopId: string, fromIso: str
     .execute();
 }
 
+export interface RentalMoneyRow extends RentalEntryRow {
+  job_number: number;
+  customer_name: string;
+  kit_name: string | null;
+  currency: string;
+}
+
+/** Every money line of the shop's rentals with an instant in fromIso..toIso (end exclusive), oldest first. */
+export async function listRentalMoney(db: Db, shopId: string, fromIso: string, toIso: string): Promise<RentalMoneyRow[]> {
+  return db
+    .selectFrom('rental_entries')
+    .innerJoin('rentals', 'rentals.id', 'rental_entries.rental_id')
+    .innerJoin('users', 'users.id', 'rentals.customer_user_id')
+    .innerJoin('jobs', 'jobs.id', 'rentals.job_id')
+    .leftJoin('kits', 'kits.id', 'rentals.kit_id')
+    .selectAll('rental_entries')
+    .select(['jobs.number as job_number', 'users.name as customer_name', 'kits.name as kit_name', 'rentals.currency'])
+    .where('rental_entries.shop_id', '=', shopId)
+    .where('rentals.shop_id', '=', shopId)
+    .where('rental_entries.at', '>=', fromIso)
+    .where('rental_entries.at', '<', toIso)
+    .orderBy('rental_entries.at')
+    .orderBy('rental_entries.id')
+    .execute();
+}
+
 /** Claims a reminder; false when it was already sent, so the sweep never sends it twice. */
 export async function claimRentalReminder(db: Db, row: { rental_id: string; kind: string; day: string; shop_id: string; sent_at: string }): Promise<boolean> {
   const result = await db.insertInto('rental_reminders').values(row).onConflict((oc) => oc.doNothing()).executeTakeFirst();

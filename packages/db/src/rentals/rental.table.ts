@@ -25,6 +25,20 @@ export type KitRow = Selectable<KitTable>;
 export type InsertableKitRow = Insertable<KitTable>;
 export type UpdateableKitRow = Updateable<KitTable>;
 
+/** A photo of a kit: the bytes are in the blob store under sha256. */
+export interface KitPhotoTable {
+  id: string;
+  shop_id: string;
+  kit_id: string;
+  sha256: string;
+  size_bytes: number;
+  content_type: string;
+  original_name: string;
+  uploaded_by_user_id: string | null;
+  created_at: string;
+}
+export type KitPhotoRow = Selectable<KitPhotoTable>;
+
 /** One rental of a kit for one job; prices are copied from the kit at booking so later kit edits change nothing. */
 export interface RentalTable {
   id: string;

@@ -51,6 +51,16 @@ export const specialRequestsSchema = z.object({
   idle: z.object({ rpm: rpm('Idle speed').optional(), notes }).optional(),
 });
 
+/** A kit asked for at intake: shop-local calendar days `YYYY-MM-DD`, both inclusive. */
+export const kitRequestSchema = z
+  .object({
+    startDate: z.iso.date('Use a date written YYYY-MM-DD.'),
+    dueDate: z.iso.date('Use a date written YYYY-MM-DD.'),
+    notes: z.string().trim().max(1000, 'Keep this under 1000 characters.').default(''),
+  })
+  .refine((r) => r.startDate <= r.dueDate, { message: 'The due date is before the start date.', path: ['dueDate'] });
+export type KitRequestInput = z.infer<typeof kitRequestSchema>;
+
 export const jobIntakeSchema = z.object({
   customer: jobCustomerSchema,
   vehicle: jobVehicleSchema,
@@ -62,6 +72,8 @@ export const jobIntakeSchema = z.object({
     .max(4000),
   specialRequests: specialRequestsSchema.default({}),
   cautionsAccepted: z.literal(true, 'The customer must accept the cautions before the job opens.'),
+  /** "I need a flashing kit": the job opens with a kit rental asked for these dates; the shop picks the kit. */
+  kitRequest: kitRequestSchema.optional(),
 });
 export type JobIntakeInput = z.infer<typeof jobIntakeSchema>;
 export type JobIntakeFormValues = z.input<typeof jobIntakeSchema>;

@@ -53,6 +53,17 @@ export const RENTAL_ENTRY_KINDS = [
 ] as const;
 export type RentalEntryKind = (typeof RENTAL_ENTRY_KINDS)[number];
 
+/** The plain name of each money line, shown to the customer on the job page and in the shop's money export. */
+export const RENTAL_ENTRY_LABELS: Record<RentalEntryKind, string> = {
+  fee: 'Rental fee paid',
+  card_saved: 'Card saved for the deposit',
+  hold_placed: 'Deposit hold placed',
+  hold_released: 'Deposit hold released',
+  hold_lapsed: 'Deposit hold lapsed (placed again)',
+  capture: 'Taken from the deposit',
+  late_fee: 'Late fee',
+};
+
 /** Where the deposit stands: nothing yet, card saved for a later hold, held on the card, released or captured. */
 export const DEPOSIT_STATUSES = ['none', 'card_saved', 'held', 'released', 'captured', 'lapsed'] as const;
 export type DepositStatus = (typeof DEPOSIT_STATUSES)[number];

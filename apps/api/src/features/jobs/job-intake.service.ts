@@ -17,6 +17,7 @@ import {
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { JobIntakeInput } from '@revloop/domain/jobs';
+import { rentalSettings } from '@revloop/domain/rentals';
 import { logRequestFor, parseShopSettings } from '@revloop/domain/shops';
 import type { VehicleInput } from '@revloop/domain/vehicles';
 import type { AppDeps } from '../../context';
@@ -26,6 +27,7 @@ import { assertJobRoom } from '../billing/plan-limits.service';
 import { afterDealerDebit, debitDealerForJob } from '../billing/ledger.service';
 import { drainMailOutbox } from '../mail/mail-outbox.service';
 import { notify } from '../notifications/notify.service';
+import { insertRentalRequest } from '../rentals/rental-request';
 import { customerSideOf, jobLink, shopSideOf } from './job-lookup.service';
 import { FLASH_CAUTIONS } from './job-notices';
 
@@ -114,6 +116,11 @@ export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
       ? await debitDealerForJob(trx, { shopId: auth.shop.id, currency: auth.shop.currency, dealerId: customer.dealerId, jobId: inserted.id, packageName: pkg.name, amountMinor: pkg.dealer_price_minor, userId: auth.user.id, at })
       : null;
     await recordAudit(trx, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'job.opened', subjectType: 'Job', subjectId: inserted.id, at: clock.now() });
+    // "I need a flashing kit": the rental request commits with the job; the shop picks the kit and books it.
+    const kit = input.kitRequest;
+    if (kit) {
+      await insertRentalRequest(trx, { shopId: auth.shop.id, currency: auth.shop.currency, job: inserted, startDate: kit.startDate, dueDate: kit.dueDate, notes: kit.notes, shippingDays: rentalSettings(settings).shippingDays, actorUserId: auth.user.id, now: clock.now() });
+    }
     const job = (await findJob(trx, auth.shop.id, inserted.id))!;
     const link = jobLink(deps.env.APP_ORIGIN, job.id);
     const ref = `Job ${job.number} (${job.vehicle_description})`;
@@ -130,7 +137,7 @@ export async function openJob(deps: AppDeps, auth: AuthContext & { shop: { id: s
     });
     await notify(
       trx,
-      { shopId: auth.shop.id, jobId: job.id, kind: 'job_received', recipients: await shopSideOf(trx, job), title: `New job — ${ref}`, body: `${job.customer_name} opened a job for the ${job.package_name} package.`, link, at: clock.now() },
+      { shopId: auth.shop.id, jobId: job.id, kind: 'job_received', recipients: await shopSideOf(trx, job), title: `New job — ${ref}`, body: `${job.customer_name} opened a job for the ${job.package_name} package.${kit ? ` A flashing kit is asked for from ${kit.startDate} to ${kit.dueDate}: pick one and book it.` : ''}`, link, at: clock.now() },
       auth.user.id,
     );
     return { job, debit };

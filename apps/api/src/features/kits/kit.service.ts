@@ -1,5 +1,5 @@
-import { findKit, findKitClashes, insertKit, listAuditEvents, listKits, listRentals, listShopRentalEntries, newId, updateKit, type Db, type KitRow } from '@revloop/db';
-import type { Kit, KitCalendar, KitCreate, KitDetail, KitOverview, KitPatch } from '@revloop/contract';
+import { findKit, findKitClashes, insertKit, listAuditEvents, listKitPhotos, listKits, listRentals, listShopRentalEntries, newId, updateKit, type Db, type KitPhotoRow, type KitRow } from '@revloop/db';
+import type { Kit, KitCalendar, KitPhoto, KitCreate, KitDetail, KitOverview, KitPatch } from '@revloop/contract';
 import { asSubject } from '@revloop/domain/auth';
 import { addDays, daysBetween, daysInRange, intersectRanges, KIT_AWAY_STATES, localDay, mergeRanges, type DayRange } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
@@ -27,6 +27,15 @@ export function presentKit(row: KitRow, currency: string): Kit {
     createdAt: row.created_at,
   };
 }
+
+export const presentKitPhoto = (row: KitPhotoRow): KitPhoto => ({
+  id: row.id,
+  url: `/api/kits/${row.kit_id}/photos/${row.id}`,
+  contentType: row.content_type,
+  originalName: row.original_name,
+  sizeBytes: row.size_bytes,
+  createdAt: row.created_at,
+});
 
 /** The kit if this viewer may read it; another shop's id answers 404. */
 export async function loadKit(db: Db, auth: ShopAuth, id: string): Promise<KitRow> {
@@ -91,6 +100,7 @@ export async function kitDetail(deps: AppDeps, auth: ShopAuth, id: string): Prom
   const events = await listAuditEvents(deps.db, auth.shop.id, { subjectType: 'Kit', subjectId: kit.id, limit: 50 });
   return {
     ...presentKit(kit, auth.shop.currency),
+    photos: (await listKitPhotos(deps.db, auth.shop.id, kit.id)).map(presentKitPhoto),
     history: events.map((e) => {
       const details = JSON.parse(e.details) as { text?: string; rentalId?: string };
       return { at: e.created_at, action: e.action, summary: details.text ?? e.action, rentalId: details.rentalId ?? null };

@@ -4,6 +4,8 @@ import { dayRangeQuerySchema, kitCreateSchema, kitPatchSchema } from '@revloop/c
 import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
+import { singleFileUpload } from '../../storage/upload';
+import { addKitPhoto, KIT_PHOTO_MAX_BYTES, kitPhotoFile, removeKitPhoto } from './kit-photos.service';
 import { createKit, kitCalendar, kitDetail, kitOverview, patchKit, presentKit } from './kit.service';
 
 export function createKitsRouter(deps: AppDeps): Router {
@@ -41,6 +43,25 @@ export function createKitsRouter(deps: AppDeps): Router {
   router.get('/:id/bookings', async (req, res) => {
     const auth = requireShop(req);
     res.json({ data: await kitCalendar(deps, auth, req.params.id, parseInput(dayRangeQuerySchema, req.query)) });
+  });
+
+  // Photos (optional): the upload streams to a temporary file; the service checks it is an image, then stores it.
+  router.post('/:id/photos', singleFileUpload(deps.blobs, 'file', () => KIT_PHOTO_MAX_BYTES), async (req, res) => {
+    const auth = requireShop(req);
+    res.status(201).json({ data: await addKitPhoto(deps, auth, req.params.id as string, req.file) });
+  });
+
+  router.get('/:id/photos/:photoId', async (req, res) => {
+    const auth = requireShop(req);
+    const photo = await kitPhotoFile(deps, auth, req.params.id, req.params.photoId);
+    res.set('Content-Type', photo.content_type).set('Cache-Control', 'private, max-age=3600').set('X-Content-Type-Options', 'nosniff');
+    deps.blobs.stream(photo.sha256).on('error', () => res.destroy()).pipe(res);
+  });
+
+  router.delete('/:id/photos/:photoId', async (req, res) => {
+    const auth = requireShop(req);
+    await removeKitPhoto(deps, auth, req.params.id, req.params.photoId);
+    res.status(204).end();
   });
 
   return router;

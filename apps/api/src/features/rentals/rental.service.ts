@@ -36,6 +36,7 @@ import { loadJob } from '../jobs/job.service';
 import { placeHold, settleHold } from './rental-money';
 import { auditRental, loadRental, rentalSubject, shopRentalSettings, type ShopAuth } from './rental-records';
 import { notifyRental } from './rental-notices';
+import { insertRentalRequest } from './rental-request';
 
 export const factsOf = (row: RentalRow): RentalFacts => ({
   state: row.state,
@@ -197,10 +198,9 @@ export async function createRental(deps: AppDeps, auth: ShopAuth, input: RentalC
     });
     if (!result.ok) throw clashError(result.clashes);
   } else {
-    await deps.db.transaction().execute(async (trx) => {
-      await trx.insertInto('rentals').values(row).execute();
-      await auditRental(trx, row, auth.user.id, 'rental.requested', text, now);
-    });
+    row.id = await deps.db.transaction().execute((trx) =>
+      insertRentalRequest(trx, { shopId: auth.shop.id, currency: auth.shop.currency, job, startDate: input.startDate, dueDate: input.dueDate, notes: input.notes, shippingDays, actorUserId: auth.user.id, now }),
+    );
   }
   await notifyRental(deps, row.id, row.shop_id, kit ? 'booked' : 'requested');
   return (await findRental(deps.db, auth.shop.id, row.id))!;

@@ -1,12 +1,13 @@
 import { Router } from 'express';
 import { listRentals } from '@revloop/db';
-import { rentalCreateSchema, rentalListQuerySchema, rentalTermsSchema, rentalTransitionSchema } from '@revloop/contract';
+import { dayRangeQuerySchema, rentalCreateSchema, rentalListQuerySchema, rentalTermsSchema, rentalTransitionSchema } from '@revloop/contract';
 import { rentalScopeFor } from '@revloop/domain/auth';
 import { localDay } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
 import { authorize, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { startDepositCheckout, startFeeCheckout } from './rental-money';
+import { rentalMoneyCsv } from './rental-money-export';
 import { loadRental, shopRentalSettings } from './rental-records';
 import { acceptTerms, createRental, moveRental, presentRental, summaryOf } from './rental.service';
 
@@ -26,6 +27,12 @@ export function createRentalsRouter(deps: AppDeps): Router {
     const auth = requireShop(req);
     const row = await createRental(deps, auth, parseInput(rentalCreateSchema, req.body));
     res.status(201).json({ data: await presentRental(deps, auth, row) });
+  });
+
+  router.get('/money.csv', async (req, res) => {
+    const auth = requireShop(req);
+    const { csv, fileName } = await rentalMoneyCsv(deps, auth, parseInput(dayRangeQuerySchema, req.query));
+    res.type('text/csv; charset=utf-8').attachment(fileName).send(csv);
   });
 
   router.get('/:id', async (req, res) => {

@@ -1,4 +1,4 @@
-import { useEffect } from 'react';
+import { useEffect, useState } from 'react';
 import { useForm, useWatch, type FieldPath } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { Job, Me } from '@revloop/contract';
@@ -55,6 +55,9 @@ const SUMMARY_LABELS: Record<string, string> = {
   packageId: 'Package',
   goals: 'Goals',
   cautionsAccepted: 'Cautions',
+  'kitRequest.startDate': 'Kit from',
+  'kitRequest.dueDate': 'Kit due back',
+  'kitRequest.notes': 'Kit notes',
 };
 
 const summaryLine = (path: string, message: string) => {
@@ -92,6 +95,8 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
       form.setValue('vehicle', event.target.value === 'new' ? { kind: 'new', vehicle: NEW_VEHICLE } : { kind: 'existing', vehicleId: '' }),
   });
   const create = useCreateJob();
+  // "I need a flashing kit": kept beside the form values and sent as kitRequest only when ticked.
+  const [kit, setKit] = useState({ wanted: false, startDate: '', dueDate: '', notes: '' });
   const customerKind = useWatch({ control: form.control, name: 'customer.kind' });
   const chosenCustomer = useWatch({ control: form.control, name: 'customer.customerUserId' });
   const vehicleKind = useWatch({ control: form.control, name: 'vehicle.kind' });
@@ -120,17 +125,23 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
   const activePackages = (packages.data?.data ?? []).filter((pkg) => pkg.active);
   const priceOf = (pkg: (typeof activePackages)[number]) => formatMoney(me.role === 'dealer' && pkg.dealerPriceMinor !== null ? pkg.dealerPriceMinor : pkg.retailPriceMinor, currency);
 
-  const onSubmit = form.handleSubmit((values) =>
+  const onSubmit = form.handleSubmit((values) => {
+    if (kit.wanted && (!kit.startDate || !kit.dueDate)) {
+      if (!kit.startDate) form.setError('kitRequest.startDate', { message: 'Choose the day the kit is needed from.' });
+      if (!kit.dueDate) form.setError('kitRequest.dueDate', { message: 'Choose the day the kit goes back.' });
+      return;
+    }
+    const kitRequest = kit.wanted ? { startDate: kit.startDate, dueDate: kit.dueDate, notes: kit.notes } : undefined;
     create.mutate(
-      { ...values, specialRequests: keepFilledRequests(values.specialRequests) },
+      { ...values, specialRequests: keepFilledRequests(values.specialRequests), kitRequest },
       {
         onSuccess: (response) => onDone(response.data),
         onError: (error) => {
           for (const [path, message] of Object.entries(fieldErrorsFrom(error))) form.setError(path as FieldPath<JobIntakeFormValues>, { message });
         },
       },
-    ),
-  );
+    );
+  });
 
   const request = (name: 'shiftPoints' | 'revLimit' | 'launch' | 'idle', label: string) => (
     <div className="grid gap-3 sm:grid-cols-[10rem_1fr]">
@@ -267,6 +278,32 @@ export function JobIntakeForm({ me, customerUserId, onDone, onCancel }: JobIntak
           {request('launch', 'Launch')}
           {request('idle', 'Idle speed')}
         </div>
+      </Card>
+
+      <Card title="Flashing kit" description="No interface or laptop of your own? The shop can rent you a kit for the length of the tune.">
+        <label className="flex items-start gap-2 text-sm font-medium text-ink-900">
+          <input id={fieldId('intake', 'kitRequest')} type="checkbox" className="mt-0.5 size-4 accent-accent-600" checked={kit.wanted} onChange={(e) => setKit({ ...kit, wanted: e.target.checked })} />
+          {isCustomer ? 'I need a flashing kit' : 'The customer needs a flashing kit'}
+        </label>
+        {kit.wanted && (
+          <div className="mt-3 flex flex-col gap-3">
+            <div className="grid gap-3 sm:grid-cols-2">
+              <Field id={fieldId('intake', 'kitRequest.startDate')} label="Kit needed from" error={err('kitRequest.startDate')}>
+                {(a11y) => <Input {...a11y} type="date" value={kit.startDate} onChange={(e) => setKit({ ...kit, startDate: e.target.value })} />}
+              </Field>
+              <Field id={fieldId('intake', 'kitRequest.dueDate')} label="Kit due back" error={err('kitRequest.dueDate')}>
+                {(a11y) => <Input {...a11y} type="date" value={kit.dueDate} onChange={(e) => setKit({ ...kit, dueDate: e.target.value })} />}
+              </Field>
+            </div>
+            <Field id={fieldId('intake', 'kitRequest.notes')} label="Kit notes (optional)" error={err('kitRequest.notes')}>
+              {(a11y) => <Input {...a11y} value={kit.notes} onChange={(e) => setKit({ ...kit, notes: e.target.value })} />}
+            </Field>
+            <p className="text-sm text-ink-700">
+              The shop picks the kit and confirms the dates (its shipping days come on top). Before the kit ships you see the price and the deposit, agree to the
+              rental terms (late, damaged or lost kits), pay the fee and authorise the deposit hold on your card.
+            </p>
+          </div>
+        )}
       </Card>
 
       <Card title="Cautions">

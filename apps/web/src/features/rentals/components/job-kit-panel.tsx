@@ -1,9 +1,8 @@
 import { useState } from 'react';
 import { useAbility } from '@casl/react';
-import type { Rental } from '@revloop/contract';
 import type { AppAbility } from '@revloop/domain/auth';
 import { formatMoney } from '@revloop/domain/billing';
-import { addDays, RENTAL_STATE_LABELS, type RentalState } from '@revloop/domain/rentals';
+import { addDays, RENTAL_ENTRY_LABELS, RENTAL_STATE_LABELS, type RentalState } from '@revloop/domain/rentals';
 import { Badge } from '../../../components/ui/badge';
 import { Banner } from '../../../components/ui/banner';
 import { Button } from '../../../components/ui/button';
@@ -20,15 +19,7 @@ import { useStartRentalCheckout } from '../api/start-rental-checkout';
 import { KitDatesPicker, type KitDates } from './kit-dates-picker';
 import { RentalMoveForm } from './rental-move-form';
 
-const ENTRY_LABELS: Record<Rental['entries'][number]['kind'], string> = {
-  fee: 'Rental fee paid',
-  card_saved: 'Card saved for the deposit',
-  hold_placed: 'Deposit hold placed',
-  hold_released: 'Deposit hold released',
-  hold_lapsed: 'Deposit hold lapsed (placed again)',
-  capture: 'Taken from the deposit',
-  late_fee: 'Late fee',
-};
+const ENTRY_LABELS = RENTAL_ENTRY_LABELS;
 
 const TERMS =
   'If the kit comes back late, each late day is charged at the late fee per day. If it comes back damaged or with items missing, the shop may take part or all of the deposit held on your card and tells you why; if it is lost, the whole deposit. The rest of the hold is released.';

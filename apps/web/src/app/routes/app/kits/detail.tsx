@@ -14,6 +14,7 @@ import { paths } from '../../../../config/paths';
 import { useKit } from '../../../../features/kits/api/get-kit';
 import { useKitBookings } from '../../../../features/kits/api/get-kit-bookings';
 import { KitForm } from '../../../../features/kits/components/kit-form';
+import { KitPhotos } from '../../../../features/kits/components/kit-photos';
 import { monthOf, MonthCalendar } from '../../../../features/kits/components/month-calendar';
 import { errorMessage } from '../../../../lib/form-errors';
 import { formatDate, formatDateTime } from '../../../../lib/format';
@@ -85,6 +86,7 @@ function KitScreen({ kitId }: { kitId: string }) {
           </Card>
         )}
         <KitBookings kitId={k.id} />
+        <KitPhotos kitId={k.id} photos={k.photos} canEdit={ability.can('update', 'Kit')} />
         <Card title="History">
           {k.history.length === 0 ? (
             <p className="text-sm text-ink-600">Nothing has happened to this kit yet.</p>

@@ -2,11 +2,14 @@ import { useState } from 'react';
 import { addDays } from '@revloop/domain/rentals';
 import { PageHeader } from '../../../../components/layout/page-header';
 import { Banner } from '../../../../components/ui/banner';
+import { buttonClasses } from '../../../../components/ui/button';
 import { Field } from '../../../../components/ui/field';
 import { Input } from '../../../../components/ui/input';
 import { PageSpinner } from '../../../../components/ui/spinner';
 import { useKitOverview } from '../../../../features/kits/api/get-kit-overview';
 import { KitOverviewView } from '../../../../features/kits/components/kit-overview-table';
+import { getRentalMoneyExportHref } from '../../../../features/rentals/api/export-rental-money';
+import { cn } from '../../../../lib/cn';
 import { errorMessage } from '../../../../lib/form-errors';
 import { RequireScreen } from '../require-screen';
 
@@ -25,6 +28,11 @@ function KitOverviewScreen() {
         <Field id="overview-to" label="To">
           {(a) => <Input {...a} type="date" value={range.to} onChange={(e) => setRange((r) => ({ ...r, to: e.target.value }))} />}
         </Field>
+        {valid && (
+          <a href={getRentalMoneyExportHref(range)} download className={cn(buttonClasses('secondary', 'sm'), 'self-end')}>
+            Export money lines (CSV)
+          </a>
+        )}
       </div>
       {overview.isPending ? (
         valid && <PageSpinner label="Loading the overview" />
