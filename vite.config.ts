@@ -1,4 +1,12 @@
+import path from 'node:path';
 import { defineConfig } from 'vitest/config';
+
+// The PostgreSQL runs of a suite: one throwaway cluster per run (tests/with-postgres.ts), a database per test file.
+const onPostgres = {
+  globalSetup: [path.resolve(import.meta.dirname, 'tests/with-postgres.ts')],
+  setupFiles: [path.resolve(import.meta.dirname, 'tests/postgres-test-file.ts')],
+  env: { REVLOOP_TEST_DB: 'postgres' },
+};
 
 // Root Vitest config: one project per workspace, all run by `npm run test:unit`.
 export default defineConfig({
@@ -6,6 +14,7 @@ export default defineConfig({
     projects: [
       { test: { name: 'domain', root: 'packages/domain', include: ['src/**/*.test.ts'], environment: 'node' } },
       { test: { name: 'db', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node' } },
+      { test: { name: 'db-pg', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 60000, ...onPostgres } },
       { test: { name: 'api', root: 'apps/api', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 30000 } },
       { test: { name: 'stand-ins', root: 'packages/stand-ins', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000 } },
       { test: { name: 'web', root: 'apps/web', include: ['src/**/*.test.{ts,tsx}'], environment: 'node' } },

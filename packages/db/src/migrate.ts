@@ -13,6 +13,8 @@ import * as reports from './migrations/2026-12-02-010-reports';
 import * as rentals from './migrations/2026-12-02-011-rentals';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
 import * as revisionDrafts from './migrations/2026-12-02-013-revision-drafts';
+import * as postgresRowSecurity from './migrations/2026-12-03-014-postgres-row-security';
+import { PostgresSchemaPlugin, onPostgres } from './migrations/dialect';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -29,13 +31,16 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-011-rentals': rentals,
   '2026-12-02-012-job-list-versions': jobListVersions,
   '2026-12-02-013-revision-drafts': revisionDrafts,
+  '2026-12-03-014-postgres-row-security': postgresRowSecurity,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
 
 export async function migrateToLatest(db: Db): Promise<string[]> {
   // Migrations are numbered by the branch that wrote them, not by landing order, so a database may meet a lower number late.
-  const migrator = new Migrator({ db, provider, allowUnorderedMigrations: true });
+  // On PostgreSQL the schema builder's `integer` columns become `bigint` (SQLite's integer is 64-bit; see dialect.ts).
+  const target = onPostgres(db) ? db.withPlugin(new PostgresSchemaPlugin()) : db;
+  const migrator = new Migrator({ db: target, provider, allowUnorderedMigrations: true });
   const { error, results } = await migrator.migrateToLatest();
   if (error) throw error instanceof Error ? error : new Error(String(error));
   return (results ?? []).filter((r) => r.status === 'Success').map((r) => r.migrationName);
