@@ -11,6 +11,9 @@ export const sqlFalse: RawBuilder<SqlBool> = sql<SqlBool>`1 = 0`;
 /** How many rows meet `condition`, inside an aggregate query (`sum(a = b)` sums booleans only on SQLite). */
 export const countWhere = (condition: RawBuilder<unknown>): RawBuilder<number> => sql<number>`sum(case when ${condition} then 1 else 0 end)`;
 
+/** The operator of a search that ignores ASCII case: SQLite's `like` already does; PostgreSQL's needs `ilike`. */
+export const caseBlindLike = (db: Db): 'like' | 'ilike' => (dialectOf(db) === 'postgres' ? 'ilike' : 'like');
+
 /** A top-level key of a JSON text column, as text (`'$.key'` in SQLite, `->>` on PostgreSQL). */
 export function jsonText(db: Db, column: string, key: string): RawBuilder<string | null> {
   return dialectOf(db) === 'postgres'
@@ -30,6 +33,11 @@ export function hoursBetween(db: Db, later: Expression<unknown> | RawBuilder<unk
   return dialectOf(db) === 'postgres'
     ? sql<number | null>`(extract(epoch from ((${later})::timestamptz - (${earlier})::timestamptz)) / 3600.0)`
     : sql<number | null>`((julianday(${later}) - julianday(${earlier})) * 24)`;
+}
+
+/** The whole part of a non-negative number (SQLite's cast to integer truncates; PostgreSQL's rounds). */
+export function wholePart(db: Db, value: RawBuilder<unknown>): RawBuilder<number> {
+  return dialectOf(db) === 'postgres' ? sql<number>`trunc(${value})` : sql<number>`cast(${value} as integer)`;
 }
 
 /** The values of an aggregate group joined by `separator` (group_concat / string_agg). */
