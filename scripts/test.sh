@@ -4,13 +4,14 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-deps.sh
 bash scripts/ensure-chromium.sh
+bash scripts/ensure-postgres.sh
 mkdir -p .tmp
 rm -f .tmp/vitest.json .tmp/playwright.json
 
 echo "== compile the CLI and datalog workers"; node apps/api/scripts/build-node.mjs
 echo "== typecheck"; npm run -s typecheck
 echo "== lint"; npm run -s lint
-echo "== unit and API tests"
+echo "== unit and API tests (the db-pg project on a throwaway PostgreSQL cluster, or PG_TEST_URL)"
 status=0
 npx vitest run --reporter=default --reporter=json --outputFile.json=.tmp/vitest.json || status=$?
 echo "== build web app"; npm run -s build
