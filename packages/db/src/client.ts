@@ -1,5 +1,5 @@
 import BetterSqlite3 from 'better-sqlite3';
-import { Kysely, PostgresAdapter, PostgresDialect, SqliteDialect } from 'kysely';
+import { Kysely, PostgresAdapter, PostgresDialect, SqliteDialect, sql } from 'kysely';
 import pg from 'pg';
 import type { Database } from './database';
 
@@ -74,6 +74,16 @@ export function createDb(source: string | Buffer, options: CreateDbOptions = {})
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export function dialectOf(db: Kysely<any>): Dialect {
   return db.getExecutor().adapter instanceof PostgresAdapter ? 'postgres' : 'sqlite';
+}
+
+/** One round trip to the database: its engine when it answers, `unreachable` when it does not (readiness checks). */
+export async function pingDb(db: Db): Promise<Dialect | 'unreachable'> {
+  try {
+    await sql`select 1`.execute(db);
+    return dialectOf(db);
+  } catch {
+    return 'unreachable';
+  }
 }
 
 /** The whole database as bytes (SQLite's serialize), e.g. to give every test its own copy of one seeded database. */

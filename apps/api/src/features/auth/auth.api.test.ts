@@ -26,6 +26,12 @@ describe('sign-in and sessions', () => {
     expect(res.body).toEqual({ status: 'ok' });
   });
 
+  it('answers readiness with the database it reached', async () => {
+    const res = await request(t.app).get('/api/health/ready');
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ status: 'ok', database: 'sqlite' });
+  });
+
   it('signs in with a hardened cookie and answers /api/me', async () => {
     const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'owner@bench.test', password: TEST_PASSWORD });
     expect(res.status).toBe(200);
