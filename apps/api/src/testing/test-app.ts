@@ -6,6 +6,7 @@ import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
 import { createDb, migrateToLatest, snapshotDb, type Db } from '@revloop/db';
+import { copyTemplate, testEngine } from '@revloop/db/testing';
 import { createApp } from '../app';
 import type { AppDeps } from '../context';
 import { loadEnv, type Env } from '../env';
@@ -75,7 +76,9 @@ export function migratedTemplate(): Promise<MigratedTemplate> {
 /** The whole API on an empty migrated in-memory database, a fake clock and a live local SMTP mailbox. */
 export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean; database?: Buffer } = {}): Promise<TestApp> {
   const { snapshot, dataDir } = await migratedTemplate();
-  const db = createDb(options.database ?? snapshot);
+  if (options.database && testEngine() === 'postgres') throw new Error('A SQLite snapshot cannot seed a PostgreSQL test database.');
+  // api-pg: each app gets its own copy of the migrated PostgreSQL template (tests/with-postgres.ts).
+  const db = testEngine() === 'postgres' ? await copyTemplate() : createDb(options.database ?? snapshot);
   const clock = new FakeClock();
   const blobs = new BlobStore(dataDir);
   const smtp = await startSmtpFake();

@@ -57,7 +57,8 @@ export async function dropTestDbs(): Promise<void> {
   const adminUrl = process.env.REVLOOP_PG_TEST_ADMIN_URL;
   fileDb = undefined;
   const all = opened.splice(0);
-  await Promise.all(all.map(({ db }) => db.destroy()));
+  // A test app may have closed its database already; a second destroy only complains.
+  await Promise.all(all.map(({ db }) => db.destroy().catch(() => undefined)));
   if (!adminUrl || all.length === 0) return;
   const client = new pg.Client({ connectionString: adminUrl });
   await client.connect();
