@@ -1,4 +1,12 @@
+import path from 'node:path';
 import { defineConfig } from 'vitest/config';
+
+// The PostgreSQL runs of a suite: one throwaway cluster per run (tests/with-postgres.ts), a database per test file.
+const onPostgres = {
+  globalSetup: [path.resolve(import.meta.dirname, 'tests/with-postgres.ts')],
+  setupFiles: [path.resolve(import.meta.dirname, 'tests/postgres-test-file.ts')],
+  env: { REVLOOP_TEST_DB: 'postgres' },
+};
 
 // Root Vitest config: one project per workspace, all run by `npm run test:unit`.
 export default defineConfig({
@@ -22,6 +30,11 @@ export default defineConfig({
       },
       // The crash test starts and kills real servers in child processes: it keeps a worker of its own.
       { test: { name: 'api-crash', root: 'apps/api', include: ['src/features/recovery/crash.api.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 30000 } },
+      { test: { name: 'db-pg', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 60000, ...onPostgres } },
+      // The API suite on PostgreSQL: opt in with REVLOOP_API_PG=1 until it passes there (docs/decisions/013).
+      ...(process.env.REVLOOP_API_PG === '1'
+        ? [{ test: { name: 'api-pg', root: 'apps/api', include: ['src/**/*.test.ts'], exclude: ['src/features/recovery/crash.api.test.ts'], environment: 'node' as const, testTimeout: 30000, hookTimeout: 60000, ...onPostgres } }]
+        : []),
       { test: { name: 'stand-ins', root: 'packages/stand-ins', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000 } },
       { test: { name: 'web', root: 'apps/web', include: ['src/**/*.test.{ts,tsx}'], environment: 'node' } },
       // Checks of the repository's own tooling, such as the import rules in eslint.config.js.

@@ -5,6 +5,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { pinoHttp } from 'pino-http';
 import { DomainError } from '@revloop/domain';
+import { pingDb } from '@revloop/db';
 import type { AppDeps } from './context';
 import { createAdminRouter } from './features/admin/admin.router';
 import { createAuditRouter } from './features/audit/audit.router';
@@ -63,6 +64,11 @@ export function createApp(deps: AppDeps): Express {
   api.use(express.json({ limit: '1mb' }));
   api.get('/health', (_req, res) => {
     res.json({ status: 'ok' });
+  });
+  // Readiness for a load balancer: this instance reaches its database (liveness is /health, which touches nothing).
+  api.get('/health/ready', async (_req, res) => {
+    const database = await pingDb(deps.db);
+    res.status(database === 'unreachable' ? 503 : 200).json({ status: database === 'unreachable' ? 'unavailable' : 'ok', database });
   });
   api.use(sameOrigin([deps.env.APP_ORIGIN]));
   api.use(

@@ -20,7 +20,9 @@ const env = loadEnv();
 const logger = pino({ level: env.LOG_LEVEL });
 
 fs.mkdirSync(env.DATA_DIR, { recursive: true });
-const db = createDb(path.join(env.DATA_DIR, 'revloop.db'));
+// PostgreSQL when DATABASE_URL is set, else SQLite in DATA_DIR. Instances starting together migrate one at a time
+// (the migrator holds a lock); deploys may run `npm run migrate` first instead.
+const db = createDb(env.DATABASE_URL ?? path.join(env.DATA_DIR, 'revloop.db'));
 await migrateToLatest(db);
 
 const smtp = env.LOCAL_SMTP ? await startSmtpFake({ port: env.SMTP_PORT }) : undefined;

@@ -1,8 +1,12 @@
 import BetterSqlite3 from 'better-sqlite3';
-import { Kysely, SqliteDialect } from 'kysely';
+import { Kysely, PostgresAdapter, PostgresDialect, SqliteDialect, sql } from 'kysely';
+import pg from 'pg';
 import type { Database } from './database';
 
 export type Db = Kysely<Database>;
+
+/** Which engine a database (or a transaction on it) runs on. */
+export type Dialect = 'sqlite' | 'postgres';
 
 const handles = new WeakMap<Db, BetterSqlite3.Database>();
 
@@ -24,11 +28,38 @@ function reusingStatements(sqlite: BetterSqlite3.Database): (source: string) => 
   };
 }
 
+/** True for a `postgres://` or `postgresql://` connection string (DATABASE_URL); anything else is a SQLite file. */
+export function isPostgresUrl(source: string | Buffer): source is string {
+  return typeof source === 'string' && /^postgres(ql)?:\/\//i.test(source);
+}
+
+// Row values read the same on both engines: SQLite gives JavaScript numbers, so PostgreSQL's bigint (int8: counts,
+// epoch milliseconds) and numeric (sums of bigint) come back as numbers too, not strings. Money is in minor units and
+// times in milliseconds, both far below 2^53.
+const pgTypes = {
+  getTypeParser: ((oid: number, format?: 'text' | 'binary') => {
+    if (oid === pg.types.builtins.INT8 || oid === pg.types.builtins.NUMERIC) return (value: string) => Number(value);
+    return pg.types.getTypeParser(oid, format);
+  }) as typeof pg.types.getTypeParser,
+};
+
+export interface CreateDbOptions {
+  /** PostgreSQL only: most connections the pool opens (default 10). */
+  poolSize?: number;
+}
+
 /**
- * Opens the embedded SQLite database in WAL mode with foreign keys on. `:memory:` gives a throwaway one; a
- * Buffer from `snapshotDb` gives an in-memory copy of that snapshot.
+ * Opens the database. A `postgres://` URL (DATABASE_URL) gives Kysely's PostgreSQL dialect on a `pg` pool; anything
+ * else is the embedded SQLite database in WAL mode with foreign keys on. `:memory:` gives a throwaway one; a Buffer
+ * from `snapshotDb` gives an in-memory copy of that snapshot.
  */
-export function createDb(source: string | Buffer): Db {
+export function createDb(source: string | Buffer, options: CreateDbOptions = {}): Db {
+  if (isPostgresUrl(source)) {
+    const pool = new pg.Pool({ connectionString: source, max: options.poolSize ?? 10, types: pgTypes });
+    // An idle client that loses its server (restart, failover) emits here; the pool drops it and opens another.
+    pool.on('error', () => {});
+    return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+  }
   const sqlite = new BetterSqlite3(source);
   sqlite.pragma('journal_mode = WAL');
   sqlite.pragma('foreign_keys = ON');
@@ -39,9 +70,25 @@ export function createDb(source: string | Buffer): Db {
   return db;
 }
 
+/** The engine behind `db`; works on a transaction or connection too (it asks the query adapter). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export function dialectOf(db: Kysely<any>): Dialect {
+  return db.getExecutor().adapter instanceof PostgresAdapter ? 'postgres' : 'sqlite';
+}
+
+/** One round trip to the database: its engine when it answers, `unreachable` when it does not (readiness checks). */
+export async function pingDb(db: Db): Promise<Dialect | 'unreachable'> {
+  try {
+    await sql`select 1`.execute(db);
+    return dialectOf(db);
+  } catch {
+    return 'unreachable';
+  }
+}
+
 /** The whole database as bytes (SQLite's serialize), e.g. to give every test its own copy of one seeded database. */
 export function snapshotDb(db: Db): Buffer {
   const sqlite = handles.get(db);
-  if (!sqlite) throw new Error('Not a database opened by createDb.');
+  if (!sqlite) throw new Error('Not a SQLite database opened by createDb (snapshots are SQLite only).');
   return sqlite.serialize();
 }

@@ -16,6 +16,8 @@ import * as revisionDrafts from './migrations/2026-12-02-013-revision-drafts';
 import * as paidBeforeDownload from './migrations/2026-12-03-014-paid-before-download';
 import * as reportTables from './migrations/2026-12-03-015-report-tables';
 import * as kitPhotos from './migrations/2026-12-03-016-kit-photos';
+import * as postgresRowSecurity from './migrations/2026-12-03-018-postgres-row-security';
+import { PostgresSchemaPlugin, onPostgres } from './migrations/dialect';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -35,13 +37,16 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-03-014-paid-before-download': paidBeforeDownload,
   '2026-12-03-015-report-tables': reportTables,
   '2026-12-03-016-kit-photos': kitPhotos,
+  '2026-12-03-018-postgres-row-security': postgresRowSecurity,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
 
 export async function migrateToLatest(db: Db): Promise<string[]> {
   // Migrations are numbered by the branch that wrote them, not by landing order, so a database may meet a lower number late.
-  const migrator = new Migrator({ db, provider, allowUnorderedMigrations: true });
+  // On PostgreSQL the schema builder's `integer` columns become `bigint` (SQLite's integer is 64-bit; see dialect.ts).
+  const target = onPostgres(db) ? db.withPlugin(new PostgresSchemaPlugin()) : db;
+  const migrator = new Migrator({ db: target, provider, allowUnorderedMigrations: true });
   const { error, results } = await migrator.migrateToLatest();
   if (error) throw error instanceof Error ? error : new Error(String(error));
   return (results ?? []).filter((r) => r.status === 'Success').map((r) => r.migrationName);

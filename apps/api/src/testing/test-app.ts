@@ -6,6 +6,7 @@ import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
 import { createDb, migrateToLatest, snapshotDb, type Db } from '@revloop/db';
+import { copyTemplate, testEngine } from '@revloop/db/testing';
 import { createApp } from '../app';
 import type { AppDeps } from '../context';
 import { loadEnv, type Env } from '../env';
@@ -75,12 +76,15 @@ function migratedTemplate(): Promise<MigratedTemplate> {
 /**
  * The whole API on an empty migrated in-memory database, a fake clock and a live local SMTP mailbox. With `dataDir`,
  * on a database file and a blob store in that folder instead, laid out as the server keeps them, so a test can build
- * rows with the factories and then start the real server on the folder.
+ * rows with the factories and then start the real server on the folder. In the api-pg project each app gets its own
+ * copy of the migrated PostgreSQL template (tests/with-postgres.ts).
  */
 export async function createTestApp(envOverrides: Record<string, string> = {}, options: { stripe?: boolean; database?: Buffer; dataDir?: string } = {}): Promise<TestApp> {
   const template = await migratedTemplate();
   const dataDir = options.dataDir ?? template.dataDir;
-  const db = createDb(options.dataDir ? path.join(options.dataDir, 'revloop.db') : (options.database ?? template.snapshot));
+  const onPg = testEngine() === 'postgres';
+  if (onPg && (options.database || options.dataDir)) throw new Error('A SQLite snapshot or data folder cannot seed a PostgreSQL test database.');
+  const db = onPg ? await copyTemplate() : createDb(options.dataDir ? path.join(options.dataDir, 'revloop.db') : (options.database ?? template.snapshot));
   if (options.dataDir) await migrateToLatest(db);
   const clock = new FakeClock();
   const blobs = new BlobStore(dataDir);

@@ -43,7 +43,7 @@ describe('billing repositories', () => {
     const credit = { shopId: shopA, dealerId: dealer.id, kind: 'top_up' as const, amountMinor: 50000, currency: 'USD', paymentId: payment.id, memo: 'Top-up', at };
     await appendLedgerEntry(db, credit);
     await appendLedgerEntry(db, { shopId: shopA, dealerId: dealer.id, kind: 'adjustment', amountMinor: -12000, currency: 'USD', memo: 'Correction', at });
-    await expect(appendLedgerEntry(db, credit)).rejects.toThrow(/UNIQUE/);
+    await expect(appendLedgerEntry(db, credit)).rejects.toThrow(/unique constraint/i);
     const entries = await listLedgerEntries(db, shopA, dealer.id);
     expect(entries.map((e) => [e.seq, e.amount_minor, e.balance_after_minor])).toEqual([
       [1, 50000, 50000],
@@ -51,7 +51,7 @@ describe('billing repositories', () => {
     ]);
     await expect(db.updateTable('ledger_entries').set({ amount_minor: 1 }).execute()).rejects.toThrow(/append-only/);
     await expect(db.deleteFrom('ledger_entries').execute()).rejects.toThrow(/append-only/);
-    await expect(appendLedgerEntry(db, { ...credit, kind: 'job_debit', paymentId: null })).rejects.toThrow(/CHECK/);
+    await expect(appendLedgerEntry(db, { ...credit, kind: 'job_debit', paymentId: null })).rejects.toThrow(/check constraint/i);
   });
 
   it('sums refunds per payment and claims a webhook event once', async () => {

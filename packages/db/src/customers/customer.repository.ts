@@ -1,5 +1,6 @@
 import { sql } from 'kysely';
 import type { Db } from '../client';
+import { joinedText, largestOf, sqlFalse } from '../sql-functions';
 
 export const CUSTOMER_SORTS = ['name', 'email', 'open_jobs', 'last_activity', 'paid'] as const;
 export type CustomerSort = (typeof CUSTOMER_SORTS)[number];
@@ -48,7 +49,7 @@ const likePattern = (text: string) => `%${text.toLowerCase().replace(/[\\%_]/g, 
  * thousands of customers; `total` is the count before paging.
  */
 export async function listCustomers(db: Db, shopId: string, query: CustomerListQuery): Promise<{ rows: CustomerListRow[]; total: number }> {
-  const rows = await customerPageQuery(shopId, query).execute(db);
+  const rows = await customerPageQuery(db, shopId, query).execute(db);
   const total = await sql<{ n: number }>`select count(*) as n from memberships m join users u on u.id = m.user_id where ${customerWhere(shopId, query)}`.execute(db);
   return { rows: rows.rows, total: Number(total.rows[0]?.n ?? 0) };
 }
@@ -67,7 +68,7 @@ function customerWhere(shopId: string, query: CustomerListQuery) {
 }
 
 /** One page of the Customers list with its sums (exported for its query-plan test). */
-export function customerPageQuery(shopId: string, query: CustomerListQuery) {
+export function customerPageQuery(db: Db, shopId: string, query: CustomerListQuery) {
   const where = customerWhere(shopId, query);
   const dir = query.dir === 'desc' ? sql`desc` : sql`asc`;
   const order = sql`order by ${SORT_SQL[query.sort]} ${dir}, u.name asc, m.id asc`;
@@ -78,7 +79,7 @@ export function customerPageQuery(shopId: string, query: CustomerListQuery) {
   return sql<CustomerListRow>`
     with page as (
       select m.user_id from memberships m join users u on u.id = m.user_id
-      where ${pageFirst ? where : sql`0`} ${order} limit ${query.limit} offset ${query.offset}
+      where ${pageFirst ? where : sqlFalse} ${order} limit ${query.limit} offset ${query.offset}
     ), job_agg as (
       select customer_user_id, count(*) as job_count, sum(is_open) as open_jobs, max(updated_at) as last_job_at
       from jobs where shop_id = ${shopId} ${pageOnly('customer_user_id')} group by customer_user_id
@@ -89,10 +90,10 @@ export function customerPageQuery(shopId: string, query: CustomerListQuery) {
     select m.user_id, m.id as membership_id, u.name, u.email, m.status, m.dealer_id, d.name as dealer_name,
       m.created_at as since,
       coalesce(va.vehicle_count, 0) as vehicle_count,
-      (select group_concat(description, ' · ') from (select description from vehicles lv
-         where lv.shop_id = ${shopId} and lv.owner_user_id = m.user_id order by lv.created_at limit 3)) as vehicles,
+      (select ${joinedText(db, sql.ref('first3.description'), ' · ')} from (select description from vehicles lv
+         where lv.shop_id = ${shopId} and lv.owner_user_id = m.user_id order by lv.created_at limit 3) as first3) as vehicles,
       coalesce(ja.open_jobs, 0) as open_jobs, coalesce(ja.job_count, 0) as job_count,
-      max(m.created_at, coalesce(ja.last_job_at, ''), coalesce(va.last_vehicle_at, '')) as last_activity,
+      ${largestOf(db, sql`m.created_at`, sql`coalesce(ja.last_job_at, '')`, sql`coalesce(va.last_vehicle_at, '')`)} as last_activity,
       coalesce(cs.paid_minor - cs.refunded_minor, 0) as paid_minor
     from memberships m
     join users u on u.id = m.user_id

@@ -72,7 +72,7 @@ describe('calibration file repository', () => {
     const { db, shopB, ownerB } = await twoShops();
     const job = await jobIn(db, shopB, ownerB, 1001);
     await insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1 }));
-    await expect(insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1 }))).rejects.toThrow(/UNIQUE/);
+    await expect(insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1 }))).rejects.toThrow(/unique constraint/i);
   });
 
   it('matches revisions of other jobs in the same shop only', async () => {

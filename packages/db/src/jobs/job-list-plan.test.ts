@@ -5,6 +5,7 @@ import { listAuditEventsQuery } from '../audit/audit-event.repository';
 import type { Db } from '../client';
 import { newId, nowIso } from '../ids';
 import { insertPackage } from '../packages/package.repository';
+import { testEngine } from '../testing/postgres';
 import { twoShops } from '../testing/two-shops';
 import { insertVehicle } from '../vehicles/vehicle.repository';
 import { JOB_SORTS, countJobs, insertJob, listJobsQuery, updateJob, type JobListFilter } from './job.repository';
@@ -52,7 +53,9 @@ async function seedJobs(db: Db, shopId: string, customerId: string, count: numbe
 const boardFilter: JobListFilter = { open: true };
 const boardPage = { sort: 'state_changed' as const, direction: 'asc' as const, offset: 0, limit: 200 };
 
-describe('board and job page queries at scale use their indexes', () => {
+// The plans are SQLite's (EXPLAIN QUERY PLAN); PostgreSQL's planner answers a few test rows with a scan whatever the
+// indexes, so its plans are judged at scale by the bench instead.
+describe.skipIf(testEngine() === 'postgres')('board and job page queries at scale use their indexes', () => {
   it('the board (open jobs, longest in state first) reads the open-jobs index in order', async () => {
     const { db, shopA, ownerA } = await twoShops();
     await seedJobs(db, shopA, ownerA, 40);
@@ -107,6 +110,7 @@ describe('job counts kept by triggers', () => {
       expect(await countJobs(db, shopId, { kind: 'shop' }, { open: true })).toBe(await counted(shopId, [...OPEN_STATES]));
     }
     // The tally is what answers the unfiltered count: no row of the jobs table is read for it.
+    if (testEngine() === 'postgres') return;
     const plan = await db.executeQuery<{ detail: string }>(
       CompiledQuery.raw(`explain query plan select sum(n) from job_state_counts where shop_id = ?`, [shopA]),
     );

@@ -2,6 +2,7 @@ import { sql, type Expression, type ExpressionBuilder, type SqlBool } from 'kyse
 import type { JobScope } from '@revloop/domain/auth';
 import type { JobState } from '@revloop/domain/jobs';
 import type { Db } from '../client';
+import { caseBlindLike, sqlFalse } from '../sql-functions';
 import type { Database } from '../database';
 import type { InsertableJobRow, JobMessageRow, JobRow, UpdateableJobRow } from './job.table';
 
@@ -41,7 +42,7 @@ function jobConditions(shopId: string, scope: JobScope, filter: JobListFilter) {
       terms.push(eb.or([eb('jobs.assigned_tuner_id', '=', scope.userId), eb('jobs.assigned_tuner_id', 'is', null), eb('jobs.drafts_awaiting_approval', '>', 0)]));
     } else if (scope.kind === 'dealer') terms.push(eb('jobs.dealer_id', '=', scope.dealerId));
     else if (scope.kind === 'customer') terms.push(eb('jobs.customer_user_id', '=', scope.userId));
-    else if (scope.kind === 'none') terms.push(sql<SqlBool>`0`);
+    else if (scope.kind === 'none') terms.push(sqlFalse);
     if (filter.states?.length) terms.push(eb('jobs.state', 'in', filter.states));
     if (filter.open) terms.push(eb('jobs.is_open', '=', 1));
     if (filter.tunerId === 'unassigned') terms.push(eb('jobs.assigned_tuner_id', 'is', null));
@@ -64,12 +65,13 @@ function filtered(db: Db, shopId: string, scope: JobScope, filter: JobListFilter
   if (filter.text) {
     const like = `%${filter.text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     const number = Number(filter.text.replace(/^#/, ''));
+    const op = caseBlindLike(db);
     query = query.where((eb) =>
       eb.or([
-        eb(sql`vehicles.description`, 'like', sql`${like} escape '\\'`),
-        eb(sql`vehicles.vin`, 'like', sql`${like} escape '\\'`),
-        eb(sql`customer.name`, 'like', sql`${like} escape '\\'`),
-        eb(sql`customer.email`, 'like', sql`${like} escape '\\'`),
+        eb(sql`vehicles.description`, op, sql`${like} escape '\\'`),
+        eb(sql`vehicles.vin`, op, sql`${like} escape '\\'`),
+        eb(sql`customer.name`, op, sql`${like} escape '\\'`),
+        eb(sql`customer.email`, op, sql`${like} escape '\\'`),
         ...(Number.isInteger(number) && number > 0 ? [eb('jobs.number', '=', number)] : []),
       ]),
     );

@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { onPostgres } from './dialect';
 
 const APPEND_ONLY = ['subscription_changes', 'payment_refunds', 'ledger_entries'];
 
@@ -118,9 +119,23 @@ export async function up(db: Kysely<any>): Promise<void> {
   await sql`create unique index ledger_entries_job_kind on ledger_entries (job_id, kind) where job_id is not null`.execute(db);
   await sql`create unique index ledger_entries_payment on ledger_entries (payment_id) where payment_id is not null`.execute(db);
 
+  if (onPostgres(db)) {
+    // PostgreSQL triggers call a function; one function refuses the change for every append-only table.
+    await sql`create function revloop_append_only() returns trigger language plpgsql as $$
+      begin raise exception '% is append-only', tg_table_name; end $$`.execute(db);
+    for (const table of APPEND_ONLY) await appendOnlyOnPostgres(db, table);
+    return;
+  }
   for (const table of APPEND_ONLY) {
     await sql`create trigger ${sql.raw(`${table}_no_update`)} before update on ${sql.table(table)} begin select raise(abort, ${sql.lit(`${table} is append-only`)}); end`.execute(db);
     await sql`create trigger ${sql.raw(`${table}_no_delete`)} before delete on ${sql.table(table)} begin select raise(abort, ${sql.lit(`${table} is append-only`)}); end`.execute(db);
+  }
+}
+
+/** PostgreSQL: updates and deletes on `table` fail with "<table> is append-only", as SQLite's raise(abort) does. */
+export async function appendOnlyOnPostgres(db: Kysely<any>, table: string): Promise<void> {
+  for (const event of ['update', 'delete']) {
+    await sql`create trigger ${sql.raw(`${table}_no_${event}`)} before ${sql.raw(event)} on ${sql.table(table)} for each row execute function revloop_append_only()`.execute(db);
   }
 }
 

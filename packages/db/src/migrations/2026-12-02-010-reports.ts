@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { onPostgres } from './dialect';
 
 // Frozen in time: never edit a migration that has shipped; add a new one.
 // Shop reports over a date range at 10,000 jobs per shop: each report reads only the rows of its range, in index order.
@@ -14,6 +15,10 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   // Log quality: each analysed log's check results, one row per check, kept by triggers from the stored report, so the
   // report counts small rows instead of parsing every log's whole analysis (tens of kilobytes of JSON) on each request.
+  if (onPostgres(db)) {
+    await datalogChecksOnPostgres(db);
+    return;
+  }
   await sql`create table datalog_checks (
     datalog_id text not null references datalogs(id) on delete cascade,
     shop_id text not null references shops(id) on delete cascade,
@@ -38,6 +43,39 @@ export async function up(db: Kysely<any>): Promise<void> {
     select d.id, d.shop_id, d.created_at, json_extract(c.value, '$.id'), json_extract(c.value, '$.status')
     from datalogs as d, json_each(d.report, '$.checks') as c
     where d.status = 'ready' and d.report is not null and json_extract(c.value, '$.id') is not null`.execute(db);
+}
+
+async function datalogChecksOnPostgres(db: Kysely<any>): Promise<void> {
+  await sql`create table datalog_checks (
+    datalog_id text not null references datalogs(id) on delete cascade,
+    shop_id text not null references shops(id) on delete cascade,
+    created_at text not null,
+    check_id text not null,
+    status text not null,
+    primary key (datalog_id, check_id)
+  )`.execute(db);
+  await db.schema.createIndex('datalog_checks_shop_created').on('datalog_checks').columns(['shop_id', 'created_at', 'check_id', 'status']).execute();
+  const checksOf = (row: string) => sql.raw(`jsonb_array_elements(coalesce((${row}.report::jsonb)->'checks', '[]'::jsonb)) as c(value)`);
+  const upsert = sql`on conflict (datalog_id, check_id) do update set shop_id = excluded.shop_id, created_at = excluded.created_at, status = excluded.status`;
+  await sql`create function datalogs_checks() returns trigger language plpgsql as $$
+    begin
+      if tg_op = 'UPDATE' then delete from datalog_checks where datalog_id = old.id; end if;
+      if new.status = 'ready' and new.report is not null then
+        insert into datalog_checks (datalog_id, shop_id, created_at, check_id, status)
+          select new.id, new.shop_id, new.created_at, c.value->>'id', c.value->>'status'
+          from ${checksOf('new')}
+          where c.value->>'id' is not null
+          ${upsert};
+      end if;
+      return null;
+    end $$`.execute(db);
+  await sql`create trigger datalogs_checks_insert after insert on datalogs for each row when (new.report is not null) execute function datalogs_checks()`.execute(db);
+  await sql`create trigger datalogs_checks_update after update of report, status on datalogs for each row execute function datalogs_checks()`.execute(db);
+  await sql`insert into datalog_checks (datalog_id, shop_id, created_at, check_id, status)
+    select d.id, d.shop_id, d.created_at, c.value->>'id', c.value->>'status'
+    from datalogs as d, ${checksOf('d')}
+    where d.status = 'ready' and d.report is not null and c.value->>'id' is not null
+    ${upsert}`.execute(db);
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

@@ -1,4 +1,6 @@
 import { sql, type Kysely } from 'kysely';
+import { appendOnlyOnPostgres } from './2026-12-02-005-billing';
+import { onPostgres } from './dialect';
 
 // Frozen in time: never edit a migration that has shipped; add a new one.
 export async function up(db: Kysely<any>): Promise<void> {
@@ -96,6 +98,10 @@ export async function up(db: Kysely<any>): Promise<void> {
     .execute();
 
   for (const table of ['rental_entries']) {
+    if (onPostgres(db)) {
+      await appendOnlyOnPostgres(db, table);
+      continue;
+    }
     await sql
       .raw(`create trigger ${table}_no_update before update on ${table} begin select raise(abort, '${table} is append-only'); end`)
       .execute(db);

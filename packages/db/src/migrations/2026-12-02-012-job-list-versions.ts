@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { onPostgres } from './dialect';
 
 // Frozen in time: never edit a migration that has shipped; add a new one.
 // A per-shop counter of everything a job list shows, bumped by triggers in the same transaction as the write, so any
@@ -19,6 +20,7 @@ const bump = (shops: string) =>
     on conflict (shop_id) do update set version = version + 1;`;
 
 export async function up(db: Kysely<any>): Promise<void> {
+  if (onPostgres(db)) return listVersionsOnPostgres(db);
   await sql`create table job_list_versions (
     shop_id text primary key references shops(id) on delete cascade,
     version integer not null
@@ -27,6 +29,33 @@ export async function up(db: Kysely<any>): Promise<void> {
     await sql.raw(`create trigger ${table}_list_version_insert after insert on ${table} begin ${bump(shopsOf('new'))} end`).execute(db);
     await sql.raw(`create trigger ${table}_list_version_update after update${columns ? ` of ${columns}` : ''} on ${table} begin ${bump(shopsOf('new'))} end`).execute(db);
     await sql.raw(`create trigger ${table}_list_version_delete after delete on ${table} begin ${bump(shopsOf('old'))} end`).execute(db);
+  }
+}
+
+// PostgreSQL: the same counter, one trigger function per watched table (a trigger runs a function, not statements).
+async function listVersionsOnPostgres(db: Kysely<any>): Promise<void> {
+  await sql`create table job_list_versions (
+    shop_id text primary key references shops(id) on delete cascade,
+    version bigint not null
+  )`.execute(db);
+  // A shop being deleted takes its counter with it: its rows' delete triggers must not write a new one.
+  const bumpPg = (shops: string) =>
+    `insert into job_list_versions (shop_id, version) select shop_id, 1 from (${shops}) as s
+      where exists (select 1 from shops where shops.id = s.shop_id)
+      on conflict (shop_id) do update set version = job_list_versions.version + 1;`;
+  for (const { table, shopsOf, columns } of WATCHED) {
+    await sql
+      .raw(
+        `create function ${table}_list_version() returns trigger language plpgsql as $$
+        begin
+          if tg_op = 'DELETE' then ${bumpPg(shopsOf('old'))} else ${bumpPg(shopsOf('new'))} end if;
+          return null;
+        end $$`,
+      )
+      .execute(db);
+    await sql.raw(`create trigger ${table}_list_version_insert after insert on ${table} for each row execute function ${table}_list_version()`).execute(db);
+    await sql.raw(`create trigger ${table}_list_version_update after update${columns ? ` of ${columns}` : ''} on ${table} for each row execute function ${table}_list_version()`).execute(db);
+    await sql.raw(`create trigger ${table}_list_version_delete after delete on ${table} for each row execute function ${table}_list_version()`).execute(db);
   }
 }
 

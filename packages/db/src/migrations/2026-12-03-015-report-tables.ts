@@ -1,4 +1,7 @@
 import { sql, type Kysely } from 'kysely';
+import type { Db } from '../client';
+import { hoursBetween, jsonNumber, jsonText } from '../sql-functions';
+import { onPostgres } from './dialect';
 
 // Frozen in time: never edit a migration that has shipped; add a new one.
 // Shop reports and the Customers list on a 10,000-job shop read small indexed rows kept by their writers, instead of
@@ -37,7 +40,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     refunded_minor integer not null default 0,
     updated_at text not null,
     primary key (shop_id, customer_user_id)
-  ) without rowid`.execute(db);
+  )${onPostgres(db) ? sql`` : sql` without rowid`}`.execute(db);
   await sql`insert into customer_summaries (shop_id, customer_user_id, paid_minor, refunded_minor, updated_at)
     select p.shop_id, j.customer_user_id, sum(p.amount_minor),
       coalesce(sum((select sum(r.amount_minor) from payment_refunds r where r.shop_id = p.shop_id and r.payment_id = p.id)), 0),
@@ -53,18 +56,22 @@ export async function up(db: Kysely<any>): Promise<void> {
  * takes the move's event id, so running this again adds nothing.
  */
 export async function backfillJobStints(db: Kysely<any>): Promise<void> {
-  await sql`insert or ignore into job_stints (id, shop_id, job_id, state, entered_at, left_at, hours, to_state, round, left_by_user_id)
-    select id, shop_id, job_id, state, entered_at, left_at, (julianday(left_at) - julianday(entered_at)) * 24, to_state, round, left_by_user_id
+  const on = db as Db;
+  const [from, to] = [jsonText(on, 'm.details', 'from'), jsonText(on, 'm.details', 'to')];
+  // `where true` lets SQLite tell the upsert's `on conflict` from a join constraint.
+  await sql`insert into job_stints (id, shop_id, job_id, state, entered_at, left_at, hours, to_state, round, left_by_user_id)
+    select id, shop_id, job_id, state, entered_at, left_at, ${hoursBetween(on, sql.ref('left_at'), sql.ref('entered_at'))}, to_state, round, left_by_user_id
     from (
-      select m.id, m.shop_id, m.subject_id as job_id, json_extract(m.details, '$.from') as state,
+      select m.id, m.shop_id, m.subject_id as job_id, ${from} as state,
         coalesce((select max(p.created_at) from audit_events p
           where p.shop_id = m.shop_id and p.subject_id = m.subject_id and p.action in ('job.opened', 'job.moved') and p.created_at < m.created_at), j.created_at) as entered_at,
-        m.created_at as left_at, json_extract(m.details, '$.to') as to_state, coalesce(json_extract(m.details, '$.round'), j.round) as round,
+        m.created_at as left_at, ${to} as to_state, coalesce(${jsonNumber(on, 'm.details', 'round')}, j.round) as round,
         (select u.id from users u where u.id = m.actor_user_id) as left_by_user_id
       from audit_events m join jobs j on j.id = m.subject_id and j.shop_id = m.shop_id
-      where m.action = 'job.moved' and m.subject_type = 'Job'
-        and json_extract(m.details, '$.from') is not null and json_extract(m.details, '$.to') is not null
-    )`.execute(db);
+      where m.action = 'job.moved' and m.subject_type = 'Job' and ${from} is not null and ${to} is not null
+    ) as moves
+    where true
+    on conflict do nothing`.execute(db);
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

@@ -17,6 +17,6 @@ describe('package repository', () => {
     const { db, shopA } = await twoShops();
     await expect(
       insertPackage(db, { id: newId(), shop_id: shopA, name: 'Bad', modules: '["ECM"]', retail_price_minor: 100, dealer_price_minor: 120, rounds_included: 1, created_at: nowIso() }),
-    ).rejects.toThrow(/CHECK constraint/);
+    ).rejects.toThrow(/check constraint/i);
   });
 });

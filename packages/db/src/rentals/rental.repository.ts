@@ -1,7 +1,8 @@
 import { sql } from 'kysely';
 import type { RentalScopeKind as RentalScope } from '@revloop/domain/auth';
 import { BLOCKING_STATES, KIT_AWAY_STATES, type RentalState } from '@revloop/domain/rentals';
-import type { Db } from '../client';
+import { dialectOf, type Db } from '../client';
+import { sqlFalse } from '../sql-functions';
 import type {
   InsertableKitRow,
   InsertableRentalEntryRow,
@@ -17,10 +18,18 @@ import type {
 export type { RentalScope };
 
 /**
- * Runs `fn` in one SQLite write transaction taken at its start (BEGIN IMMEDIATE): no other connection can write
- * between a check and the insert that depends on it, and Kysely's single connection runs nothing else meanwhile.
+ * Runs `fn` in one write transaction that no other writer can interleave with, so no other connection can write
+ * between a check and the insert that depends on it. SQLite: BEGIN IMMEDIATE takes the database's write lock at the
+ * start (Kysely's single connection runs nothing else meanwhile). PostgreSQL: a transaction-scoped advisory lock that
+ * every such transaction takes first, on any instance, so they run one at a time.
  */
 export async function inWriteTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
+  if (dialectOf(db) === 'postgres') {
+    return db.transaction().execute(async (trx) => {
+      await sql`select pg_advisory_xact_lock(${WRITE_LOCK})`.execute(trx);
+      return fn(trx);
+    });
+  }
   return db.connection().execute(async (conn) => {
     await sql`begin immediate`.execute(conn);
     try {
@@ -33,6 +42,9 @@ export async function inWriteTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>)
     }
   });
 }
+
+/** The advisory lock key of inWriteTransaction on PostgreSQL (any fixed 64-bit number; this one spells "rvlp"). */
+const WRITE_LOCK = 0x72766c70;
 
 // ---------- kits ----------
 
@@ -71,7 +83,7 @@ function withNames(db: Db, shopId: string, scope: RentalScope) {
     .selectAll('rentals')
     .select(['kits.name as kit_name', 'users.name as customer_name', 'jobs.number as job_number'])
     .where('rentals.shop_id', '=', shopId);
-  if (scope.kind === 'none') query = query.where(sql<boolean>`0`);
+  if (scope.kind === 'none') query = query.where(sqlFalse);
   if (scope.kind === 'customer') query = query.where('rentals.customer_user_id', '=', scope.userId);
   if (scope.kind === 'dealer') query = query.where('rentals.dealer_id', '=', scope.dealerId);
   return query;

@@ -46,7 +46,7 @@ describe('report queries read their indexes', () => {
 
   it('the Customers list by money paid reads one summary row per customer, not the payments', async () => {
     const { db, shopA } = await twoShops();
-    const plan = await planOf(db, customerPageQuery(shopA, { sort: 'paid', dir: 'desc', limit: 25, offset: 0 }));
+    const plan = await planOf(db, customerPageQuery(db, shopA, { sort: 'paid', dir: 'desc', limit: 25, offset: 0 }));
     expect(plan).toMatch(/SEARCH cs USING PRIMARY KEY \(shop_id=\? AND customer_user_id=\?\)/);
     expect(plan).not.toMatch(/\bpayments\b|payment_refunds/);
   });

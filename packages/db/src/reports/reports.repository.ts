@@ -2,6 +2,7 @@ import { sql, type Expression, type RawBuilder } from 'kysely';
 import type { JobState } from '@revloop/domain/jobs';
 import type { Db } from '../client';
 import type { InsertableJobStintRow } from './reports.table';
+import { countWhere, wholePart } from '../sql-functions';
 
 /** A report's time span: ISO instants, `from` included, `to` excluded. */
 export interface ReportRange {
@@ -32,13 +33,14 @@ interface QuantileRow {
  * p·(n − 1) interpolated linearly (the "type 7" definition of R's and mathjs' default quantile).
  */
 async function quantilesByGroup(db: Db, source: Expression<unknown> | RawBuilder<unknown>): Promise<QuantileRow[]> {
-  const rank = (p: number, offset: number) => sql`max(case when rn = cast((n - 1) * ${sql.lit(p)} as integer) + ${sql.lit(offset)} then v end)`;
+  const whole = (p: number) => wholePart(db, sql`(n - 1) * ${sql.lit(p)}`);
+  const rank = (p: number, offset: number) => sql`max(case when rn = ${whole(p)} + ${sql.lit(offset)} then v end)`;
   const interpolate = (p: number, lo: string, hi: string) =>
-    sql`${sql.ref(lo)} + ((n - 1) * ${sql.lit(p)} - cast((n - 1) * ${sql.lit(p)} as integer)) * (coalesce(${sql.ref(hi)}, ${sql.ref(lo)}) - ${sql.ref(lo)})`;
+    sql`${sql.ref(lo)} + ((n - 1) * ${sql.lit(p)} - ${whole(p)}) * (coalesce(${sql.ref(hi)}, ${sql.ref(lo)}) - ${sql.ref(lo)})`;
   const result = await sql<QuantileRow>`
     with ranked as (
       select grp, v, row_number() over (partition by grp order by v) as rn, count(*) over (partition by grp) as n
-      from (${source}) where v is not null
+      from (${source}) as source where v is not null
     ), picked as (
       select grp, max(n) as n, ${rank(MEDIAN, 1)} as lo50, ${rank(MEDIAN, 2)} as hi50, ${rank(P90, 1)} as lo90, ${rank(P90, 2)} as hi90
       from ranked group by grp
@@ -76,7 +78,7 @@ export interface TurnaroundRow {
 /** Hours jobs spent in each state: median and 90th percentile of the stints that ended in the range. */
 export async function turnaroundReport(db: Db, shopId: string, range: ReportRange): Promise<TurnaroundRow[]> {
   const stints = stintsQuery(db, shopId, range);
-  const rows = await quantilesByGroup(db, sql`select state as grp, hours as v from (${stints})`);
+  const rows = await quantilesByGroup(db, sql`select state as grp, hours as v from (${stints}) as stints`);
   return rows.map((r) => ({ state: r.grp as JobState, stints: r.n, medianHours: r.median, p90Hours: r.p90 }));
 }
 
@@ -173,7 +175,7 @@ export async function tunerLoadReport(db: Db, shopId: string, range: ReportRange
     .orderBy('u.name')
     .execute();
   const stints = stintsQuery(db, shopId, range);
-  const reviews = await quantilesByGroup(db, sql`select actor_id as grp, hours as v from (${stints}) where state = 'log_review'`);
+  const reviews = await quantilesByGroup(db, sql`select actor_id as grp, hours as v from (${stints}) as stints where state = 'log_review'`);
   const byReviewer = new Map(reviews.map((r) => [r.grp, r]));
   return staff.map((s) => ({
     userId: s.id,
@@ -246,7 +248,7 @@ export async function revenueByMonth(db: Db, shopId: string, months: ReportBucke
     with ${bucketsCte(months)}, money as (${moneyRows(shopId, range)})
     select b.bucket_key as key, b.bucket_key as label, ${moneySums}
     from buckets b left join money m on m.at >= b.bucket_start and m.at < b.bucket_end
-    group by b.bucket_key order by b.bucket_start`.execute(db);
+    group by b.bucket_key, b.bucket_start order by b.bucket_start`.execute(db);
   return result.rows.map((r) => toRevenueRow(r, r.key ?? ''));
 }
 
@@ -263,7 +265,7 @@ export async function revenueBy(db: Db, shopId: string, range: ReportRange, spli
     with money as (${moneyRows(shopId, range)})
     select m.${sql.raw(column)} as key, n.${sql.raw(name)} as label, ${moneySums}
     from money m left join ${sql.table(table)} n on n.id = m.${sql.raw(column)} and n.shop_id = ${shopId}
-    group by m.${sql.raw(column)} order by net desc, label`.execute(db);
+    group by m.${sql.raw(column)}, n.${sql.raw(name)} order by net desc, label`.execute(db);
   return result.rows.map((r) => toRevenueRow(r, none));
 }
 
@@ -286,8 +288,8 @@ export async function logQualityReport(db: Db, shopId: string, range: ReportRang
       .select((eb) => [
         'c.check_id',
         eb.fn.countAll<number>().as('logs'),
-        sql<number>`sum(c.status = 'fail')`.as('failed'),
-        sql<number>`sum(c.status = 'warn')`.as('warned'),
+        countWhere(sql`c.status = 'fail'`).as('failed'),
+        countWhere(sql`c.status = 'warn'`).as('warned'),
       ])
       .groupBy('c.check_id')
       .orderBy('c.check_id')

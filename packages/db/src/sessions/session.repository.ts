@@ -1,6 +1,7 @@
 import { sql } from 'kysely';
 import type { ShopSubscriptionRow } from '../billing/billing.table';
 import type { Db } from '../client';
+import { columnsOf } from '../sql-functions';
 import type { ShopRow } from '../shops/shop.table';
 import type { MembershipRow, UserRow } from '../users/user.table';
 import type { SessionRow } from './session.table';
@@ -48,8 +49,8 @@ function contextSelect(db: Db): Promise<string> {
   if (!select) {
     select = Promise.all(
       Object.entries(CONTEXT_TABLES).map(async ([part, table]) => {
-        const { rows } = await sql<{ name: string }>`select name from pragma_table_info(${table})`.execute(db);
-        return rows.map((c) => `${part}.${c.name} as "${part}.${c.name}"`);
+        const columns = await columnsOf(db, table);
+        return columns.map((c) => `"${part}"."${c}" as "${part}.${c}"`);
       }),
     ).then((parts) => parts.flat().join(', '));
     contextSelects.set(db, select);
@@ -64,7 +65,7 @@ function contextSelect(db: Db): Promise<string> {
 export async function findSessionContext(db: Db, id: string): Promise<SessionContextRows | undefined> {
   const { rows } = await sql<Record<string, unknown>>`select ${sql.raw(await contextSelect(db))}
     from sessions as session
-    join users as user on user.id = session.user_id
+    join users as "user" on "user".id = session.user_id
     left join memberships as membership on membership.shop_id = session.shop_id and membership.user_id = session.user_id
     left join shops as shop on shop.id = session.shop_id
     left join shop_subscriptions as billing on billing.shop_id = session.shop_id

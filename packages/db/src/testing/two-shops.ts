@@ -1,13 +1,12 @@
-import { createDb, type Db } from '../client';
+import type { Db } from '../client';
 import { newId, nowIso } from '../ids';
-import { migrateToLatest } from '../migrate';
 import { insertShop } from '../shops/shop.repository';
 import { insertMembership, insertUser } from '../users/user.repository';
+import { createTestDb } from './postgres';
 
-/** A fresh in-memory database with two shops, each with one owner: the fixture for tenant-isolation tests. */
+/** A fresh database (in-memory SQLite, or PostgreSQL in db-pg) with two shops, each with one owner: the fixture for tenant-isolation tests. */
 export async function twoShops(): Promise<{ db: Db; shopA: string; shopB: string; ownerA: string; ownerB: string }> {
-  const db = createDb(':memory:');
-  await migrateToLatest(db);
+  const db = await createTestDb();
   const at = nowIso();
   const [shopA, shopB] = [newId(), newId()];
   await insertShop(db, { id: shopA, name: 'Shop A', created_at: at });

@@ -18,6 +18,6 @@ describe('membership repository', () => {
     const { db, shopA, ownerA } = await twoShops();
     await expect(
       db.updateTable('memberships').set({ role: 'dealer' }).where('user_id', '=', ownerA).where('shop_id', '=', shopA).execute(),
-    ).rejects.toThrow(/CHECK constraint/);
+    ).rejects.toThrow(/check constraint/i);
   });
 });

@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { testEngine } from '@revloop/db/testing';
 import { generateToken, hashToken } from './session.service';
 import { createCustomer, createDealer, createMember, createShop } from '../../testing/factories';
 import { createTestApp, linkFromMail, sessionCookieOf, signIn, TEST_ORIGIN, TEST_PASSWORD, type TestApp } from '../../testing/test-app';
@@ -24,6 +25,12 @@ describe('sign-in and sessions', () => {
     const res = await request(t.app).get('/api/health');
     expect(res.status).toBe(200);
     expect(res.body).toEqual({ status: 'ok' });
+  });
+
+  it('answers readiness with the database it reached', async () => {
+    const res = await request(t.app).get('/api/health/ready');
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ status: 'ok', database: testEngine() });
   });
 
   it('signs in with a hardened cookie and answers /api/me', async () => {

@@ -4,6 +4,7 @@ import {
   findCalibrationFile,
   findPackage,
   insertCalibrationFile,
+  isUniqueViolation,
   latestRead,
   latestRevision,
   modulesRevisedForRound,
@@ -112,7 +113,7 @@ export async function storeUpload(
       // The shop's setting when the draft is made decides whether it needs a second person's approval.
       approval_required: input.kind === 'revision' && auth.shop.revision_approval === 1 ? 1 : 0,
     }).catch((error: unknown) => {
-      if (String(error).includes('UNIQUE')) throw new DomainError('conflict', `Revision ${place?.number} of the ${input.module} was just uploaded by someone else. Reload and try again.`);
+      if (isUniqueViolation(error)) throw new DomainError('conflict', `Revision ${place?.number} of the ${input.module} was just uploaded by someone else. Reload and try again.`);
       throw error;
     });
     const listRow = (await findCalibrationFile(db, auth.shop.id, row.id))!;

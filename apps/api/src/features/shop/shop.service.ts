@@ -1,4 +1,4 @@
-import { isSlugTaken, updateShop, type ShopRow } from '@revloop/db';
+import { isSlugTaken, isUniqueViolation, updateShop, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { ShopSettings } from '@revloop/domain/shops';
 import type { AppDeps } from '../../context';
@@ -32,7 +32,7 @@ export async function changeShop({ db, clock }: AppDeps, auth: AuthContext & { s
     ...(change.paidBeforeDownload !== undefined && { paid_before_download: change.paidBeforeDownload ? 1 : 0 }),
   }).catch((error: unknown) => {
     // Two owners taking the same address at once: the unique index decides, and the loser hears the same 409.
-    if (error instanceof Error && /UNIQUE|unique/.test(error.message) && /slug/.test(error.message)) throw clash();
+    if (isUniqueViolation(error, 'slug')) throw clash();
     throw error;
   });
   if (!shop) throw new DomainError('not_found', 'Shop not found.');
