@@ -13,7 +13,8 @@ async function addToCustomerSummary(db: Db, shopId: string, paymentId: string, c
     from payments p join jobs j on j.id = p.job_id and j.shop_id = p.shop_id
     where p.shop_id = ${shopId} and p.id = ${paymentId}
     on conflict (shop_id, customer_user_id) do update set
-      paid_minor = paid_minor + excluded.paid_minor, refunded_minor = refunded_minor + excluded.refunded_minor, updated_at = excluded.updated_at`.execute(db);
+      paid_minor = customer_summaries.paid_minor + excluded.paid_minor,
+      refunded_minor = customer_summaries.refunded_minor + excluded.refunded_minor, updated_at = excluded.updated_at`.execute(db);
 }
 
 /** A payment row; one written already paid (as an import or a test fixture does) counts toward its customer's summary. */
