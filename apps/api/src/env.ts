@@ -34,6 +34,16 @@ const envSchema = z.object({
   TRUST_PROXY: z.string().optional(),
   /** HMAC key for e-mailed file download links; required in production, else made once and kept in DATA_DIR/secrets. */
   FILE_LINK_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
+  /** Where files live: `disk` (DATA_DIR/files, one machine) or `s3` (an S3-compatible bucket shared by every instance). */
+  BLOB_STORE: z.enum(['disk', 's3']).default('disk'),
+  /** S3-compatible server address (e.g. http://127.0.0.1:9000); unset means AWS S3 itself. */
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_BUCKET: z.string().min(3).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** Bucket in the path rather than the host name, which most self-hosted S3-compatible servers need. */
+  S3_FORCE_PATH_STYLE: flag.default(false),
 });
 
 export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET'> & {
@@ -50,6 +60,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Invalid environment: ${problems}`);
   }
   const env = parsed.data;
+  if (env.BLOB_STORE === 's3' && !env.S3_BUCKET) throw new Error('Invalid environment: S3_BUCKET is required when BLOB_STORE=s3');
   if (env.NODE_ENV === 'production' && !env.FILE_LINK_SECRET) throw new Error('Invalid environment: FILE_LINK_SECRET is required in production');
   const dataDir = path.resolve(env.DATA_DIR);
   return {

@@ -13,7 +13,7 @@ import { createSmtpMailer } from './features/mail/mailer';
 import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
 import { runRentalSweep } from './features/rentals/rental-notices';
-import { BlobStore } from './storage/blob-store';
+import { blobStoreOf } from './storage/blob-store-of';
 import { warmAnalysisWorker } from './workers/datalog/analyze-file';
 
 const env = loadEnv();
@@ -43,7 +43,7 @@ const deps: AppDeps = {
   mailer,
   logger,
   throttle: new SignInThrottle(),
-  blobs: new BlobStore(env.DATA_DIR),
+  blobs: blobStoreOf(env),
   mailbox: smtp?.mailbox,
 };
 const app = createApp(deps);

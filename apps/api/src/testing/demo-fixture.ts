@@ -9,7 +9,7 @@ export type { SeededJob } from '../../../../seeds/demo/jobs-scenario';
 export { DEMO_PASSWORD, KESTREL } from '../../../../seeds/demo/people';
 export { seedDemo, type DemoIds };
 import { hashPassword } from '../features/auth/password';
-import { BlobStore } from '../storage/blob-store';
+import { DiskBlobStore } from '../storage/blob-store';
 import { createTestApp, migratedTemplate, TEST_PASSWORD, type TestApp } from './test-app';
 
 let demo: Promise<{ snapshot: Buffer; ids: DemoIds }> | undefined;
@@ -19,7 +19,7 @@ export async function createDemoTestApp(envOverrides: Record<string, string> = {
   demo ??= (async () => {
     const { snapshot, dataDir } = await migratedTemplate();
     const db = createDb(snapshot);
-    const ids = await seedDemo(db, new Date(), { blobs: new BlobStore(dataDir) });
+    const ids = await seedDemo(db, new Date(), { blobs: new DiskBlobStore(dataDir) });
     await db.updateTable('users').set({ password_hash: await hashPassword(TEST_PASSWORD) }).execute();
     const seeded = snapshotDb(db);
     await db.destroy();

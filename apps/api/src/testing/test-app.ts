@@ -14,7 +14,7 @@ import { startStripeFake, type StripeFakeControl } from '@revloop/stand-ins/stri
 import { SignInThrottle } from '../features/auth/sign-in-throttle';
 import { createSmtpMailer } from '../features/mail/mailer';
 import type { Clock } from '../http/clock';
-import { BlobStore } from '../storage/blob-store';
+import { DiskBlobStore } from '../storage/blob-store';
 
 export const TEST_ORIGIN = 'http://localhost:8080';
 /** Everyone the factories make signs in with this. */
@@ -40,7 +40,7 @@ export interface TestApp {
   clock: FakeClock;
   env: Env;
   mailbox: Mailbox;
-  blobs: BlobStore;
+  blobs: DiskBlobStore;
   /** Present when asked for: the local Stripe stand-in, posting signed webhooks to this app on a real port. */
   stripe?: { url: string; control: StripeFakeControl };
   close(): Promise<void>;
@@ -77,7 +77,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
   const { snapshot, dataDir } = await migratedTemplate();
   const db = createDb(options.database ?? snapshot);
   const clock = new FakeClock();
-  const blobs = new BlobStore(dataDir);
+  const blobs = new DiskBlobStore(dataDir);
   const smtp = await startSmtpFake();
   // The fake needs the webhook address before the app exists, so the listener opens first and takes the app after.
   const listener = options.stripe ? createServer() : undefined;

@@ -51,7 +51,7 @@ export async function datalogSeries(deps: AppDeps, auth: ShopAuth, id: string, q
   const report = readyReport(row);
   const mapping = JSON.parse(row.mapping) as StoredMapping;
   const columns = await seriesCacheOf(deps).get(`${row.sha256}|${row.mapping}|${row.fuel}`, {
-    filePath: deps.blobs.pathOf(row.sha256),
+    filePath: await deps.blobs.localPath(row.sha256),
     options: { ...mappingOptions(mapping), fuel: JSON.parse(row.fuel) },
   });
   const from = q.from ?? 0;

@@ -87,7 +87,7 @@ export class DatalogAnalyzer {
     };
     let report: DatalogReport;
     try {
-      report = await analyzeFileInWorker(blobs.pathOf(row.sha256), options, (f) => this.running.set(row.id, f));
+      report = await analyzeFileInWorker(await blobs.localPath(row.sha256), options, (f) => this.running.set(row.id, f));
     } catch (error) {
       const message = isDomainError(error) ? error.message : 'The log could not be analysed.';
       if (!isDomainError(error)) this.deps.logger.error({ err: error, datalogId: row.id }, 'datalog analysis failed');

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import { createDb, migrateToLatest } from '@revloop/db';
 import { generateLog } from '@revloop/domain/datalog/testing';
 import { DEMO_PASSWORD, seedDemo, type DemoIds } from '../../testing/demo-fixture';
-import { BlobStore } from '../../storage/blob-store';
+import { DiskBlobStore } from '../../storage/blob-store';
 import { freePort } from '../../testing/free-port';
 
 // The real server in a child process, killed with SIGKILL in the middle of uploads and log checks, then started again
@@ -139,7 +139,7 @@ beforeAll(async () => {
   dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-crash-'));
   const db = createDb(path.join(dataDir, 'revloop.db'));
   await migrateToLatest(db);
-  ids = await seedDemo(db, new Date(), { blobs: new BlobStore(dataDir) });
+  ids = await seedDemo(db, new Date(), { blobs: new DiskBlobStore(dataDir) });
   await db.destroy();
 });
 
@@ -185,7 +185,7 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
   crashed.close();
   expect(unfinished.n).toBeGreaterThan(0);
   // A file stored just before its row would have been written, long enough ago to count as an orphan.
-  const orphan = new BlobStore(dataDir).pathOf('0'.repeat(64));
+  const orphan = new DiskBlobStore(dataDir).pathOf('0'.repeat(64));
   fs.mkdirSync(path.dirname(orphan), { recursive: true });
   fs.writeFileSync(orphan, 'orphan');
   const twoHoursAgo = new Date(Date.now() - 2 * 3_600_000);
@@ -208,10 +208,10 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
     for (const a of acknowledged) {
       const row = db.prepare(`select sha256 from ${a.table} where id = ?`).get(a.id) as { sha256: string } | undefined;
       expect(row, `${a.table} ${a.id} answered 2xx`).toEqual({ sha256: a.sha256 });
-      expect(fs.existsSync(new BlobStore(dataDir).pathOf(a.sha256))).toBe(true);
+      expect(fs.existsSync(new DiskBlobStore(dataDir).pathOf(a.sha256))).toBe(true);
     }
     const referenced = db.prepare('select sha256 from calibration_files union select sha256 from datalogs').all() as { sha256: string }[];
-    expect(referenced.filter((r) => !fs.existsSync(new BlobStore(dataDir).pathOf(r.sha256)))).toEqual([]);
+    expect(referenced.filter((r) => !fs.existsSync(new DiskBlobStore(dataDir).pathOf(r.sha256)))).toEqual([]);
 
     // Nobody opens a log: the list of the job's logs (which starts nothing) is polled until every one has ended.
     const ownerCookie = await signInCookie(second.base, 'owner@kestrel.test');
