@@ -1,5 +1,6 @@
 import express, { Router, type Express } from 'express';
 import { rateLimit } from 'express-rate-limit';
+import { DbRateLimitStore } from './http/rate-limit-store';
 import helmet from 'helmet';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -81,6 +82,8 @@ export function createApp(deps: AppDeps): Express {
     limit: deps.env.NODE_ENV === 'test' ? 1000 : 50,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
+    // Counted in the database, so two instances behind a load balancer share one budget per address.
+    store: new DbRateLimitStore(deps.db, 'account:', () => deps.clock.now().getTime()),
     handler: (_req, _res, next) => next(new DomainError('rate_limited', 'Too many requests from this address. Try again later.')),
   });
   api.use(['/auth/sign-up', '/auth/password-reset', '/public/shops/:slug/start', '/public/shops/:slug/verify'], accountLimiter);

@@ -50,6 +50,8 @@ export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 
   APP_ORIGIN: string;
   LOCAL_SMTP: boolean;
   FILE_LINK_SECRET: string;
+  /** False when FILE_LINK_SECRET was made locally: the server then takes the one every instance shares (shared_secrets). */
+  FILE_LINK_SECRET_GIVEN: boolean;
 };
 
 /** The only reader of process.env: fails fast with every problem listed. */
@@ -71,5 +73,6 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
     LOCAL_STRIPE: env.LOCAL_STRIPE ?? env.NODE_ENV === 'development',
     FILE_LINK_SECRET: env.FILE_LINK_SECRET ?? dataFolderSecret(dataDir, 'file-link'),
+    FILE_LINK_SECRET_GIVEN: env.FILE_LINK_SECRET !== undefined,
   };
 }

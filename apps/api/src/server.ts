@@ -14,6 +14,7 @@ import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
 import { runRentalSweep } from './features/rentals/rental-notices';
 import { blobStoreOf } from './storage/blob-store-of';
+import { loadSharedSecrets } from './storage/shared-secrets';
 import { warmAnalysisWorker } from './workers/datalog/analyze-file';
 
 const env = loadEnv();
@@ -22,6 +23,8 @@ const logger = pino({ level: env.LOG_LEVEL });
 fs.mkdirSync(env.DATA_DIR, { recursive: true });
 const db = createDb(path.join(env.DATA_DIR, 'revloop.db'));
 await migrateToLatest(db);
+// Every instance signs file links and device cookies with the same keys, kept in the database.
+const secrets = await loadSharedSecrets(db, env, new Date());
 
 const smtp = env.LOCAL_SMTP ? await startSmtpFake({ port: env.SMTP_PORT }) : undefined;
 const mailer = createSmtpMailer({ host: env.SMTP_HOST, port: smtp?.port ?? env.SMTP_PORT, from: env.MAIL_FROM });
@@ -38,11 +41,11 @@ const stripeFake = env.LOCAL_STRIPE
 
 const deps: AppDeps = {
   db,
-  env: stripeFake ? { ...env, STRIPE_API_URL: stripeFake.url } : env,
+  env: { ...env, FILE_LINK_SECRET: secrets.fileLink, ...(stripeFake && { STRIPE_API_URL: stripeFake.url }) },
   clock: systemClock,
   mailer,
   logger,
-  throttle: new SignInThrottle(),
+  throttle: new SignInThrottle(db, { deviceKey: secrets.signInDevice }),
   blobs: blobStoreOf(env),
   mailbox: smtp?.mailbox,
 };

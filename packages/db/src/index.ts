@@ -42,3 +42,6 @@ export * from './reports/reports.repository';
 export * from './rentals/rental.table';
 export * from './rentals/rental.repository';
 export * from './customers/customer.repository';
+export * from './shared/shared-state.table';
+export * from './shared/shared-state.repository';
+export * from './shared/queue.repository';

@@ -13,6 +13,7 @@ import * as reports from './migrations/2026-12-02-010-reports';
 import * as rentals from './migrations/2026-12-02-011-rentals';
 import * as jobListVersions from './migrations/2026-12-02-012-job-list-versions';
 import * as revisionDrafts from './migrations/2026-12-02-013-revision-drafts';
+import * as sharedState from './migrations/2026-12-03-017-shared-state';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -29,6 +30,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-011-rentals': rentals,
   '2026-12-02-012-job-list-versions': jobListVersions,
   '2026-12-02-013-revision-drafts': revisionDrafts,
+  '2026-12-03-017-shared-state': sharedState,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

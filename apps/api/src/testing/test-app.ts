@@ -106,7 +106,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     clock,
     mailer,
     logger: pino({ level: 'silent' }),
-    throttle: new SignInThrottle(undefined, () => clock.now().getTime()),
+    throttle: new SignInThrottle(db, { now: () => clock.now().getTime() }),
     blobs,
     mailbox: smtp.mailbox,
   };
