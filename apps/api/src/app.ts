@@ -1,6 +1,7 @@
 import express, { Router, type Express } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { DbRateLimitStore } from './http/rate-limit-store';
+import { datalogAnalyzerOf } from './features/datalogs/datalog.service';
 import helmet from 'helmet';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -36,6 +37,8 @@ import { sameOrigin } from './http/same-origin';
 
 /** Builds the app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {
+  // The queue's handlers exist before any request or start-up recovery queues work.
+  datalogAnalyzerOf(deps);
   const app = express();
   app.disable('x-powered-by');
   if (deps.env.TRUST_PROXY) app.set('trust proxy', deps.env.TRUST_PROXY);

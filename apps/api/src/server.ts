@@ -12,6 +12,7 @@ import { SignInThrottle } from './features/auth/sign-in-throttle';
 import { createSmtpMailer } from './features/mail/mailer';
 import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
+import { TableQueue } from './queue/work-queue';
 import { runRentalSweep } from './features/rentals/rental-notices';
 import { blobStoreOf } from './storage/blob-store-of';
 import { loadSharedSecrets } from './storage/shared-secrets';
@@ -39,8 +40,10 @@ const stripeFake = env.LOCAL_STRIPE
     })
   : undefined;
 
+const queue = new TableQueue(db, logger);
 const deps: AppDeps = {
   db,
+  queue,
   env: { ...env, FILE_LINK_SECRET: secrets.fileLink, ...(stripeFake && { STRIPE_API_URL: stripeFake.url }) },
   clock: systemClock,
   mailer,
@@ -52,6 +55,7 @@ const deps: AppDeps = {
 const app = createApp(deps);
 // Before the first request: nothing is in flight, so leftovers of a crash can be told from live work.
 await recoverAtStartup(deps);
+queue.start();
 const server = app.listen(env.PORT, env.HOST, () => {
   logger.info({ url: env.APP_ORIGIN, smtpPort: smtp?.port, stripeFake: stripeFake?.url }, 'Revloop is listening');
 });
@@ -69,6 +73,7 @@ const rentalSweep = setInterval(() => {
 
 async function shutdown() {
   server.close();
+  await queue.stop();
   clearInterval(billingSweep);
   clearInterval(rentalSweep);
   await stripeFake?.close();

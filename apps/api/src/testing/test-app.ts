@@ -14,6 +14,7 @@ import { startStripeFake, type StripeFakeControl } from '@revloop/stand-ins/stri
 import { SignInThrottle } from '../features/auth/sign-in-throttle';
 import { createSmtpMailer } from '../features/mail/mailer';
 import type { Clock } from '../http/clock';
+import { TableQueue } from '../queue/work-queue';
 import { DiskBlobStore } from '../storage/blob-store';
 
 export const TEST_ORIGIN = 'http://localhost:8080';
@@ -100,17 +101,21 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     ...envOverrides,
   });
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: env.MAIL_FROM });
+  const logger = pino({ level: 'silent' });
+  const queue = new TableQueue(db, logger, { pollMs: 50, backoffBaseMs: 50 });
   const deps: AppDeps = {
     db,
     env,
     clock,
     mailer,
-    logger: pino({ level: 'silent' }),
+    logger,
+    queue,
     throttle: new SignInThrottle(db, { now: () => clock.now().getTime() }),
     blobs,
     mailbox: smtp.mailbox,
   };
   const app = createApp(deps);
+  queue.start();
   listener?.on('request', app);
   return {
     app,
@@ -122,6 +127,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     blobs,
     ...(stripe && { stripe: { url: stripe.url, control: stripe.control } }),
     close: async () => {
+      await queue.stop();
       await stripe?.close();
       if (listener) {
         listener.closeAllConnections();
