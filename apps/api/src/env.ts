@@ -11,6 +11,8 @@ const envSchema = z.object({
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
   DATA_DIR: z.string().default('./data'),
+  /** The SQLite database file; defaults to DATA_DIR/revloop.db. Several instances on one machine may share one file. */
+  SQLITE_FILE: z.string().optional(),
   /** The address people reach the app at; links in e-mails and the same-origin check use it. */
   APP_ORIGIN: z.string().url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -46,7 +48,8 @@ const envSchema = z.object({
   S3_FORCE_PATH_STYLE: flag.default(false),
 });
 
-export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET'> & {
+export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET' | 'SQLITE_FILE'> & {
+  SQLITE_FILE: string;
   APP_ORIGIN: string;
   LOCAL_SMTP: boolean;
   FILE_LINK_SECRET: string;
@@ -68,6 +71,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   return {
     ...env,
     DATA_DIR: dataDir,
+    SQLITE_FILE: path.resolve(env.SQLITE_FILE ?? path.join(dataDir, 'revloop.db')),
     WEB_DIST_DIR: env.WEB_DIST_DIR ? path.resolve(env.WEB_DIST_DIR) : undefined,
     APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',

@@ -1,5 +1,4 @@
 import fs from 'node:fs';
-import path from 'node:path';
 import { pino } from 'pino';
 import { createDb, migrateToLatest } from '@revloop/db';
 import { createApp } from './app';
@@ -22,7 +21,7 @@ const env = loadEnv();
 const logger = pino({ level: env.LOG_LEVEL });
 
 fs.mkdirSync(env.DATA_DIR, { recursive: true });
-const db = createDb(path.join(env.DATA_DIR, 'revloop.db'));
+const db = createDb(env.SQLITE_FILE);
 await migrateToLatest(db);
 // Every instance signs file links and device cookies with the same keys, kept in the database.
 const secrets = await loadSharedSecrets(db, env, new Date());
