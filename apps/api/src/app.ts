@@ -2,6 +2,7 @@ import express, { Router, type Express } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { DbRateLimitStore } from './http/rate-limit-store';
 import { datalogAnalyzerOf } from './features/datalogs/datalog.service';
+import { registerMailOutboxJob } from './features/mail/mail-outbox.service';
 import helmet from 'helmet';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -39,6 +40,7 @@ import { sameOrigin } from './http/same-origin';
 export function createApp(deps: AppDeps): Express {
   // The queue's handlers exist before any request or start-up recovery queues work.
   datalogAnalyzerOf(deps);
+  registerMailOutboxJob(deps);
   const app = express();
   app.disable('x-powered-by');
   if (deps.env.TRUST_PROXY) app.set('trust proxy', deps.env.TRUST_PROXY);

@@ -9,6 +9,7 @@ import { startStripeFake } from '@revloop/stand-ins/stripe';
 import { applyBillingDeadlines } from './features/billing/subscription.service';
 import { SignInThrottle } from './features/auth/sign-in-throttle';
 import { createSmtpMailer } from './features/mail/mailer';
+import { MAIL_QUEUE } from './features/mail/mail-outbox.service';
 import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
 import { TableQueue } from './queue/work-queue';
@@ -70,7 +71,13 @@ const rentalSweep = setInterval(() => {
   runRentalSweep(deps).catch((err: unknown) => logger.error({ err }, 'rental sweep failed'));
 }, 3_600_000);
 
+// Mail a crashed or failed drain left in the outbox goes out from whichever instance takes this job.
+const mailSweep = setInterval(() => {
+  queue.enqueue(MAIL_QUEUE, 'sweep', null).catch((err: unknown) => logger.error({ err }, 'mail sweep could not be queued'));
+}, 60_000);
+
 async function shutdown() {
+  clearInterval(mailSweep);
   server.close();
   await queue.stop();
   clearInterval(billingSweep);
