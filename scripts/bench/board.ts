@@ -13,7 +13,7 @@ import { defaultLogRequest } from '@revloop/domain/datalog';
 import { OPEN_STATES, type JobState } from '@revloop/domain/jobs';
 import { seedDemo, type SeededShop } from '../../seeds/demo/seed-demo';
 import { DEMO_PASSWORD } from '../../seeds/demo/people';
-import { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { DiskBlobStore } from '../../apps/api/src/storage/blob-store';
 import { freePort } from '../../apps/api/src/testing/free-port';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -201,7 +201,7 @@ async function main(): Promise<void> {
     const db = createDb(path.join(dataDir, 'revloop.db'));
     await migrateToLatest(db);
     const now = new Date();
-    const ids = await seedDemo(db, now, { blobs: new BlobStore(dataDir) });
+    const ids = await seedDemo(db, now, { blobs: new DiskBlobStore(dataDir) });
     const { events } = await addHistory(db, ids.kestrel, jobCount, now);
     const jobs = await db.selectFrom('jobs').select(['id', 'state']).where('shop_id', '=', ids.kestrel.shopId).execute();
     await db.destroy();

@@ -11,7 +11,7 @@ import autocannon from 'autocannon';
 import { backfillJobStints, createDb, migrateToLatest, newId, refreshCustomerSummaries, type Db } from '@revloop/db';
 import { seedDemo, type SeededShop } from '../../seeds/demo/seed-demo';
 import { DEMO_PASSWORD } from '../../seeds/demo/people';
-import { BlobStore } from '../../apps/api/src/storage/blob-store';
+import { DiskBlobStore } from '../../apps/api/src/storage/blob-store';
 import { freePort } from '../../apps/api/src/testing/free-port';
 import { addHistory, cpuMsOf, report, startServer, type Figure } from './board';
 
@@ -99,7 +99,7 @@ async function main(): Promise<void> {
     const db = createDb(path.join(dataDir, 'revloop.db'));
     await migrateToLatest(db);
     const now = new Date();
-    const ids = await seedDemo(db, now, { blobs: new BlobStore(dataDir) });
+    const ids = await seedDemo(db, now, { blobs: new DiskBlobStore(dataDir) });
     const { events } = await addHistory(db, ids.kestrel, jobCount, now);
     const { payments, logs } = await addReportHistory(db, ids.kestrel);
     // The history above is written in bulk, past the app's writers: derive what they would have kept, as migration 015 does.

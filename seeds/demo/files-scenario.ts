@@ -12,7 +12,7 @@ import {
   toSrec,
   type MemoryImage,
 } from '@revloop/domain/calibration';
-import { fileLabel, recordAudit, type BlobStore } from '@revloop/api';
+import { fileLabel, recordAudit, type DiskBlobStore } from '@revloop/api';
 
 // Invented images only: the same vehicle model starts from the same stock calibration, and every revision is a few
 // scaled table regions on top of its parent, as a tuner's change would be.
@@ -67,7 +67,7 @@ function fileBytes(key: string, image: MemoryImage, format: CalibrationFileForma
  * Writes a demo file straight to its content-addressed place. Unlike uploads there is no fsync: a lost demo file is
  * rebuilt by re-seeding, and a hundred fsyncs would make every test app slow to build.
  */
-function putDemoBlob(blobs: BlobStore, file: EncodedFile): { sha256: string; size: number } {
+function putDemoBlob(blobs: DiskBlobStore, file: EncodedFile): { sha256: string; size: number } {
   const target = blobs.pathOf(file.sha256);
   if (!fs.existsSync(target)) {
     fs.mkdirSync(path.dirname(target), { recursive: true });
@@ -105,7 +105,7 @@ export class DemoFiles {
 
   constructor(
     private readonly db: Db,
-    private readonly blobs: BlobStore,
+    private readonly blobs: DiskBlobStore,
   ) {}
 
   async read(job: DemoFileJob, module: CalibrationModule, by: string, at: Date): Promise<void> {
@@ -175,7 +175,7 @@ interface StoreInput {
 
 const LABEL: Record<CalibrationFileFormat, string> = { raw: 'Raw binary', intel_hex: 'Intel HEX', srec: 'Motorola S-record' };
 
-async function store(db: Db, blobs: BlobStore, input: StoreInput): Promise<string> {
+async function store(db: Db, blobs: DiskBlobStore, input: StoreInput): Promise<string> {
   const file = fileBytes(input.key, input.image, input.format);
   const blob = putDemoBlob(blobs, file);
   const id = newId();

@@ -3,7 +3,7 @@ import { defineAbilityFor } from '@revloop/domain/auth';
 import { defaultLogRequest, type LogRequest } from '@revloop/domain/datalog';
 import type { JobState } from '@revloop/domain/jobs';
 import { vinCheckDigit, type VehicleInput } from '@revloop/domain/vehicles';
-import { buildActor, moveJob, postJobMessage, recordAudit, setJobFacts, takeJob, type BlobStore, type JobFlowDeps, type ShopAuth } from '@revloop/api';
+import { buildActor, moveJob, postJobMessage, recordAudit, setJobFacts, takeJob, type DiskBlobStore, type JobFlowDeps, type ShopAuth } from '@revloop/api';
 import { DemoFiles } from './files-scenario';
 import { storeDemoLog, type DriveKind } from './logs-scenario';
 import type { SeededShop } from './seed-demo';
@@ -366,7 +366,7 @@ function daytime(at: Date, now: Date): Date {
 
 export interface JobsContext {
   db: Db;
-  blobs: BlobStore;
+  blobs: DiskBlobStore;
   now: Date;
   customerNames: Map<string, string>;
 }

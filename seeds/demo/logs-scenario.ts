@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 import { insertAuditEvent, insertDatalog, newId, type Db } from '@revloop/db';
 import { analyzeDatalog, detectCsvLayout, headerSignature, type DatalogReport, type LogRequest } from '@revloop/domain/datalog';
 import { vehicleFuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
-import { datalogVehicleOf, type BlobStore } from '@revloop/api';
+import { datalogVehicleOf, type DiskBlobStore } from '@revloop/api';
 import { generateDrivingLog, pullGears, type DrivingLogOptions } from './driving-log';
 
 /** What went on in the drive: most logs are clean, some run lean in places, one knocks, one has a half-pressed pedal. */
@@ -73,7 +73,7 @@ function cachedDrive(key: string, make: () => { bytes: Uint8Array; report: Datal
  */
 export async function storeDemoLog(
   db: Db,
-  blobs: BlobStore,
+  blobs: DiskBlobStore,
   input: { shopId: string; jobId: string; vehicle: VehicleInput; round: number; kind: DriveKind; logRequest: LogRequest; by: string; at: Date; name: string },
 ): Promise<void> {
   const { vehicle, round, kind } = input;

@@ -8,7 +8,7 @@ import {
 } from '@revloop/db';
 import { sql } from 'kysely';
 import type { ShopRole } from '@revloop/domain/auth';
-import { hashPassword, type BlobStore } from '@revloop/api';
+import { hashPassword, type DiskBlobStore } from '@revloop/api';
 import { seedBilling } from './billing-scenario';
 import { seedCustomers, seedLogRequestDefaults } from './customers-scenario';
 import { seedJobs, type SeededJob } from './jobs-scenario';
@@ -34,7 +34,7 @@ export interface DemoIds {
 
 export interface SeedOptions {
   /** Where the demo's calibration files and logs are stored. */
-  blobs: BlobStore;
+  blobs: DiskBlobStore;
 }
 
 /** Loads the invented scenario into an empty, migrated database. Times are spread back from `now`. */

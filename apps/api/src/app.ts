@@ -1,5 +1,8 @@
 import express, { Router, type Express } from 'express';
 import { rateLimit } from 'express-rate-limit';
+import { DbRateLimitStore } from './http/rate-limit-store';
+import { datalogAnalyzerOf } from './features/datalogs/datalog.service';
+import { registerMailOutboxJob } from './features/mail/mail-outbox.service';
 import helmet from 'helmet';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -38,6 +41,9 @@ import { sameOrigin } from './http/same-origin';
 /** Builds the app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {
   usePasswordHashCost(deps.env);
+  // The queue's handlers exist before any request or start-up recovery queues work.
+  datalogAnalyzerOf(deps);
+  registerMailOutboxJob(deps);
   const app = express();
   app.disable('x-powered-by');
   if (deps.env.TRUST_PROXY) app.set('trust proxy', deps.env.TRUST_PROXY);
@@ -89,6 +95,8 @@ export function createApp(deps: AppDeps): Express {
     limit: deps.env.NODE_ENV === 'test' ? 1000 : 50,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
+    // Counted in the database, so two instances behind a load balancer share one budget per address.
+    store: new DbRateLimitStore(deps.db, 'account:', () => deps.clock.now().getTime()),
     handler: (_req, _res, next) => next(new DomainError('rate_limited', 'Too many requests from this address. Try again later.')),
   });
   api.use(['/auth/sign-up', '/auth/password-reset', '/public/shops/:slug/start', '/public/shops/:slug/verify'], accountLimiter);

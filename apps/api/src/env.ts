@@ -16,6 +16,8 @@ const envSchema = z.object({
     .string()
     .regex(/^postgres(ql)?:\/\//, 'must start with postgres:// (leave it unset for SQLite)')
     .optional(),
+  /** The SQLite database file; defaults to DATA_DIR/revloop.db. Several instances on one machine may share one file. */
+  SQLITE_FILE: z.string().optional(),
   /** The address people reach the app at; links in e-mails and the same-origin check use it. */
   APP_ORIGIN: z.string().url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -41,12 +43,25 @@ const envSchema = z.object({
   FILE_LINK_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
   /** Tests only (refused unless NODE_ENV=test): 'low' hashes passwords with a tiny argon2 cost so sign-ins in API tests are cheap. */
   TEST_ONLY_HASH_COST: z.enum(['low']).optional(),
+  /** Where files live: `disk` (DATA_DIR/files, one machine) or `s3` (an S3-compatible bucket shared by every instance). */
+  BLOB_STORE: z.enum(['disk', 's3']).default('disk'),
+  /** S3-compatible server address (e.g. http://127.0.0.1:9000); unset means AWS S3 itself. */
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_BUCKET: z.string().min(3).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** Bucket in the path rather than the host name, which most self-hosted S3-compatible servers need. */
+  S3_FORCE_PATH_STYLE: flag.default(false),
 });
 
-export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET'> & {
+export type Env = Omit<z.infer<typeof envSchema>, 'APP_ORIGIN' | 'LOCAL_SMTP' | 'FILE_LINK_SECRET' | 'SQLITE_FILE'> & {
+  SQLITE_FILE: string;
   APP_ORIGIN: string;
   LOCAL_SMTP: boolean;
   FILE_LINK_SECRET: string;
+  /** False when FILE_LINK_SECRET was made locally: the server then takes the one every instance shares (shared_secrets). */
+  FILE_LINK_SECRET_GIVEN: boolean;
 };
 
 /** The only reader of process.env: fails fast with every problem listed. */
@@ -57,16 +72,19 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Invalid environment: ${problems}`);
   }
   const env = parsed.data;
+  if (env.BLOB_STORE === 's3' && !env.S3_BUCKET) throw new Error('Invalid environment: S3_BUCKET is required when BLOB_STORE=s3');
   if (env.NODE_ENV === 'production' && !env.FILE_LINK_SECRET) throw new Error('Invalid environment: FILE_LINK_SECRET is required in production');
   if (env.TEST_ONLY_HASH_COST && env.NODE_ENV !== 'test') throw new Error(`Invalid environment: TEST_ONLY_HASH_COST is for tests only and NODE_ENV is ${env.NODE_ENV}`);
   const dataDir = path.resolve(env.DATA_DIR);
   return {
     ...env,
     DATA_DIR: dataDir,
+    SQLITE_FILE: path.resolve(env.SQLITE_FILE ?? path.join(dataDir, 'revloop.db')),
     WEB_DIST_DIR: env.WEB_DIST_DIR ? path.resolve(env.WEB_DIST_DIR) : undefined,
     APP_ORIGIN: env.APP_ORIGIN ?? `http://localhost:${env.PORT}`,
     LOCAL_SMTP: env.LOCAL_SMTP ?? env.NODE_ENV !== 'production',
     LOCAL_STRIPE: env.LOCAL_STRIPE ?? env.NODE_ENV === 'development',
     FILE_LINK_SECRET: env.FILE_LINK_SECRET ?? dataFolderSecret(dataDir, 'file-link'),
+    FILE_LINK_SECRET_GIVEN: env.FILE_LINK_SECRET !== undefined,
   };
 }

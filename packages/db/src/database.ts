@@ -19,6 +19,7 @@ import type { KitPhotoTable, KitTable, RentalEntryTable, RentalReminderTable, Re
 import type { VehicleTable } from './vehicles/vehicle.table';
 import type { CustomerSummaryTable, DatalogCheckTable, JobStintTable } from './reports/reports.table';
 import type { InvitationTable } from './invitations/invitation.table';
+import type { QueueJobTable, RateLimitCounterTable, SharedSecretTable, ThrottleHitTable, WorkProgressTable } from './shared/shared-state.table';
 import type { SessionTable } from './sessions/session.table';
 import type { PublicSignUpTable } from './shops/public-sign-up.table';
 import type { ShopTable } from './shops/shop.table';
@@ -60,4 +61,9 @@ export interface Database {
   rentals: RentalTable;
   rental_entries: RentalEntryTable;
   rental_reminders: RentalReminderTable;
+  shared_secrets: SharedSecretTable;
+  throttle_hits: ThrottleHitTable;
+  rate_limit_counters: RateLimitCounterTable;
+  work_progress: WorkProgressTable;
+  queue_jobs: QueueJobTable;
 }

@@ -49,3 +49,6 @@ export * from './customers/customer.repository';
 // For loaders that write job moves as audit events in bulk (the benchmark's history, report test fixtures): the stints
 // those moves end, derived as migration 015 derived them for moves made before it.
 export { backfillJobStints } from './migrations/2026-12-03-015-report-tables';
+export * from './shared/shared-state.table';
+export * from './shared/shared-state.repository';
+export * from './shared/queue.repository';

@@ -16,8 +16,9 @@ import * as revisionDrafts from './migrations/2026-12-02-013-revision-drafts';
 import * as paidBeforeDownload from './migrations/2026-12-03-014-paid-before-download';
 import * as reportTables from './migrations/2026-12-03-015-report-tables';
 import * as kitPhotos from './migrations/2026-12-03-016-kit-photos';
-import * as postgresRowSecurity from './migrations/2026-12-03-018-postgres-row-security';
 import { PostgresSchemaPlugin, onPostgres } from './migrations/dialect';
+import * as sharedState from './migrations/2026-12-03-017-shared-state';
+import * as postgresRowSecurity from './migrations/2026-12-03-018-postgres-row-security';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -37,6 +38,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-03-014-paid-before-download': paidBeforeDownload,
   '2026-12-03-015-report-tables': reportTables,
   '2026-12-03-016-kit-photos': kitPhotos,
+  '2026-12-03-017-shared-state': sharedState,
   '2026-12-03-018-postgres-row-security': postgresRowSecurity,
 };
 

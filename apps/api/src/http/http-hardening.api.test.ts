@@ -5,7 +5,7 @@ import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { BlobStore } from '../storage/blob-store';
+import { DiskBlobStore } from '../storage/blob-store';
 import { singleFileUpload } from '../storage/upload';
 import { createCustomer, createShop } from '../testing/factories';
 import { createTestApp, signIn, TEST_ORIGIN, type TestApp } from '../testing/test-app';
@@ -54,7 +54,7 @@ describe('payment-provider errors', () => {
 describe('an upload the client aborts', () => {
   it('is logged at info, not as an unhandled error, and leaves no temp file', async () => {
     const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-abort-'));
-    const store = new BlobStore(dataDir);
+    const store = new DiskBlobStore(dataDir);
     const logged: Array<[string, unknown]> = [];
     const log = { info: (...a: unknown[]) => logged.push(['info', a]), warn: (...a: unknown[]) => logged.push(['warn', a]), error: (...a: unknown[]) => logged.push(['error', a]) };
     const app = express();

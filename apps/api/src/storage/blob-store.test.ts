@@ -3,12 +3,12 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { BlobStore } from './blob-store';
+import { DiskBlobStore } from './blob-store';
 
 describe('blob store', () => {
   it('stores by SHA-256, once per content, and leaves no temporary file', async () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-blobs-'));
-    const store = new BlobStore(dir);
+    const store = new DiskBlobStore(dir);
     const bytes = new TextEncoder().encode('abc');
     const first = await store.putBytes(bytes);
     // FIPS 180-2 Appendix B.1 [STD]: SHA-256("abc").
@@ -21,7 +21,7 @@ describe('blob store', () => {
   });
 
   it('refuses a path that is not a digest', () => {
-    const store = new BlobStore(fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-blobs-')));
+    const store = new DiskBlobStore(fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-blobs-')));
     expect(() => store.pathOf('../../etc/passwd')).toThrow();
   });
 });

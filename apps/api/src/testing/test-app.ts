@@ -15,7 +15,8 @@ import { startStripeFake, type StripeFakeControl } from '@revloop/stand-ins/stri
 import { SignInThrottle } from '../features/auth/sign-in-throttle';
 import { createSmtpMailer } from '../features/mail/mailer';
 import type { Clock } from '../http/clock';
-import { BlobStore } from '../storage/blob-store';
+import { TableQueue } from '../queue/work-queue';
+import { DiskBlobStore } from '../storage/blob-store';
 
 export const TEST_ORIGIN = 'http://localhost:8080';
 /** Everyone the factories make signs in with this. */
@@ -41,7 +42,7 @@ export interface TestApp {
   clock: FakeClock;
   env: Env;
   mailbox: Mailbox;
-  blobs: BlobStore;
+  blobs: DiskBlobStore;
   /** Present when asked for: the local Stripe stand-in, posting signed webhooks to this app on a real port. */
   stripe?: { url: string; control: StripeFakeControl };
   close(): Promise<void>;
@@ -87,7 +88,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
   const db = onPg ? await copyTemplate() : createDb(options.dataDir ? path.join(options.dataDir, 'revloop.db') : (options.database ?? template.snapshot));
   if (options.dataDir) await migrateToLatest(db);
   const clock = new FakeClock();
-  const blobs = new BlobStore(dataDir);
+  const blobs = new DiskBlobStore(dataDir);
   const smtp = await startSmtpFake();
   // The fake needs the webhook address before the app exists, so the listener opens first and takes the app after.
   const listener = options.stripe ? createServer() : undefined;
@@ -112,17 +113,21 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     ...envOverrides,
   });
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: env.MAIL_FROM });
+  const logger = pino({ level: 'silent' });
+  const queue = new TableQueue(db, logger, { pollMs: 50, backoffBaseMs: 50 });
   const deps: AppDeps = {
     db,
     env,
     clock,
     mailer,
-    logger: pino({ level: 'silent' }),
-    throttle: new SignInThrottle(undefined, () => clock.now().getTime()),
+    logger,
+    queue,
+    throttle: new SignInThrottle(db, { now: () => clock.now().getTime() }),
     blobs,
     mailbox: smtp.mailbox,
   };
   const app = createApp(deps);
+  queue.start();
   listener?.on('request', app);
   return {
     app,
@@ -134,6 +139,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     blobs,
     ...(stripe && { stripe: { url: stripe.url, control: stripe.control } }),
     close: async () => {
+      await queue.stop();
       await stripe?.close();
       if (listener) {
         listener.closeAllConnections();

@@ -26,7 +26,7 @@ export function createAuthRouter(deps: AppDeps): Router {
 
   router.post('/sign-in', async (req, res) => {
     const input = parseInput(signInSchema, req.body);
-    const attempt = throttle.begin(input.email, req.ip ?? 'unknown', readCookie(req.headers.cookie, DEVICE_COOKIE));
+    const attempt = await throttle.begin(input.email, req.ip ?? 'unknown', readCookie(req.headers.cookie, DEVICE_COOKIE));
     const wait = attempt.retryAfter;
     if (wait > 0) {
       res.set('Retry-After', String(wait));
@@ -35,7 +35,7 @@ export function createAuthRouter(deps: AppDeps): Router {
     const user = await findUserByEmail(db, input.email);
     const ok = await verifyPassword(user?.password_hash ?? null, input.password);
     if (!user || !ok) throw new DomainError('unauthenticated', 'The e-mail or password is wrong.', { reason: 'invalid_credentials' });
-    attempt.succeeded();
+    await attempt.succeeded();
     // This browser now has its own sign-in budget for the account (docs/decisions/002).
     res.append('Set-Cookie', deviceCookie(throttle.deviceToken(input.email), secure));
     const shopId = await signInShopId(db, user);

@@ -1,4 +1,5 @@
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
+import { clearThrottleKey, deleteThrottleHits, inTransaction, lockKeys, pruneThrottleHits, recordThrottleHits, throttleHitTimes, type Db } from '@revloop/db';
 
 /**
  * Sign-in throttling that stops guessing without locking an office out (docs/decisions/002):
@@ -8,7 +9,8 @@ import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
  * - a browser that signed in to the account before (a signed device cookie) has its own small budget instead,
  *   so a colleague keeps working while someone guesses from the same office address.
  * An attempt counts before the password is checked, so a parallel burst gets at most the limit checked, and a
- * successful attempt is taken back. State lives in memory: one process serves the app (see docs/decisions).
+ * successful attempt is taken back. Attempts are rows in the database (throttle_hits), so every API instance counts
+ * the attempts made on all of them, and the device-cookie key is a shared secret (docs/decisions/014).
  */
 export interface ThrottleLimits {
   windowMs: number;
@@ -29,46 +31,66 @@ export interface SignInAttempt {
   /** Seconds to wait before another attempt; 0 when this one may check the password. */
   retryAfter: number;
   /** Takes the attempt back after the password matched, and clears the failures of its pair or browser. */
-  succeeded(): void;
+  succeeded(): Promise<void>;
 }
 
 export class SignInThrottle {
-  private readonly failures = new Map<string, number[]>();
-  // Device cookies are signed with a key of this process: after a restart they count as unknown until the next sign-in.
-  private readonly deviceKey = randomBytes(32);
+  private readonly deviceKey: Buffer;
 
+  /** `deviceKey` signs the device cookies; every instance must share it (server.ts reads it from shared_secrets). */
   constructor(
-    private readonly limits: ThrottleLimits = DEFAULT_THROTTLE,
-    private readonly now: () => number = Date.now,
-  ) {}
+    private readonly db: Db,
+    options: { deviceKey?: string | Buffer; limits?: ThrottleLimits; now?: () => number } = {},
+  ) {
+    this.deviceKey = options.deviceKey === undefined ? randomBytes(32) : Buffer.from(options.deviceKey);
+    this.limits = options.limits ?? DEFAULT_THROTTLE;
+    this.now = options.now ?? Date.now;
+  }
 
-  /** Checks and counts one attempt in a single synchronous step, so no parallel request slips between the two. */
-  begin(account: string, ip: string, deviceToken?: string): SignInAttempt {
+  private readonly limits: ThrottleLimits;
+  private readonly now: () => number;
+
+  /**
+   * Checks and counts one attempt in one transaction. The attempt's rows are written first, which takes the write
+   * lock (SQLite) or the keys' advisory locks (PostgreSQL), so no parallel attempt on any instance slips between the
+   * check and the count; a refused attempt's rows are removed again.
+   */
+  begin(account: string, ip: string, deviceToken?: string): Promise<SignInAttempt> {
     const t = this.now();
+    const since = t - this.limits.windowMs;
     const device = deviceToken ? this.knownDevice(account, deviceToken) : null;
-    const checks: Array<[string, number]> = [];
-    if (device) {
-      checks.push([`d:${account}|${device}`, this.limits.perDevice]);
-    } else {
-      const pairFailed = this.recent(`a:${account}|${ip}`, t).length > 0;
-      checks.push([`i:${ip}`, this.limits.perIp], [`a:${account}|${ip}`, this.limits.perAccountIp]);
-      if (pairFailed) checks.push([`i:${ip}`, this.limits.perIpFailedAccounts], [`a:${account}`, this.limits.perAccount]);
-    }
-    let wait = 0;
-    for (const [key, limit] of checks) {
-      const times = this.recent(key, t);
-      if (times.length >= limit) wait = Math.max(wait, Math.ceil((times[times.length - limit]! + this.limits.windowMs - t) / 1000));
-    }
-    if (wait > 0) return { retryAfter: wait, succeeded: () => undefined };
     const keys = device ? [`d:${account}|${device}`] : [`i:${ip}`, `a:${account}|${ip}`, `a:${account}`];
-    for (const key of keys) this.failures.set(key, [...this.recent(key, t), t]);
-    return {
-      retryAfter: 0,
-      succeeded: () => {
-        for (const key of keys) this.takeBack(key, t);
-        this.failures.delete(keys[device ? 0 : 1]!);
-      },
-    };
+    return inTransaction(this.db, async (trx) => {
+      await lockKeys(trx, keys);
+      const mine = await recordThrottleHits(trx, keys, t);
+      const checks: Array<[string, number]> = [];
+      if (device) {
+        checks.push([`d:${account}|${device}`, this.limits.perDevice]);
+      } else {
+        const pairFailed = (await throttleHitTimes(trx, `a:${account}|${ip}`, since, mine)).length > 0;
+        checks.push([`i:${ip}`, this.limits.perIp], [`a:${account}|${ip}`, this.limits.perAccountIp]);
+        if (pairFailed) checks.push([`i:${ip}`, this.limits.perIpFailedAccounts], [`a:${account}`, this.limits.perAccount]);
+      }
+      let wait = 0;
+      for (const [key, limit] of checks) {
+        const times = await throttleHitTimes(trx, key, since, mine);
+        if (times.length >= limit) wait = Math.max(wait, Math.ceil((times[times.length - limit]! + this.limits.windowMs - t) / 1000));
+      }
+      if (wait > 0) {
+        await deleteThrottleHits(trx, mine);
+        return { retryAfter: wait, succeeded: () => Promise.resolve() };
+      }
+      // Old hits no longer count anywhere; dropping them here keeps the table small without a sweeper.
+      await pruneThrottleHits(trx, since);
+      return {
+        retryAfter: 0,
+        succeeded: () =>
+          inTransaction(this.db, async (inner) => {
+            await deleteThrottleHits(inner, mine);
+            await clearThrottleKey(inner, keys[device ? 0 : 1]!);
+          }),
+      };
+    });
   }
 
   /** A new device cookie value for a browser that has just signed in to `account`. */
@@ -87,17 +109,5 @@ export class SignInThrottle {
 
   private deviceSignature(account: string, id: string): Buffer {
     return createHmac('sha256', this.deviceKey).update(`sign-in-device:v1:${account}:${id}`).digest();
-  }
-
-  private takeBack(key: string, t: number): void {
-    const times = this.failures.get(key);
-    const at = times?.lastIndexOf(t) ?? -1;
-    if (times && at >= 0) times.splice(at, 1);
-  }
-
-  private recent(key: string, t: number): number[] {
-    const times = (this.failures.get(key) ?? []).filter((x) => x > t - this.limits.windowMs);
-    if (times.length === 0) this.failures.delete(key);
-    return times;
   }
 }

@@ -17,12 +17,12 @@ import { datalogAnalyzerOf, loadDatalog, readyReport, type ShopAuth } from './da
 
 type ValueChannel = Exclude<CanonicalChannel, 'time'>;
 
-/** One log with its job and report; a run this process does not know was cut off by a restart and starts again. */
+/** One log with its job and report; a "processing" log without an open analysis job gets one (adds nothing otherwise). */
 export async function openDatalog(deps: AppDeps, auth: ShopAuth, id: string) {
   const { row, job } = await loadDatalog(deps.db, auth, id);
   const analyzer = datalogAnalyzerOf(deps);
-  if (row.status === 'processing' && !analyzer.isRunning(row.id)) void analyzer.start(auth, row);
-  return datalogDetailToApi(row, job, analyzer.progressOf(row.id));
+  if (row.status === 'processing') await analyzer.start(row);
+  return datalogDetailToApi(row, job, row.status === 'processing' ? await analyzer.progressOf(row.id) : undefined);
 }
 
 const seriesCaches = new WeakMap<Db, SeriesCache>();
@@ -51,7 +51,7 @@ export async function datalogSeries(deps: AppDeps, auth: ShopAuth, id: string, q
   const report = readyReport(row);
   const mapping = JSON.parse(row.mapping) as StoredMapping;
   const columns = await seriesCacheOf(deps).get(`${row.sha256}|${row.mapping}|${row.fuel}`, {
-    filePath: deps.blobs.pathOf(row.sha256),
+    filePath: await deps.blobs.localPath(row.sha256),
     options: { ...mappingOptions(mapping), fuel: JSON.parse(row.fuel) },
   });
   const from = q.from ?? 0;

@@ -65,9 +65,9 @@ export async function uploadDatalog(
       details: { datalogId: row.id, text: `Log ${row.original_name} uploaded (on ${job.round === 0 ? 'the stock calibration' : `revision ${job.round}`})` },
       at: clock.now(),
     });
-    const analyzer = datalogAnalyzerOf(deps);
-    void analyzer.start(auth, row);
-    return datalogRowToDatalog({ ...row, uploaded_by_name: auth.user.name }, analyzer.progressOf(row.id));
+    // Queued after the row is written: the job outlives this process, and any instance may run it.
+    await datalogAnalyzerOf(deps).start(row);
+    return datalogRowToDatalog({ ...row, uploaded_by_name: auth.user.name }, undefined);
   } finally {
     // Adopted files were moved into the store; anything left at the temp path is a refused upload.
     await blobs.discard(upload.tempFile);
@@ -105,7 +105,6 @@ export async function confirmMapping(deps: AppDeps, auth: ShopAuth, datalogId: s
     details: { datalogId: row.id, text: `Column mapping of ${row.original_name} confirmed; the log is checked again` },
     at: clock.now(),
   });
-  const analyzer = datalogAnalyzerOf(deps);
-  void analyzer.start(auth, updated);
-  return datalogRowToDatalog({ ...updated, uploaded_by_name: row.uploaded_by_name }, analyzer.progressOf(row.id));
+  await datalogAnalyzerOf(deps).start(updated);
+  return datalogRowToDatalog({ ...updated, uploaded_by_name: row.uploaded_by_name }, undefined);
 }

@@ -1,5 +1,8 @@
 import {
+  clearWorkProgress,
   findDatalog,
+  setWorkProgress,
+  workProgressOf,
   findJob,
   findVehicle,
   updateDatalog,
@@ -21,7 +24,7 @@ import {
 import { parseShopSettings } from '@revloop/domain/shops';
 import { vehicleFuelSpec, type FuelSpec, type VehicleInput } from '@revloop/domain/vehicles';
 import type { AppDeps } from '../../context';
-import type { AuthContext } from '../../http/auth-context';
+import { loadAuthContext, type AuthContext } from '../../http/auth-context';
 import { analyzeFileInWorker } from '../../workers/datalog/analyze-file';
 import { recordAudit } from '../audit/audit.service';
 import { loadJob, moveJob, setJobFacts } from '../jobs/job.service';
@@ -48,27 +51,82 @@ export function logRequestOf(job: JobListRow, spec: VehicleInput): LogRequest {
   return parsed.success ? parsed.data : defaultLogRequest(spec.engine.family, Math.max(1, job.round));
 }
 
-/** Per-process analysis runs: progress lives here (0–1), the status in the row. */
+export const DATALOG_QUEUE = 'datalog-analysis';
+
+interface AnalysisJob {
+  datalogId: string;
+  shopId: string;
+}
+
+const progressKey = (id: string) => `datalog:${id}`;
+
+/**
+ * Log analysis as jobs of the durable queue (deps.queue), keyed by the log's id: any instance may run it, a crash
+ * re-runs it after the lease, and a run finds the log no longer "processing" when it was done before. Progress
+ * (0–1) is kept in work_progress, so every instance shows it; the status is in the row.
+ */
 export class DatalogAnalyzer {
-  private readonly running = new Map<string, number>();
+  private readonly written = new Map<string, number>();
 
-  constructor(private readonly deps: AppDeps) {}
-
-  progressOf(id: string): number | undefined {
-    return this.running.get(id);
+  constructor(private readonly deps: AppDeps) {
+    deps.queue.register(DATALOG_QUEUE, {
+      concurrency: 2,
+      maxAttempts: 3,
+      run: (payload) => this.runJob(payload as AnalysisJob),
+      onExhausted: async (payload) => {
+        const job = payload as AnalysisJob;
+        await updateDatalog(deps.db, job.shopId, job.datalogId, { status: 'failed', error: 'The log could not be analysed.', report: null });
+      },
+    });
   }
 
-  isRunning(id: string): boolean {
-    return this.running.has(id);
+  async progressOf(id: string): Promise<number | undefined> {
+    return (await workProgressOf(this.deps.db, [progressKey(id)])).get(progressKey(id));
   }
 
-  /** Starts the analysis off the request thread; the promise settles when the row is updated (tests await it). */
-  start(auth: ShopAuth, row: DatalogRow): Promise<void> {
-    if (this.running.has(row.id)) return Promise.resolve();
-    this.running.set(row.id, 0);
-    return this.run(auth, row)
-      .catch((error: unknown) => this.deps.logger.error({ err: error, datalogId: row.id }, 'datalog analysis could not be recorded'))
-      .finally(() => this.running.delete(row.id));
+  async progressOfMany(ids: string[]): Promise<Map<string, number>> {
+    const found = await workProgressOf(this.deps.db, ids.map(progressKey));
+    return new Map(ids.flatMap((id) => (found.has(progressKey(id)) ? [[id, found.get(progressKey(id))!] as const] : [])));
+  }
+
+  /** Queues the analysis of a "processing" log; false when a job for it is already queued or running. */
+  start(row: { id: string; shop_id: string }): Promise<boolean> {
+    return this.deps.queue.enqueue(DATALOG_QUEUE, row.id, { datalogId: row.id, shopId: row.shop_id } satisfies AnalysisJob);
+  }
+
+  /** Settles when the given logs have no open analysis job (tests and start-up recovery). */
+  settled(ids: string[]): Promise<void> {
+    return this.deps.queue.settled(DATALOG_QUEUE, ids);
+  }
+
+  private async runJob(job: AnalysisJob): Promise<void> {
+    const { db } = this.deps;
+    const row = await findDatalog(db, job.shopId, job.datalogId);
+    // Done before (by this or another instance), or removed: nothing to do, which makes a re-run harmless.
+    if (!row || row.status !== 'processing') return;
+    // Acts as the member who uploaded the log, as the upload itself did.
+    const auth = row.uploaded_by ? await loadAuthContext(db, 'analysis-queue', row.uploaded_by, row.shop_id) : null;
+    if (!auth?.shop) {
+      await updateDatalog(db, row.shop_id, row.id, {
+        status: 'failed',
+        error: 'The check was cut off by a restart and its uploader is no longer a member of the shop. Upload the log again.',
+        report: null,
+      });
+      return;
+    }
+    try {
+      await this.run(auth as ShopAuth, row);
+    } finally {
+      this.written.delete(row.id);
+      await clearWorkProgress(db, progressKey(row.id));
+    }
+  }
+
+  private reportProgress(id: string, fraction: number): void {
+    // A write per 5 %: enough for a progress bar, little for the database.
+    if (fraction - (this.written.get(id) ?? -1) < 0.05) return;
+    this.written.set(id, fraction);
+    setWorkProgress(this.deps.db, progressKey(id), fraction, this.deps.clock.now()).catch(() => undefined);
   }
 
   private async run(auth: ShopAuth, row: DatalogRow): Promise<void> {
@@ -87,7 +145,7 @@ export class DatalogAnalyzer {
     };
     let report: DatalogReport;
     try {
-      report = await analyzeFileInWorker(blobs.pathOf(row.sha256), options, (f) => this.running.set(row.id, f));
+      report = await analyzeFileInWorker(await blobs.localPath(row.sha256), options, (f) => this.reportProgress(row.id, f));
     } catch (error) {
       const message = isDomainError(error) ? error.message : 'The log could not be analysed.';
       if (!isDomainError(error)) this.deps.logger.error({ err: error, datalogId: row.id }, 'datalog analysis failed');
@@ -116,7 +174,7 @@ export class DatalogAnalyzer {
 
 const analyzers = new WeakMap<Db, DatalogAnalyzer>();
 
-/** One analyzer per app (keyed by its database), so the routes and start-up recovery share what is running. */
+/** One analyzer per app (keyed by its database): it registers the queue's handler once. */
 export function datalogAnalyzerOf(deps: AppDeps): DatalogAnalyzer {
   let analyzer = analyzers.get(deps.db);
   if (!analyzer) {

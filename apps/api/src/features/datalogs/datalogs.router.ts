@@ -98,8 +98,8 @@ export function createJobDatalogsRouter(deps: AppDeps): Router {
     const job = await loadJob(db, auth, req.params.jobId);
     authorizeRow(auth, 'read', 'Job', jobSubject(job));
     const rows = await listJobDatalogs(db, auth.shop.id, job.id);
-    const analyzer = datalogAnalyzerOf(deps);
-    res.json({ data: rows.map((r) => datalogRowToDatalog(r, analyzer.progressOf(r.id))), meta: { total: rows.length } });
+    const progress = await datalogAnalyzerOf(deps).progressOfMany(rows.filter((r) => r.status === 'processing').map((r) => r.id));
+    res.json({ data: rows.map((r) => datalogRowToDatalog(r, progress.get(r.id))), meta: { total: rows.length } });
   });
 
   return router;

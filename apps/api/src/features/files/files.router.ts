@@ -16,10 +16,11 @@ import { downloadFile, downloadFileByLink, type FileDownload } from './file-down
 import { fileAbilities, listVisibleFiles, loadFile, presentFile } from './file.service';
 
 /** RFC 6266 attachment with an ASCII fallback and the UTF-8 name, so no header injection and no sniffing. */
-function sendFile(deps: AppDeps, res: Response, { row, name }: FileDownload): void {
+async function sendFile(deps: AppDeps, res: Response, { row, name }: FileDownload): Promise<void> {
+  const body = await deps.blobs.stream(row.sha256);
   res.attachment(name);
   res.set({ 'Content-Type': 'application/octet-stream', 'Content-Length': String(row.size_bytes), 'X-Content-Type-Options': 'nosniff', 'Cache-Control': 'private, no-store' });
-  deps.blobs.stream(row.sha256).pipe(res);
+  body.pipe(res);
 }
 
 function calibrationUpload(deps: AppDeps): RequestHandler {
@@ -87,7 +88,7 @@ export function createFilesRouter(deps: AppDeps): Router {
       req.query.sig !== undefined
         ? await downloadFileByLink(deps, req.params.id, parseInput(linkQuerySchema, req.query))
         : await downloadFile(deps, requireShop(req), req.params.id);
-    sendFile(deps, res, download);
+    await sendFile(deps, res, download);
   });
 
   router.post('/:id/approve', async (req, res) => {

@@ -1,4 +1,5 @@
 import { claimQueuedMail, listQueuedMails, markMailFailed, newId, queueMails, removeQueuedMail, type Db } from '@revloop/db';
+import type { WorkQueue } from '../../queue/work-queue';
 import type { Mailer, OutgoingMail } from './mailer';
 
 const BATCH = 100;
@@ -46,4 +47,14 @@ export async function drainMailOutbox(deps: { db: Db; mailer: Mailer; clock: { n
     // Stop when nothing more went out: the rest failed or another drain holds it.
     if (rows.length < BATCH || sent === 0) return;
   }
+}
+
+export const MAIL_QUEUE = 'mail-outbox';
+
+/**
+ * The outbox sweep as a job of the durable queue: requests drain the outbox right after their change commits; this job
+ * (queued once a minute by the server, one open job per key) sends what a crashed or failed drain left, on any instance.
+ */
+export function registerMailOutboxJob(deps: { db: Db; mailer: Mailer; clock: { now(): Date }; queue: { register: WorkQueue['register'] } }): void {
+  deps.queue.register(MAIL_QUEUE, { maxAttempts: 3, run: () => drainMailOutbox(deps) });
 }

@@ -8,7 +8,7 @@ import { fileURLToPath } from 'node:url';
 import BetterSqlite3 from 'better-sqlite3';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { generateLog } from '@revloop/domain/datalog/testing';
-import { BlobStore } from '../../storage/blob-store';
+import { DiskBlobStore } from '../../storage/blob-store';
 import { createJob, createShop } from '../../testing/factories';
 import { freePort } from '../../testing/free-port';
 import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
@@ -218,7 +218,7 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
   const unfinished = crashed.prepare("select count(*) as n from datalogs where status = 'processing'").get() as { n: number };
   crashed.close();
   // A file stored just before its row would have been written, long enough ago to count as an orphan.
-  const orphan = new BlobStore(dataDir).pathOf('0'.repeat(64));
+  const orphan = new DiskBlobStore(dataDir).pathOf('0'.repeat(64));
   fs.mkdirSync(path.dirname(orphan), { recursive: true });
   fs.writeFileSync(orphan, 'orphan');
   const twoHoursAgo = new Date(Date.now() - 2 * 3_600_000);
@@ -242,10 +242,10 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
     for (const a of acknowledged) {
       const row = db.prepare(`select sha256 from ${a.table} where id = ?`).get(a.id) as { sha256: string } | undefined;
       expect(row, `${a.table} ${a.id} answered 2xx`).toEqual({ sha256: a.sha256 });
-      expect(fs.existsSync(new BlobStore(dataDir).pathOf(a.sha256))).toBe(true);
+      expect(fs.existsSync(new DiskBlobStore(dataDir).pathOf(a.sha256))).toBe(true);
     }
     const referenced = db.prepare('select sha256 from calibration_files union select sha256 from datalogs').all() as { sha256: string }[];
-    expect(referenced.filter((r) => !fs.existsSync(new BlobStore(dataDir).pathOf(r.sha256)))).toEqual([]);
+    expect(referenced.filter((r) => !fs.existsSync(new DiskBlobStore(dataDir).pathOf(r.sha256)))).toEqual([]);
 
     // Nobody opens a log: the list of the job's logs (which starts nothing) is polled until every one has ended.
     const ownerCookie = await signInCookie(second.base, ownerEmail);

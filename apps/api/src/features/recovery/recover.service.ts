@@ -1,7 +1,7 @@
 import { listUnfinishedDatalogs, referencedBlobHashes, updateDatalog } from '@revloop/db';
 import type { AppDeps } from '../../context';
 import { loadAuthContext } from '../../http/auth-context';
-import { datalogAnalyzerOf, type ShopAuth } from '../datalogs/datalog.service';
+import { datalogAnalyzerOf } from '../datalogs/datalog.service';
 
 /** A blob younger than this may belong to an upload whose row is still being written, so it is left alone. */
 export const ORPHAN_MIN_AGE_MS = 3_600_000;
@@ -18,19 +18,24 @@ export interface RecoveryCounts {
 
 export interface Recovery {
   counts: RecoveryCounts;
-  /** Settles when every re-queued analysis has finished (tests wait on it; the server does not). */
+  /** Settles when every re-queued analysis has finished, on whichever instance ran it (tests wait on it; the server does not). */
   analyses: Promise<void>;
 }
 
-/** Re-queues every log a crash left "processing" on the shared analyzer, acting as the member who uploaded it. */
+/**
+ * Makes sure every log left "processing" has an analysis job in the durable queue. A job the crashed process held is
+ * still in the queue and is taken over once its lease lapses; a log whose job was lost gets a new one. Logs whose
+ * uploader left the shop are failed here, since nobody can act for them.
+ */
 async function requeueUnfinishedDatalogs(deps: AppDeps) {
   const analyzer = datalogAnalyzerOf(deps);
-  const runs: Promise<void>[] = [];
+  const requeued: string[] = [];
   let failed = 0;
   for (const row of await listUnfinishedDatalogs(deps.db)) {
     const auth = row.uploaded_by ? await loadAuthContext(deps.db, 'start-up-recovery', row.uploaded_by, row.shop_id) : null;
     if (auth?.shop) {
-      runs.push(analyzer.start(auth as ShopAuth, row));
+      await analyzer.start(row);
+      requeued.push(row.id);
       continue;
     }
     await updateDatalog(deps.db, row.shop_id, row.id, {
@@ -40,7 +45,7 @@ async function requeueUnfinishedDatalogs(deps: AppDeps) {
     });
     failed += 1;
   }
-  return { requeued: runs.length, failed, analyses: Promise.all(runs).then(() => undefined) };
+  return { requeued: requeued.length, failed, analyses: requeued.length ? analyzer.settled(requeued) : Promise.resolve() };
 }
 
 /** Deletes blobs that no row references and that are older than ORPHAN_MIN_AGE_MS (an upload cut between file and row). */
