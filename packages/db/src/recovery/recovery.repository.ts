@@ -9,6 +9,7 @@ export async function referencedBlobHashes(db: Db): Promise<Set<string>> {
     .selectFrom('calibration_files')
     .select('sha256')
     .union(db.selectFrom('datalogs').select('sha256'))
+    .union(db.selectFrom('kit_photos').select('sha256'))
     .execute();
   return new Set(rows.map((r) => r.sha256));
 }

@@ -55,7 +55,7 @@ export function createKitsRouter(deps: AppDeps): Router {
     const auth = requireShop(req);
     const photo = await kitPhotoFile(deps, auth, req.params.id, req.params.photoId);
     res.set('Content-Type', photo.content_type).set('Cache-Control', 'private, max-age=3600').set('X-Content-Type-Options', 'nosniff');
-    deps.blobs.stream(photo.sha256).on('error', () => res.destroy()).pipe(res);
+    (await deps.blobs.stream(photo.sha256)).on('error', () => res.destroy()).pipe(res);
   });
 
   router.delete('/:id/photos/:photoId', async (req, res) => {

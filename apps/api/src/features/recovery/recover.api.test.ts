@@ -5,7 +5,7 @@ import { pino } from 'pino';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { newId } from '@revloop/db';
 import { createCustomer, createJob, createShop } from '../../testing/factories';
-import { createTestApp, type TestApp } from '../../testing/test-app';
+import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
 import { ORPHAN_MIN_AGE_MS, recoverAtStartup } from './recover.service';
 
 let t: TestApp;
@@ -61,12 +61,20 @@ describe('start-up recovery', () => {
     setAge(t.blobs.pathOf(recent.sha256), ORPHAN_MIN_AGE_MS - 60_000);
     const referenced = await t.db.selectFrom('calibration_files').select('sha256').executeTakeFirstOrThrow();
     setAge(t.blobs.pathOf(referenced.sha256), 30 * 86_400_000);
+    // A kit photo is a row that names a blob too.
+    const shop = await createShop(t);
+    const owner = await signIn(t.app, shop.owner.email);
+    const kit = (await owner.post('/api/kits').send({ name: 'Kit P', interfaceSerial: 'IF-P-1', weeklyPriceMinor: 5000, depositMinor: 30000, lateFeePerDayMinor: 1000 })).body.data as { id: string };
+    const photo = await t.blobs.putBytes(Buffer.from(`photo ${newId()}`));
+    await t.db.insertInto('kit_photos').values({ id: newId(), shop_id: shop.id, kit_id: kit.id, sha256: photo.sha256, size_bytes: photo.size, content_type: 'image/png', original_name: 'kit.png', uploaded_by_user_id: null, created_at: new Date().toISOString() }).execute();
+    setAge(t.blobs.pathOf(photo.sha256), 30 * 86_400_000);
 
     const { counts } = await recoverAtStartup(t.deps);
     expect(counts.orphanBlobs).toBeGreaterThanOrEqual(1);
     expect(fs.existsSync(t.blobs.pathOf(orphan.sha256))).toBe(false);
     expect(fs.existsSync(t.blobs.pathOf(recent.sha256))).toBe(true);
     expect(fs.existsSync(t.blobs.pathOf(referenced.sha256))).toBe(true);
+    expect(fs.existsSync(t.blobs.pathOf(photo.sha256))).toBe(true);
     // Every file a row names is still on disk.
     const rows = [
       ...(await t.db.selectFrom('calibration_files').select('sha256').execute()),

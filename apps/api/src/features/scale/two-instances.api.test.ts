@@ -7,9 +7,9 @@ import { fileURLToPath } from 'node:url';
 import BetterSqlite3 from 'better-sqlite3';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { createDb, migrateToLatest } from '@revloop/db';
 import { generateLog } from '@revloop/domain/datalog/testing';
-import { DEMO_PASSWORD, seedDemo, type DemoIds } from '../../testing/demo-fixture';
+import { createJob, createMember, createShop, payJob } from '../../testing/factories';
+import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
 import { DiskBlobStore } from '../../storage/blob-store';
 import { S3BlobStore } from '../../storage/s3-blob-store';
 import { freePort } from '../../testing/free-port';
@@ -26,7 +26,10 @@ const WEBHOOK_SECRET = 'whsec_two_instances';
 let s3: LocalS3;
 let workDir: string;
 let dbFile: string;
-let ids: DemoIds;
+let shopId: string;
+let ownerEmail: string;
+let tunerEmail: string;
+let jobIds: string[];
 const children: ChildProcess[] = [];
 
 async function waitFor<T>(what: string, probe: () => Promise<T | undefined> | T | undefined, timeoutMs = 60_000): Promise<T> {
@@ -80,7 +83,7 @@ async function kill(proc: ChildProcess, signal: NodeJS.Signals) {
   await exited;
 }
 
-const signIn = (base: string, email: string, password = DEMO_PASSWORD) =>
+const signIn = (base: string, email: string, password = TEST_PASSWORD) =>
   fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json', origin: base }, body: JSON.stringify({ email, password }) });
 
 async function upload(base: string, cookie: string, route: string, file: Buffer, name: string, fields: Record<string, string> = {}) {
@@ -110,13 +113,28 @@ const readDb = <T>(query: string, ...params: unknown[]): T[] => {
 beforeAll(async () => {
   s3 = await startLocalS3();
   workDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-two-'));
-  dbFile = path.join(workDir, 'shared.db');
-  const db = createDb(dbFile);
-  await migrateToLatest(db);
-  const seedBlobs = new DiskBlobStore(path.join(workDir, 'seed'));
-  ids = await seedDemo(db, new Date(), { blobs: seedBlobs });
-  await db.destroy();
-  // The demo's files go to the shared bucket, as moving an install from disk to object storage would.
+  // The shared database as the server keeps it: migrated, then one shop, a tuner and open jobs made by the factories
+  // (one sent and paid, so its customer's download link opens).
+  const seedDir = path.join(workDir, 'seed');
+  fs.mkdirSync(seedDir, { recursive: true });
+  const t = await createTestApp({}, { dataDir: seedDir });
+  try {
+    const shop = await createShop(t);
+    shopId = shop.id;
+    ownerEmail = shop.owner.email;
+    tunerEmail = (await createMember(t, shop, 'tuner')).email;
+    jobIds = [];
+    for (const state of ['on_bench', 'with_customer'] as const) {
+      const job = await createJob(t, shop, { state });
+      if (state === 'with_customer') await payJob(t, job);
+      jobIds.push(job.id);
+    }
+  } finally {
+    await t.close();
+  }
+  dbFile = path.join(seedDir, 'revloop.db');
+  const seedBlobs = new DiskBlobStore(seedDir);
+  // The files go to the shared bucket, as moving an install from disk to object storage would.
   const bucket = new S3BlobStore(path.join(workDir, 'seed'), { bucket: s3.bucket, region: 'us-east-1', endpoint: s3.endpoint, accessKeyId: s3.accessKeyId, secretAccessKey: s3.secretAccessKey, forcePathStyle: true });
   for await (const blob of seedBlobs.list()) await bucket.putBytes(await seedBlobs.read(blob.sha256));
   bucket.client.destroy();
@@ -132,7 +150,7 @@ it('two instances on one database and one object store behave as one', { timeout
   const [a, b] = await Promise.all([startInstance('a'), startInstance('b')]);
 
   // A session made on one works on the other.
-  const signedIn = await signIn(a.base, 'owner@kestrel.test');
+  const signedIn = await signIn(a.base, ownerEmail);
   expect(signedIn.status).toBe(200);
   const cookie = signedIn.headers.getSetCookie().find((c) => c.startsWith('revloop_session='))!.split(';')[0]!;
   const me = await fetch(`${b.base}/api/me`, { headers: { cookie } });
@@ -141,10 +159,10 @@ it('two instances on one database and one object store behave as one', { timeout
   // Throttling counts attempts made on both: five wrong passwords for one account from one address (three on A,
   // two on B) use up that pair's budget, so the sixth is refused on either instance.
   const wrong = [a, a, a, b, b].map((i) => i.base);
-  for (const base of wrong) expect((await signIn(base, 'tuner@kestrel.test', 'not-the-password')).status).toBe(401);
-  const sixth = await signIn(b.base, 'tuner@kestrel.test', 'not-the-password');
+  for (const base of wrong) expect((await signIn(base, tunerEmail, 'not-the-password')).status).toBe(401);
+  const sixth = await signIn(b.base, tunerEmail, 'not-the-password');
   expect(sixth.status).toBe(429);
-  expect((await signIn(a.base, 'tuner@kestrel.test', 'not-the-password')).status).toBe(429);
+  expect((await signIn(a.base, tunerEmail, 'not-the-password')).status).toBe(429);
 
   // A webhook delivered to both takes effect once: the event id is claimed in the shared database.
   const stripe = new Stripe('sk_test_two_instances');
@@ -161,7 +179,7 @@ it('two instances on one database and one object store behave as one', { timeout
   expect(readDb<{ n: number }>('select count(*) as n from stripe_events where id = ?', eventId)[0]!.n).toBe(1);
 
   // A log uploaded through one is analysed once and visible through the other.
-  const open = ids.jobs.filter((j) => j.shopId === ids.kestrel.shopId && !['dialed_in', 'cancelled'].includes(j.state));
+  const open = jobIds.map((id) => ({ id }));
   const log = Buffer.from(generateLog({ rateHz: 20, warmupS: 60, cruiseS: 60, pulls: [{ gears: [3] }], gearChannel: true }).text);
   const uploaded = await upload(a.base, cookie, `/api/jobs/${open[0]!.id}/datalogs`, log, 'two-instances.csv');
   expect(uploaded?.status).toBe('processing');
@@ -184,8 +202,8 @@ it('two instances on one database and one object store behave as one', { timeout
   // from the shared bucket whichever instance stored them. A link opens what the job's customer may read.
   expect(await upload(b.base, cookie, `/api/jobs/${open[1]!.id}/files`, randomBytes(32 * 1024), 'shared.bin', { module: 'ECM', kind: 're-read' }), refusals.join('\n')).toBeDefined();
   const [secret] = readDb<{ value: string }>("select value from shared_secrets where name = 'file-link'");
-  const candidates = readDb<{ id: string; size_bytes: number }>('select id, size_bytes from calibration_files where shop_id = ? order by created_at desc', ids.kestrel.shopId);
-  const linkOf = (id: string) => `/api/files/${id}/download?${fileLinkQuery(secret!.value, ids.kestrel.shopId, id, new Date())}`;
+  const candidates = readDb<{ id: string; size_bytes: number }>('select id, size_bytes from calibration_files where shop_id = ? order by created_at desc', shopId);
+  const linkOf = (id: string) => `/api/files/${id}/download?${fileLinkQuery(secret!.value, shopId, id, new Date())}`;
   let linked: { id: string; size_bytes: number } | undefined;
   for (const c of candidates) {
     if ((await fetch(`${a.base}${linkOf(c.id)}`)).status === 200) {
