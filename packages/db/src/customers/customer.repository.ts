@@ -1,4 +1,4 @@
-import { sql } from 'kysely';
+import { sql, type RawBuilder } from 'kysely';
 import type { Db } from '../client';
 import { joinedText, largestOf, sqlFalse } from '../sql-functions';
 
@@ -42,6 +42,13 @@ const SORT_SQL: Record<CustomerSort, ReturnType<typeof sql.ref>> = {
   paid: sql.ref('paid_minor'),
 };
 
+/** The sorts whose key is known without summing jobs: the page is picked by it first (see customerPageQuery). */
+const PAGE_FIRST_SORT_SQL: Partial<Record<CustomerSort, RawBuilder<unknown>>> = {
+  name: sql`u.name`,
+  email: sql`u.email`,
+  paid: sql`coalesce(cs.paid_minor - cs.refunded_minor, 0)`,
+};
+
 const likePattern = (text: string) => `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
 /**
@@ -72,14 +79,17 @@ export function customerPageQuery(db: Db, shopId: string, query: CustomerListQue
   const where = customerWhere(shopId, query);
   const dir = query.dir === 'desc' ? sql`desc` : sql`asc`;
   const order = sql`order by ${SORT_SQL[query.sort]} ${dir}, u.name asc, m.id asc`;
-  // Sorted by name or e-mail, the page is chosen first and only its customers' jobs and vehicles are summed; the
-  // other sorts need every customer's sums. Money paid is one row per customer, kept by the payment writers.
-  const pageFirst = query.sort === 'name' || query.sort === 'email';
+  // Sorted by name, e-mail or money paid (one summary row per customer, kept by the payment writers), the page is
+  // chosen first and only its customers' jobs and vehicles are summed; the other sorts need every customer's sums.
+  const pageKey = PAGE_FIRST_SORT_SQL[query.sort];
+  const pageFirst = pageKey !== undefined;
   const pageOnly = (column: string) => (pageFirst ? sql`and ${sql.ref(column)} in (select user_id from page)` : sql``);
   return sql<CustomerListRow>`
     with page as (
       select m.user_id from memberships m join users u on u.id = m.user_id
-      where ${pageFirst ? where : sqlFalse} ${order} limit ${query.limit} offset ${query.offset}
+      left join customer_summaries cs on cs.shop_id = m.shop_id and cs.customer_user_id = m.user_id
+      where ${pageFirst ? where : sqlFalse} order by ${pageKey ?? sql.ref('u.name')} ${dir}, u.name asc, m.id asc
+      limit ${query.limit} offset ${query.offset}
     ), job_agg as (
       select customer_user_id, count(*) as job_count, sum(is_open) as open_jobs, max(updated_at) as last_job_at
       from jobs where shop_id = ${shopId} ${pageOnly('customer_user_id')} group by customer_user_id
