@@ -10,6 +10,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import { generateLog } from '@revloop/domain/datalog/testing';
 import { DiskBlobStore } from '../../storage/blob-store';
 import { createJob, createShop } from '../../testing/factories';
+import { kill, waitFor } from '../../testing/child-processes';
 import { freePort } from '../../testing/free-port';
 import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
 
@@ -27,16 +28,6 @@ let ownerEmail: string;
 /** Open jobs, one in each state before the first revision is judged. */
 let jobIds: string[];
 let child: ChildProcess | undefined;
-
-async function waitFor<T>(what: string, probe: () => Promise<T | undefined> | T | undefined, timeoutMs = 60_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await probe();
-    if (value !== undefined) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 /** Starts the server on the data folder and resolves once it answers, with its log lines so far (and to come). */
 async function startServer(port: number) {
@@ -73,13 +64,6 @@ async function startServer(port: number) {
     return fetch(`${base}/api/health`).then((r) => (r.ok ? true : undefined), () => undefined);
   });
   return { proc, base, lines };
-}
-
-async function kill(proc: ChildProcess, signal: NodeJS.Signals) {
-  if (proc.exitCode !== null || proc.signalCode !== null) return;
-  const exited = new Promise((resolve) => proc.once('exit', resolve));
-  proc.kill(signal);
-  await exited;
 }
 
 async function signInCookie(base: string, email: string): Promise<string> {

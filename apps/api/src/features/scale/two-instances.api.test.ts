@@ -12,6 +12,7 @@ import { createJob, createMember, createShop, payJob } from '../../testing/facto
 import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
 import { DiskBlobStore } from '../../storage/blob-store';
 import { S3BlobStore } from '../../storage/s3-blob-store';
+import { kill, waitFor } from '../../testing/child-processes';
 import { freePort } from '../../testing/free-port';
 import { startLocalS3, type LocalS3 } from '../../testing/s3-server';
 import { fileLinkQuery } from '../files/file-links';
@@ -31,16 +32,6 @@ let ownerEmail: string;
 let tunerEmail: string;
 let jobIds: string[];
 const children: ChildProcess[] = [];
-
-async function waitFor<T>(what: string, probe: () => Promise<T | undefined> | T | undefined, timeoutMs = 60_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await probe();
-    if (value !== undefined) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 async function startInstance(name: string) {
   const port = await freePort();
@@ -74,13 +65,6 @@ async function startInstance(name: string) {
     return fetch(`${base}/api/health`).then((r) => (r.ok ? true : undefined), () => undefined);
   });
   return { proc, base };
-}
-
-async function kill(proc: ChildProcess, signal: NodeJS.Signals) {
-  if (proc.exitCode !== null || proc.signalCode !== null) return;
-  const exited = new Promise((resolve) => proc.once('exit', resolve));
-  proc.kill(signal);
-  await exited;
 }
 
 const signIn = (base: string, email: string, password = TEST_PASSWORD) =>

@@ -5,9 +5,8 @@ import { Banner } from '../../../../components/ui/banner';
 import { Card } from '../../../../components/ui/card';
 import { PageSpinner } from '../../../../components/ui/spinner';
 import { useShop } from '../../../../features/shop-settings/api/get-shop';
-import { PaymentLockForm } from '../../../../features/shop-settings/components/payment-lock-form';
 import { PublicPageForm } from '../../../../features/shop-settings/components/public-page-form';
-import { RevisionReviewForm } from '../../../../features/shop-settings/components/revision-review-form';
+import { ShopSwitchForm } from '../../../../features/shop-settings/components/shop-switch-form';
 import { ShopSettingsForm } from '../../../../features/shop-settings/components/shop-settings-form';
 import { errorMessage } from '../../../../lib/form-errors';
 import { RequireScreen } from '../require-screen';
@@ -43,10 +42,15 @@ function ShopSettings() {
         <PublicPageForm shop={data} canEdit={canEdit} />
       </Card>
       <Card title="Revision review" description="Revisions are drafts until someone sends them with a note of what changed.">
-        <RevisionReviewForm shop={data} canEdit={canEdit} />
+        <ShopSwitchForm shop={data} canEdit={canEdit} setting="revisionApproval" label="Ask for a second person’s approval before a revision is sent." saveLabel="Save revision review">
+          Another tuner or the owner approves each draft; nobody approves their own. Applies to drafts uploaded from now on.
+        </ShopSwitchForm>
       </Card>
       <Card title="Payment before download" description="A revision a retail customer has not paid for waits for the payment.">
-        <PaymentLockForm shop={data} canEdit={canEdit} />
+        <ShopSwitchForm shop={data} canEdit={canEdit} setting="paidBeforeDownload" label="Keep sent revisions locked until the job is paid." saveLabel="Save payment before download">
+          Retail customers see the revision and its note with a Pay button; the download opens once payment lands. Dealers’ jobs are paid from the
+          dealer balance and never locked. Reads, re-reads and logs are never locked. You can waive the lock for one job on its page.
+        </ShopSwitchForm>
       </Card>
     </div>
   );
