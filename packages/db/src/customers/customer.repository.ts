@@ -75,11 +75,13 @@ export function customerPageQuery(db: Db, shopId: string, query: CustomerListQue
   // Sorted by name or e-mail, the page is chosen first and only its customers' jobs and vehicles are summed; the
   // other sorts need every customer's sums. Money paid is one row per customer, kept by the payment writers.
   const pageFirst = query.sort === 'name' || query.sort === 'email';
+  // The page is empty for the other sorts, and it has no sums to order by: PostgreSQL refuses the unknown name (SQLite
+  // quietly read it as a text constant).
   const pageOnly = (column: string) => (pageFirst ? sql`and ${sql.ref(column)} in (select user_id from page)` : sql``);
   return sql<CustomerListRow>`
     with page as (
       select m.user_id from memberships m join users u on u.id = m.user_id
-      where ${pageFirst ? where : sqlFalse} ${order} limit ${query.limit} offset ${query.offset}
+      where ${pageFirst ? where : sqlFalse} ${pageFirst ? order : sql``} limit ${query.limit} offset ${query.offset}
     ), job_agg as (
       select customer_user_id, count(*) as job_count, sum(is_open) as open_jobs, max(updated_at) as last_job_at
       from jobs where shop_id = ${shopId} ${pageOnly('customer_user_id')} group by customer_user_id
