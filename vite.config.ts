@@ -31,10 +31,25 @@ export default defineConfig({
       // The crash test starts and kills real servers in child processes: it keeps a worker of its own.
       { test: { name: 'api-crash', root: 'apps/api', include: ['src/features/recovery/crash.api.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 30000 } },
       { test: { name: 'db-pg', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 60000, ...onPostgres } },
-      // The API suite on PostgreSQL: opt in with REVLOOP_API_PG=1 until it passes there (docs/decisions/013).
-      ...(process.env.REVLOOP_API_PG === '1'
-        ? [{ test: { name: 'api-pg', root: 'apps/api', include: ['src/**/*.test.ts'], exclude: ['src/features/recovery/crash.api.test.ts'], environment: 'node' as const, testTimeout: 30000, hookTimeout: 60000, ...onPostgres } }]
-        : []),
+      // The API suite on PostgreSQL, every folder (DEVELOPERS.md "PostgreSQL"); REVLOOP_API_PG=0 leaves it out of a
+      // quick local run. Files share their worker's module cache, as in `api`; each test app copies the template.
+      ...(process.env.REVLOOP_API_PG === '0'
+        ? []
+        : [
+            {
+              test: {
+                name: 'api-pg',
+                root: 'apps/api',
+                include: ['src/**/*.test.ts'],
+                exclude: ['src/features/recovery/crash.api.test.ts'],
+                environment: 'node' as const,
+                isolate: false,
+                testTimeout: 30000,
+                hookTimeout: 60000,
+                ...onPostgres,
+              },
+            },
+          ]),
       { test: { name: 'stand-ins', root: 'packages/stand-ins', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000 } },
       { test: { name: 'web', root: 'apps/web', include: ['src/**/*.test.{ts,tsx}'], environment: 'node' } },
       // Checks of the repository's own tooling, such as the import rules in eslint.config.js.

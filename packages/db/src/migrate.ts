@@ -19,6 +19,7 @@ import * as kitPhotos from './migrations/2026-12-03-016-kit-photos';
 import { PostgresSchemaPlugin, onPostgres } from './migrations/dialect';
 import * as sharedState from './migrations/2026-12-03-017-shared-state';
 import * as postgresRowSecurity from './migrations/2026-12-03-018-postgres-row-security';
+import * as postgresDoublePrecision from './migrations/2026-12-03-019-postgres-double-precision';
 
 /** Migrations are listed here, in order, so bundlers and tsx need no folder scan. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -40,6 +41,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-03-016-kit-photos': kitPhotos,
   '2026-12-03-017-shared-state': sharedState,
   '2026-12-03-018-postgres-row-security': postgresRowSecurity,
+  '2026-12-03-019-postgres-double-precision': postgresDoublePrecision,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

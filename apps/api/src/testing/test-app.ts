@@ -84,9 +84,11 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
   const template = await migratedTemplate();
   const dataDir = options.dataDir ?? template.dataDir;
   const onPg = testEngine() === 'postgres';
-  if (onPg && (options.database || options.dataDir)) throw new Error('A SQLite snapshot or data folder cannot seed a PostgreSQL test database.');
+  if (onPg && options.database) throw new Error('A SQLite snapshot cannot seed a PostgreSQL test database.');
+  // With a data folder the database outlives the app (a server is started on it later): on PostgreSQL the copy of the
+  // template stays until the test file ends (its address: testDbUrl), on SQLite it is the folder's revloop.db.
   const db = onPg ? await copyTemplate() : createDb(options.dataDir ? path.join(options.dataDir, 'revloop.db') : (options.database ?? template.snapshot));
-  if (options.dataDir) await migrateToLatest(db);
+  if (options.dataDir && !onPg) await migrateToLatest(db);
   const clock = new FakeClock();
   const blobs = new DiskBlobStore(dataDir);
   const smtp = await startSmtpFake();

@@ -25,12 +25,14 @@ export async function findCalibrationFile(db: Db, shopId: string, id: string): P
   return withUploader(db, shopId).where('calibration_files.id', '=', id).executeTakeFirst();
 }
 
-/** A job's files, oldest first. */
+/** A job's files, oldest first; files of the same moment by module (neither engine keeps insertion order for ties). */
 export async function listJobFiles(db: Db, shopId: string, jobId: string): Promise<CalibrationFileListRow[]> {
   return withUploader(db, shopId)
     .where('calibration_files.job_id', '=', jobId)
     .orderBy('calibration_files.created_at')
     .orderBy('calibration_files.revision_number')
+    .orderBy('calibration_files.module')
+    .orderBy('calibration_files.id')
     .execute();
 }
 

@@ -9,7 +9,7 @@ import { migrateToLatest } from '../migrate';
 
 export const testEngine = (): 'sqlite' | 'postgres' => (process.env.REVLOOP_TEST_DB === 'postgres' ? 'postgres' : 'sqlite');
 
-const opened: Array<{ db: Db; name: string }> = [];
+const opened: Array<{ db: Db; name: string; url: string }> = [];
 let fileDb: { db: Db; tables: string[] } | undefined;
 
 /**
@@ -47,9 +47,17 @@ export async function copyTemplate(): Promise<Db> {
   } finally {
     await client.end();
   }
-  const db = createDb(appUrl.replace('{database}', name), { poolSize: 4 });
-  opened.push({ db, name });
+  const url = appUrl.replace('{database}', name);
+  const db = createDb(url, { poolSize: 4 });
+  opened.push({ db, name, url });
   return db;
+}
+
+/** The address of a database copyTemplate made, for a server process started on it (DATABASE_URL). */
+export function testDbUrl(db: Db): string {
+  const found = opened.find((o) => o.db === db);
+  if (!found) throw new Error('Not a PostgreSQL test database made by copyTemplate.');
+  return found.url;
 }
 
 /** Closes every PostgreSQL test database this worker opened and drops it (a setup file calls it after each file). */

@@ -5,6 +5,7 @@ import {
   workProgressOf,
   findJob,
   findVehicle,
+  inTransaction,
   updateDatalog,
   type DatalogRow,
   type DatalogListRow,
@@ -13,6 +14,7 @@ import {
   type ShopRow,
 } from '@revloop/db';
 import { DomainError, isDomainError } from '@revloop/domain';
+import { systemActorFor } from '@revloop/domain/auth';
 import {
   defaultLogRequest,
   logRequestSchema,
@@ -27,7 +29,8 @@ import type { AppDeps } from '../../context';
 import { loadAuthContext, type AuthContext } from '../../http/auth-context';
 import { analyzeFileInWorker } from '../../workers/datalog/analyze-file';
 import { recordAudit } from '../audit/audit.service';
-import { loadJob, moveJob, setJobFacts } from '../jobs/job.service';
+import { loadJob, setJobFacts, transitionJob } from '../jobs/job.service';
+import { drainMailOutbox } from '../mail/mail-outbox.service';
 import { mappingOptions, type StoredMapping } from './datalog-mapping';
 
 export type ShopAuth = AuthContext & { shop: ShopRow };
@@ -152,23 +155,31 @@ export class DatalogAnalyzer {
       await updateDatalog(db, row.shop_id, row.id, { status: 'failed', error: message, report: null });
       return;
     }
-    await updateDatalog(db, row.shop_id, row.id, { status: 'ready', error: null, report: JSON.stringify(report) });
     const fails = report.checks.filter((c) => c.status === 'fail').length;
-    await recordAudit(db, {
-      shopId: row.shop_id,
-      actorUserId: row.uploaded_by,
-      action: 'datalog.analysed',
-      subjectType: 'Job',
-      subjectId: row.job_id,
-      details: {
-        datalogId: row.id,
-        text: `Log ${row.original_name} checked: ${fails === 0 ? 'usable' : `${fails} check${fails === 1 ? '' : 's'} failed`}`,
-      },
-      at: clock.now(),
+    // The report, its audit line and the job's move to log review commit together: whoever sees the log ready sees the
+    // job moved too (on PostgreSQL a reader can come between two separate writes), and a crash leaves neither.
+    await inTransaction(db, async (trx) => {
+      await updateDatalog(trx, row.shop_id, row.id, { status: 'ready', error: null, report: JSON.stringify(report) });
+      await recordAudit(trx, {
+        shopId: row.shop_id,
+        actorUserId: row.uploaded_by,
+        action: 'datalog.analysed',
+        subjectType: 'Job',
+        subjectId: row.job_id,
+        details: {
+          datalogId: row.id,
+          text: `Log ${row.original_name} checked: ${fails === 0 ? 'usable' : `${fails} check${fails === 1 ? '' : 's'} failed`}`,
+        },
+        at: clock.now(),
+      });
+      if (row.round !== job.round) return;
+      await setJobFacts(trx, row.shop_id, row.job_id, { hasLogForRound: true }, clock.now());
+      const current = await loadJob(trx, auth, row.job_id);
+      if (current.state === 'with_customer') {
+        await transitionJob(this.deps, trx, current, 'log_review', { actor: systemActorFor(auth.shop.id), causedBy: auth.user.id });
+      }
     });
-    if (row.round !== job.round) return;
-    await setJobFacts(db, row.shop_id, row.job_id, { hasLogForRound: true }, clock.now());
-    if (job.state === 'with_customer') await moveJob(this.deps, auth, row.job_id, 'log_review', { bySystem: true });
+    await drainMailOutbox(this.deps);
   }
 }
 

@@ -1,3 +1,4 @@
+import { testEngine } from '@revloop/db/testing';
 import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createJob, createShop } from '../../testing/factories';
@@ -13,8 +14,10 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const HOUR = 3_600_000;
-// In the order written (the test clock stands still while a job is walked, so several moves share an instant).
-const stintsOf = (jobId: string) => t.db.selectFrom('job_stints').selectAll().where('job_id', '=', jobId).orderBy(sql`rowid`).execute();
+// In the order written (the test clock stands still while a job is walked, so several moves share an instant): SQLite's
+// rowid, or on PostgreSQL the row's place in the table (job_stints is only ever appended to, so it is the same order).
+const written = testEngine() === 'postgres' ? sql`ctid` : sql`rowid`;
+const stintsOf = (jobId: string) => t.db.selectFrom('job_stints').selectAll().where('job_id', '=', jobId).orderBy(written).execute();
 const movesOf = (jobId: string) =>
   t.db.selectFrom('audit_events').select(['id', 'actor_user_id', 'details', 'created_at']).where('subject_id', '=', jobId).where('action', '=', 'job.moved').orderBy('created_at').orderBy('id').execute();
 

@@ -4,7 +4,9 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import BetterSqlite3 from 'better-sqlite3';
+import { createDb, type Db } from '@revloop/db';
+import { testDbUrl, testEngine } from '@revloop/db/testing';
+import { sql, type RawBuilder } from 'kysely';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { generateLog } from '@revloop/domain/datalog/testing';
@@ -17,8 +19,9 @@ import { freePort } from '../../testing/free-port';
 import { startLocalS3, type LocalS3 } from '../../testing/s3-server';
 import { fileLinkQuery } from '../files/file-links';
 
-// Two real API processes on different ports share one database file (SQLite in WAL mode) and one object store
-// (s3rver through the AWS SDK); each has its own data folder, so nothing is shared through local disk.
+// Two real API processes on different ports share one database (a SQLite file in WAL mode, or in the api-pg project a
+// PostgreSQL database) and one object store (s3rver through the AWS SDK); each has its own data folder, so nothing is
+// shared through local disk.
 
 const ROOT = fileURLToPath(new URL('../../../../../', import.meta.url));
 const SERVER = path.join(ROOT, 'apps/api/src/server.ts');
@@ -26,7 +29,9 @@ const WEBHOOK_SECRET = 'whsec_two_instances';
 
 let s3: LocalS3;
 let workDir: string;
-let dbFile: string;
+/** The shared database: a SQLite file, or a PostgreSQL address. */
+let dbSource: string;
+let reader: Db;
 let shopId: string;
 let ownerEmail: string;
 let tunerEmail: string;
@@ -46,7 +51,7 @@ async function startInstance(name: string) {
       PORT: String(port),
       APP_ORIGIN: `http://127.0.0.1:${port}`,
       DATA_DIR: dataDir,
-      SQLITE_FILE: dbFile,
+      ...(testEngine() === 'postgres' ? { DATABASE_URL: dbSource } : { SQLITE_FILE: dbSource }),
       LOCAL_SMTP: 'true',
       SMTP_PORT: '0',
       LOCAL_STRIPE: 'false',
@@ -85,14 +90,7 @@ async function upload(base: string, cookie: string, route: string, file: Buffer,
 /** Uploads answered otherwise, to explain a failed expectation. */
 const refusals: string[] = [];
 
-const readDb = <T>(query: string, ...params: unknown[]): T[] => {
-  const db = new BetterSqlite3(dbFile, { readonly: true });
-  try {
-    return db.prepare(query).all(...params) as T[];
-  } finally {
-    db.close();
-  }
-};
+const readDb = async <T>(query: RawBuilder<T>): Promise<T[]> => (await query.execute(reader)).rows;
 
 beforeAll(async () => {
   s3 = await startLocalS3();
@@ -103,6 +101,7 @@ beforeAll(async () => {
   fs.mkdirSync(seedDir, { recursive: true });
   const t = await createTestApp({}, { dataDir: seedDir });
   try {
+    dbSource = testEngine() === 'postgres' ? testDbUrl(t.db) : path.join(seedDir, 'revloop.db');
     const shop = await createShop(t);
     shopId = shop.id;
     ownerEmail = shop.owner.email;
@@ -116,7 +115,7 @@ beforeAll(async () => {
   } finally {
     await t.close();
   }
-  dbFile = path.join(seedDir, 'revloop.db');
+  reader = createDb(dbSource, { poolSize: 1 });
   const seedBlobs = new DiskBlobStore(seedDir);
   // The files go to the shared bucket, as moving an install from disk to object storage would.
   const bucket = new S3BlobStore(path.join(workDir, 'seed'), { bucket: s3.bucket, region: 'us-east-1', endpoint: s3.endpoint, accessKeyId: s3.accessKeyId, secretAccessKey: s3.secretAccessKey, forcePathStyle: true });
@@ -127,6 +126,7 @@ beforeAll(async () => {
 afterAll(async () => {
   for (const child of children) await kill(child, 'SIGKILL');
   await s3.close();
+  await reader?.destroy();
   fs.rmSync(workDir, { recursive: true, force: true });
 });
 
@@ -160,7 +160,7 @@ it('two instances on one database and one object store behave as one', { timeout
     });
   const deliveries = await Promise.all([deliver(a.base), deliver(b.base), deliver(a.base), deliver(b.base)]);
   expect(deliveries.map((r) => r.status)).toEqual([200, 200, 200, 200]);
-  expect(readDb<{ n: number }>('select count(*) as n from stripe_events where id = ?', eventId)[0]!.n).toBe(1);
+  expect((await readDb(sql<{ n: number }>`select count(*) as n from stripe_events where id = ${eventId}`))[0]!.n).toBe(1);
 
   // A log uploaded through one is analysed once and visible through the other.
   const open = jobIds.map((id) => ({ id }));
@@ -174,19 +174,19 @@ it('two instances on one database and one object store behave as one', { timeout
   });
   expect(seen.status).toBe('ready');
   // The row turns ready just before its queue job is marked done.
-  const jobs = await waitFor('the analysis job to end', () => {
-    const rows = readDb<{ state: string; attempts: number }>("select state, attempts from queue_jobs where queue = 'datalog-analysis' and key = ?", uploaded!.id);
+  const jobs = await waitFor('the analysis job to end', async () => {
+    const rows = await readDb(sql<{ state: string; attempts: number }>`select state, attempts from queue_jobs where queue = 'datalog-analysis' and key = ${uploaded!.id}`);
     return rows.every((r) => r.state !== 'running' && r.state !== 'queued') ? rows : undefined;
   });
   expect(jobs).toEqual([{ state: 'done', attempts: 1 }]);
-  const analysed = readDb<{ n: number }>("select count(*) as n from audit_events where action = 'datalog.analysed' and details like ?", `%${uploaded!.id}%`);
+  const analysed = await readDb(sql<{ n: number }>`select count(*) as n from audit_events where action = 'datalog.analysed' and details like ${`%${uploaded!.id}%`}`);
   expect(analysed[0]!.n).toBe(1);
 
   // A download signed by one verifies on the other: both read the link key from shared_secrets, and the bytes come
   // from the shared bucket whichever instance stored them. A link opens what the job's customer may read.
   expect(await upload(b.base, cookie, `/api/jobs/${open[1]!.id}/files`, randomBytes(32 * 1024), 'shared.bin', { module: 'ECM', kind: 're-read' }), refusals.join('\n')).toBeDefined();
-  const [secret] = readDb<{ value: string }>("select value from shared_secrets where name = 'file-link'");
-  const candidates = readDb<{ id: string; size_bytes: number }>('select id, size_bytes from calibration_files where shop_id = ? order by created_at desc', shopId);
+  const [secret] = await readDb(sql<{ value: string }>`select value from shared_secrets where name = 'file-link'`);
+  const candidates = await readDb(sql<{ id: string; size_bytes: number }>`select id, size_bytes from calibration_files where shop_id = ${shopId} order by created_at desc`);
   const linkOf = (id: string) => `/api/files/${id}/download?${fileLinkQuery(secret!.value, shopId, id, new Date())}`;
   let linked: { id: string; size_bytes: number } | undefined;
   for (const c of candidates) {
