@@ -13,7 +13,7 @@ import path from 'node:path';
 import pg from 'pg';
 import { createDb, migrateToLatest } from '../packages/db/src/index';
 
-const APP_ROLE = 'revloop_test_app';
+export const APP_ROLE = 'revloop_test_app';
 const APP_PASSWORD = 'revloop_test_app';
 const TEMPLATE = 'revloop_test_template';
 
@@ -34,13 +34,14 @@ function runAsServerUser(file: string, args: string[]): void {
   else execFileSync(file, args, { stdio: 'pipe' });
 }
 
-interface Cluster {
+export interface Cluster {
   adminUrl: string;
   appUrl: (database: string) => string;
   stop: () => void;
 }
 
-function startCluster(): Cluster {
+/** A throwaway cluster in a temp folder (unix socket only); stop() shuts it down and removes the folder. */
+export function startCluster(): Cluster {
   const dir = mkdtempSync(path.join(tmpdir(), 'revloop-pg-'));
   if (process.getuid?.() === 0) {
     const uid = Number(execFileSync('id', ['-u', 'postgres']).toString().trim());

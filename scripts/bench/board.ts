@@ -17,14 +17,14 @@ import { DiskBlobStore } from '../../apps/api/src/storage/blob-store';
 import { freePort } from '../../apps/api/src/testing/free-port';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const DURATION_S = 10;
-const CONNECTIONS = 10;
-const TARGET_RPS = 500;
-const TARGET_P99_MS = 50;
+export const DURATION_S = 10;
+export const CONNECTIONS = 10;
+export const TARGET_RPS = 500;
+export const TARGET_P99_MS = 50;
 const TARGET_ME_P99_MS = 25;
 
 /** The query the web board sends by default (apps/web/src/features/jobs/components/job-list-params.ts boardParams). */
-const BOARD_QUERY = '/api/jobs?open=true&sort=state_changed&dir=asc&pageSize=200';
+export const BOARD_QUERY = '/api/jobs?open=true&sort=state_changed&dir=asc&pageSize=200';
 /** The table view's first page (tableParams with the screen defaults). */
 const TABLE_QUERY = '/api/jobs?sort=updated&dir=desc&pageSize=25';
 
@@ -128,7 +128,48 @@ function chunks<T>(items: T[], size: number): T[][] {
   return Array.from({ length: Math.ceil(items.length / size) }, (_, i) => items.slice(i * size, (i + 1) * size));
 }
 
-export async function startServer(dataDir: string, port: number): Promise<ChildProcess> {
+/** Builds the bench shop on a fresh database (SQLite file or PostgreSQL): migrations, the demo data, then the history. */
+export async function buildShop(db: Db, dataDir: string, jobCount: number): Promise<Array<{ id: string; state: string }>> {
+  const built = performance.now();
+  await migrateToLatest(db);
+  const now = new Date();
+  const ids = await seedDemo(db, now, { blobs: new DiskBlobStore(dataDir) });
+  const { events } = await addHistory(db, ids.kestrel, jobCount, now);
+  const jobs = await db.selectFrom('jobs').select(['id', 'state']).where('shop_id', '=', ids.kestrel.shopId).execute();
+  const openJobs = jobs.filter((j) => (OPEN_STATES as readonly string[]).includes(j.state));
+  console.log(
+    `data: ${jobs.length.toLocaleString('en')} jobs (${openJobs.length} open) and ${events.toLocaleString('en')}+ audit events in one shop, built in ${((performance.now() - built) / 1000).toFixed(1)} s`,
+  );
+  return jobs;
+}
+
+/** Signs in as the bench shop's owner and returns the session cookie (name=value). */
+export async function signInOwner(base: string): Promise<string> {
+  const signIn = await fetch(`${base}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', origin: base },
+    body: JSON.stringify({ email: 'owner@kestrel.test', password: DEMO_PASSWORD }),
+  });
+  if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}`);
+  return signIn.headers.getSetCookie().find((c) => c.startsWith('revloop_session='))!.split(';')[0]!;
+}
+
+/** The requests the job page makes (apps/web/src/app/routes/app/jobs/job.tsx and its panels). */
+export const JOB_PAGE_PATHS = ['/api/jobs/:id', '/api/jobs/:id/files', '/api/jobs/:id/datalogs', '/api/jobs/:id/messages', '/api/billing/jobs/:id/payments'];
+
+/** One page view per sequence of autocannon requests, each view for a random job. */
+export function jobPageRequests(jobIds: string[]): autocannon.Request[] {
+  return JOB_PAGE_PATHS.map((p, k) => ({
+    method: 'GET' as const,
+    setupRequest: (req: autocannon.Request, context: Record<string, string>) => {
+      if (k === 0) context.jobId = jobIds[Math.floor(Math.random() * jobIds.length)]!;
+      return { ...req, path: p.replace(':id', context.jobId!) };
+    },
+  }));
+}
+
+/** The API server in a child process; env adds to its environment (DATABASE_URL for PostgreSQL, SQLITE_FILE). */
+export async function startServer(dataDir: string, port: number, env: Record<string, string> = {}): Promise<ChildProcess> {
   const profile = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(process.env.BENCH_CPU_PROF)}`] : [];
   const proc = spawn(process.execPath, [...profile, '--import', 'tsx', path.join(ROOT, 'apps/api/src/server.ts')], {
     cwd: ROOT,
@@ -143,6 +184,7 @@ export async function startServer(dataDir: string, port: number): Promise<ChildP
       LOCAL_STRIPE: 'false',
       LOG_LEVEL: 'warn',
       FILE_LINK_SECRET: 'bench-only-file-link-secret-0123456789abcdef',
+      ...env,
     },
     stdio: ['ignore', 'inherit', 'inherit'],
   });
@@ -197,32 +239,16 @@ async function main(): Promise<void> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'board-bench-'));
   let server: ChildProcess | undefined;
   try {
-    const built = performance.now();
     const db = createDb(path.join(dataDir, 'revloop.db'));
-    await migrateToLatest(db);
-    const now = new Date();
-    const ids = await seedDemo(db, now, { blobs: new DiskBlobStore(dataDir) });
-    const { events } = await addHistory(db, ids.kestrel, jobCount, now);
-    const jobs = await db.selectFrom('jobs').select(['id', 'state']).where('shop_id', '=', ids.kestrel.shopId).execute();
+    const jobs = await buildShop(db, dataDir, jobCount);
     await db.destroy();
-    const openJobs = jobs.filter((j) => (OPEN_STATES as readonly string[]).includes(j.state));
-    console.log(
-      `data: ${jobs.length.toLocaleString('en')} jobs (${openJobs.length} open) and ${events.toLocaleString('en')}+ audit events in one shop, built in ${((performance.now() - built) / 1000).toFixed(1)} s`,
-    );
 
     const port = await freePort();
     server = await startServer(dataDir, port);
     serverPid = server.pid;
     console.log(`load average before measuring: ${os.loadavg().map((l) => l.toFixed(1)).join(', ')} on ${os.availableParallelism()} cores`);
     const base = `http://127.0.0.1:${port}`;
-    const signIn = await fetch(`${base}/api/auth/sign-in`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json', origin: base },
-      body: JSON.stringify({ email: 'owner@kestrel.test', password: DEMO_PASSWORD }),
-    });
-    if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}`);
-    const cookie = signIn.headers.getSetCookie().find((c) => c.startsWith('revloop_session='))!.split(';')[0]!;
-    const headers = { cookie };
+    const headers = { cookie: await signInOwner(base) };
 
     // Warm-up: JIT and SQLite page cache, so the first measurement is not the cold start.
     await run({ url: base + BOARD_QUERY, headers, duration: 3 });
@@ -233,20 +259,8 @@ async function main(): Promise<void> {
     figures.push(report('table page 1 GET ' + TABLE_QUERY, table, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
 
     // The requests the job page makes (apps/web/src/app/routes/app/jobs/job.tsx and its panels), for a random job.
-    const pagePaths = ['/api/jobs/:id', '/api/jobs/:id/files', '/api/jobs/:id/datalogs', '/api/jobs/:id/messages', '/api/billing/jobs/:id/payments'];
-    const jobIds = jobs.map((j) => j.id);
-    const jobPage = await run({
-      url: base,
-      headers,
-      requests: pagePaths.map((p, k) => ({
-        method: 'GET' as const,
-        setupRequest: (req: autocannon.Request, context: Record<string, string>) => {
-          if (k === 0) context.jobId = jobIds[Math.floor(Math.random() * jobIds.length)]!;
-          return { ...req, path: p.replace(':id', context.jobId!) };
-        },
-      })),
-    });
-    figures.push(report(`job page     ${pagePaths.length} requests per page view`, jobPage, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
+    const jobPage = await run({ url: base, headers, requests: jobPageRequests(jobs.map((j) => j.id)) });
+    figures.push(report(`job page     ${JOB_PAGE_PATHS.length} requests per page view`, jobPage, { rps: TARGET_RPS, p99: TARGET_P99_MS }));
 
     for (const query of CUSTOMER_QUERIES) {
       figures.push(report(`customers    GET ${query}`, await run({ url: base + query, headers }), { p99: TARGET_CUSTOMERS_P99_MS }));
