@@ -124,7 +124,8 @@ async function main(): Promise<void> {
     const proxy = await startProxy(ports);
     try {
       const base = `http://127.0.0.1:${proxy.port}`;
-      const headers = { cookie: await signInOwner(base) };
+      // Signed in at the first instance (its origin); sessions are rows in the database, so both accept the cookie.
+      const headers = { cookie: await signInOwner(`http://127.0.0.1:${ports[0]}`) };
       const pids = [first.pid, second.pid];
       await measure(pids, { url: base + BOARD_QUERY, headers, duration: 3 }); // warm-up of both instances
       proxy.setTargets(1);
