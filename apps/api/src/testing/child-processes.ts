@@ -20,3 +20,19 @@ export async function kill(proc: ChildProcess, signal: NodeJS.Signals): Promise<
   proc.kill(signal);
   await exited;
 }
+
+/** The environment of a real server child on loopback `port` over `dataDir`, with local mail and no payment stand-in. */
+export function serverEnv(port: number, dataDir: string, extra: Record<string, string> = {}): NodeJS.ProcessEnv {
+  return {
+    PATH: process.env.PATH,
+    NODE_ENV: 'test',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    APP_ORIGIN: `http://127.0.0.1:${port}`,
+    DATA_DIR: dataDir,
+    LOCAL_SMTP: 'true',
+    SMTP_PORT: '0',
+    LOCAL_STRIPE: 'false',
+    ...extra,
+  };
+}

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import { generateLog } from '@revloop/domain/datalog/testing';
 import { DiskBlobStore } from '../../storage/blob-store';
 import { createJob, createShop } from '../../testing/factories';
-import { kill, waitFor } from '../../testing/child-processes';
+import { kill, serverEnv, waitFor } from '../../testing/child-processes';
 import { freePort } from '../../testing/free-port';
 import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
 
@@ -34,18 +34,7 @@ async function startServer(port: number) {
   const lines: string[] = [];
   const proc = spawn(process.execPath, ['--import', 'tsx', SERVER], {
     cwd: ROOT,
-    env: {
-      PATH: process.env.PATH,
-      NODE_ENV: 'test',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      APP_ORIGIN: `http://127.0.0.1:${port}`,
-      DATA_DIR: dataDir,
-      LOCAL_SMTP: 'true',
-      SMTP_PORT: '0',
-      LOCAL_STRIPE: 'false',
-      LOG_LEVEL: 'info',
-    },
+    env: serverEnv(port, dataDir, { LOG_LEVEL: 'info' }),
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   child = proc;

@@ -14,7 +14,7 @@ import { createJob, createMember, createShop, payJob } from '../../testing/facto
 import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
 import { DiskBlobStore } from '../../storage/blob-store';
 import { S3BlobStore } from '../../storage/s3-blob-store';
-import { kill, waitFor } from '../../testing/child-processes';
+import { kill, serverEnv, waitFor } from '../../testing/child-processes';
 import { freePort } from '../../testing/free-port';
 import { startLocalS3, type LocalS3 } from '../../testing/s3-server';
 import { fileLinkQuery } from '../files/file-links';
@@ -44,21 +44,12 @@ async function startInstance(name: string) {
   fs.mkdirSync(dataDir, { recursive: true });
   const proc = spawn(process.execPath, ['--import', 'tsx', SERVER], {
     cwd: ROOT,
-    env: {
-      PATH: process.env.PATH,
-      NODE_ENV: 'test',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      APP_ORIGIN: `http://127.0.0.1:${port}`,
-      DATA_DIR: dataDir,
+    env: serverEnv(port, dataDir, {
       ...(testEngine() === 'postgres' ? { DATABASE_URL: dbSource } : { SQLITE_FILE: dbSource }),
-      LOCAL_SMTP: 'true',
-      SMTP_PORT: '0',
-      LOCAL_STRIPE: 'false',
       STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET,
       LOG_LEVEL: 'warn',
       ...s3.env,
-    },
+    }),
     stdio: ['ignore', 'ignore', 'pipe'],
   });
   children.push(proc);
