@@ -1,4 +1,4 @@
-import { insertAuditEvent, newId, type Db } from '@revloop/db';
+import { inTransaction, insertAuditEvent, newId, type Db } from '@revloop/db';
 
 export interface AuditInput {
   shopId: string | null;
@@ -10,7 +10,11 @@ export interface AuditInput {
   at: Date;
 }
 
-/** Every change that matters leaves one row here; the job page and the owner's log read them back. Returns its id. */
+/**
+ * Every change that matters leaves one row here; the job page and the owner's log read them back. Returns its id.
+ * Call it on the change's transaction (`writeWithAudit`, or inside the caller's `inTransaction`), never after a
+ * separate write: a failure between the two would leave a change with no trail.
+ */
 export async function recordAudit(db: Db, input: AuditInput): Promise<string> {
   const id = newId();
   await insertAuditEvent(db, {
@@ -24,4 +28,16 @@ export async function recordAudit(db: Db, input: AuditInput): Promise<string> {
     created_at: input.at.toISOString(),
   });
   return id;
+}
+
+/**
+ * Runs a write and records the audit event(s) it names in one transaction (the caller's, when `db` already is one):
+ * both commit or neither does. Mail, blob files and payment-provider calls stay outside, before or after it.
+ */
+export async function writeWithAudit<T>(db: Db, write: (trx: Db) => Promise<T>, audit: (result: T) => AuditInput | AuditInput[]): Promise<T> {
+  return inTransaction(db, async (trx) => {
+    const result = await write(trx);
+    for (const event of [audit(result)].flat()) await recordAudit(trx, event);
+    return result;
+  });
 }

@@ -20,9 +20,9 @@ import { DomainError } from '@revloop/domain';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { ROLE_LABELS, type ShopRole } from '@revloop/domain/auth';
 import type { AppDeps } from '../../context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 import { assertSeatFor } from '../billing/plan-limits.service';
-import type { Mailer } from '../mail/mailer';
+import type { OutgoingMail } from '../mail/mailer';
 import { invitationMail } from '../mail/mail-templates';
 import { hashPassword, verifyPassword } from '../auth/password';
 import { generateToken, hashToken } from '../auth/session.service';
@@ -37,13 +37,13 @@ export interface InviteInput {
   invitedBy: { id: string; name: string } | null;
 }
 
-export async function createInvitation(
+/** Checks and writes an invitation on `db` (the caller's transaction); returns it with the mail to send after the commit. */
+export async function writeInvitation(
   db: Db,
-  mailer: Mailer,
   appOrigin: string,
   input: InviteInput,
   now: Date,
-): Promise<InvitationRow> {
+): Promise<{ invitation: InvitationRow; mail: OutgoingMail }> {
   const shop = await findShopById(db, input.shopId);
   if (!shop) throw new DomainError('not_found', 'Shop not found.');
   if (input.role === 'dealer' && !input.dealerId) {
@@ -74,17 +74,15 @@ export async function createInvitation(
     created_at: now.toISOString(),
     expires_at: expiresAt.toISOString(),
   });
-  await mailer.send(
-    invitationMail(invitation.email, {
-      shopName: shop.name,
-      roleLabel: ROLE_LABELS[input.role].toLowerCase(),
-      inviterName: input.invitedBy?.name ?? null,
-      url: `${appOrigin}/invitations/${token}`,
-      expiresAt,
-      timeZone: parseShopSettings(shop.settings).timeZone,
-    }),
-  );
-  return invitation;
+  const mail = invitationMail(invitation.email, {
+    shopName: shop.name,
+    roleLabel: ROLE_LABELS[input.role].toLowerCase(),
+    inviterName: input.invitedBy?.name ?? null,
+    url: `${appOrigin}/invitations/${token}`,
+    expiresAt,
+    timeZone: parseShopSettings(shop.settings).timeZone,
+  });
+  return { invitation, mail };
 }
 
 export async function lookupInvitation(db: Db, token: string, now: Date): Promise<{ invitation: InvitationRow; view: InvitationLookup }> {
@@ -106,13 +104,18 @@ export async function lookupInvitation(db: Db, token: string, now: Date): Promis
   };
 }
 
-/** Accepting creates the account (or joins an existing one after its password) and the membership, all at once. */
+type Recorder = Pick<AppDeps, 'db' | 'clock'>;
+
+/**
+ * Accepting creates the account (or joins an existing one after its password) and the membership, all at once, and
+ * records it in the shop's audit trail in the same transaction.
+ */
 export async function acceptInvitation(
-  db: Db,
+  { db, clock }: Recorder,
   token: string,
   input: { name: string; password: string },
-  now: Date,
 ): Promise<{ userId: string; shopId: string; invitation: InvitationRow }> {
+  const now = clock.now();
   const { invitation } = await lookupInvitation(db, token, now);
   const existing = await findUserByEmail(db, invitation.email);
   if (existing?.password_hash && !(await verifyPassword(existing.password_hash, input.password))) {
@@ -120,52 +123,47 @@ export async function acceptInvitation(
   }
   const passwordHash = existing?.password_hash ? null : await hashPassword(input.password);
   const at = now.toISOString();
-  const userId = await db.transaction().execute(async (trx) => {
-    if (!(await markInvitationAccepted(trx, invitation.id, at))) {
-      throw new DomainError('conflict', 'This invitation was just used.');
-    }
-    const user =
-      existing ??
-      (await insertUser(trx, { id: newId(), email: invitation.email, name: input.name, password_hash: passwordHash, created_at: at }));
-    if (existing && passwordHash) await updateUser(trx, existing.id, { password_hash: passwordHash, name: input.name });
-    const membership = await findMembershipOfUser(trx, invitation.shop_id, user.id);
-    if (membership) {
-      await updateMembership(trx, invitation.shop_id, membership.id, {
-        role: invitation.role,
-        dealer_id: invitation.dealer_id,
-        status: 'active',
-      });
-    } else {
-      await insertMembership(trx, {
-        id: newId(),
-        shop_id: invitation.shop_id,
-        user_id: user.id,
-        role: invitation.role,
-        dealer_id: invitation.dealer_id,
-        created_at: at,
-      });
-    }
-    await updateUser(trx, user.id, { last_sign_in_at: at });
-    return user.id;
-  });
+  const userId = await writeWithAudit(
+    db,
+    async (trx) => {
+      if (!(await markInvitationAccepted(trx, invitation.id, at))) {
+        throw new DomainError('conflict', 'This invitation was just used.');
+      }
+      const user =
+        existing ??
+        (await insertUser(trx, { id: newId(), email: invitation.email, name: input.name, password_hash: passwordHash, created_at: at }));
+      if (existing && passwordHash) await updateUser(trx, existing.id, { password_hash: passwordHash, name: input.name });
+      const membership = await findMembershipOfUser(trx, invitation.shop_id, user.id);
+      if (membership) {
+        await updateMembership(trx, invitation.shop_id, membership.id, {
+          role: invitation.role,
+          dealer_id: invitation.dealer_id,
+          status: 'active',
+        });
+      } else {
+        await insertMembership(trx, {
+          id: newId(),
+          shop_id: invitation.shop_id,
+          user_id: user.id,
+          role: invitation.role,
+          dealer_id: invitation.dealer_id,
+          created_at: at,
+        });
+      }
+      await updateUser(trx, user.id, { last_sign_in_at: at });
+      return user.id;
+    },
+    (userId) => ({
+      shopId: invitation.shop_id,
+      actorUserId: userId,
+      action: 'invitation.accepted',
+      subjectType: 'Invitation',
+      subjectId: invitation.id,
+      details: { role: invitation.role },
+      at: clock.now(),
+    }),
+  );
   return { userId, shopId: invitation.shop_id, invitation };
-}
-
-type Recorder = Pick<AppDeps, 'db' | 'clock'>;
-
-/** Accepts an invitation and records it in the shop's audit trail. */
-export async function acceptInvitationRecorded(deps: Recorder, token: string, input: { name: string; password: string }) {
-  const accepted = await acceptInvitation(deps.db, token, input, deps.clock.now());
-  await recordAudit(deps.db, {
-    shopId: accepted.shopId,
-    actorUserId: accepted.userId,
-    action: 'invitation.accepted',
-    subjectType: 'Invitation',
-    subjectId: accepted.invitation.id,
-    details: { role: accepted.invitation.role },
-    at: deps.clock.now(),
-  });
-  return accepted;
 }
 
 /** Sends an invitation from a member of the shop and records it. */
@@ -173,23 +171,32 @@ export async function sendInvitation(
   deps: Recorder & Pick<AppDeps, 'mailer' | 'env'>,
   invite: InviteInput & { invitedBy: { id: string } },
 ) {
-  const invitation = await createInvitation(deps.db, deps.mailer, deps.env.APP_ORIGIN, invite, deps.clock.now());
-  await recordAudit(deps.db, {
-    shopId: invite.shopId,
-    actorUserId: invite.invitedBy.id,
-    action: 'invitation.sent',
-    subjectType: 'Invitation',
-    subjectId: invitation.id,
-    details: { email: invitation.email, role: invitation.role },
-    at: deps.clock.now(),
-  });
+  const { invitation, mail } = await writeWithAudit(
+    deps.db,
+    (trx) => writeInvitation(trx, deps.env.APP_ORIGIN, invite, deps.clock.now()),
+    ({ invitation }) => ({
+      shopId: invite.shopId,
+      actorUserId: invite.invitedBy.id,
+      action: 'invitation.sent',
+      subjectType: 'Invitation',
+      subjectId: invitation.id,
+      details: { email: invitation.email, role: invitation.role },
+      at: deps.clock.now(),
+    }),
+  );
+  await deps.mailer.send(mail);
   return invitation;
 }
 
 /** Revokes a pending invitation (409 when it was already used or revoked) and records it. */
 export async function withdrawInvitation(deps: Recorder, shopId: string, actorUserId: string, invitationId: string): Promise<void> {
-  if (!(await revokeInvitation(deps.db, shopId, invitationId, deps.clock.now().toISOString()))) {
-    throw new DomainError('conflict', 'This invitation was already used or revoked.');
-  }
-  await recordAudit(deps.db, { shopId, actorUserId, action: 'invitation.revoked', subjectType: 'Invitation', subjectId: invitationId, at: deps.clock.now() });
+  await writeWithAudit(
+    deps.db,
+    async (trx) => {
+      if (!(await revokeInvitation(trx, shopId, invitationId, deps.clock.now().toISOString()))) {
+        throw new DomainError('conflict', 'This invitation was already used or revoked.');
+      }
+    },
+    () => ({ shopId, actorUserId, action: 'invitation.revoked', subjectType: 'Invitation', subjectId: invitationId, at: deps.clock.now() }),
+  );
 }

@@ -7,7 +7,7 @@ import type { AppDeps } from '../../context';
 import { authorize, authorizeRow, requireShop } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
 import { startSession } from '../auth/start-session';
-import { acceptInvitationRecorded, lookupInvitation, sendInvitation, withdrawInvitation } from './invitation.service';
+import { acceptInvitation, lookupInvitation, sendInvitation, withdrawInvitation } from './invitation.service';
 
 const inviteSchema = z.object({
   email: emailSchema,
@@ -27,7 +27,7 @@ export function createInvitationsRouter(deps: AppDeps): Router {
 
   router.post('/accept', async (req, res) => {
     const { token, name, password } = parseInput(acceptSchema, req.body);
-    const { userId, shopId } = await acceptInvitationRecorded(deps, token, { name, password });
+    const { userId, shopId } = await acceptInvitation(deps, token, { name, password });
     await startSession(deps, req, res, userId, shopId, 200);
   });
 

@@ -2,7 +2,7 @@ import { insertPackage, newId, updatePackage, type PackageRow } from '@revloop/d
 import type { PackageInput } from '@revloop/domain/jobs';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 
 const packageColumns = (input: PackageInput) => ({
   name: input.name,
@@ -15,9 +15,11 @@ const packageColumns = (input: PackageInput) => ({
 
 /** Adds a package to the shop's list, and audits it. */
 export async function createPackage({ db, clock }: AppDeps, auth: AuthContext & { shop: { id: string } }, input: PackageInput): Promise<PackageRow> {
-  const row = await insertPackage(db, { id: newId(), shop_id: auth.shop.id, ...packageColumns(input), created_at: clock.now().toISOString() });
-  await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'package.created', subjectType: 'Package', subjectId: row.id, at: clock.now() });
-  return row;
+  return writeWithAudit(
+    db,
+    (trx) => insertPackage(trx, { id: newId(), shop_id: auth.shop.id, ...packageColumns(input), created_at: clock.now().toISOString() }),
+    (row) => ({ shopId: auth.shop.id, actorUserId: auth.user.id, action: 'package.created', subjectType: 'Package', subjectId: row.id, at: clock.now() }),
+  );
 }
 
 /** Replaces a package's terms. */

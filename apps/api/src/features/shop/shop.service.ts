@@ -3,7 +3,7 @@ import { DomainError } from '@revloop/domain';
 import type { ShopSettings } from '@revloop/domain/shops';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 
 export interface ShopChange {
   name?: string;
@@ -22,20 +22,25 @@ export async function changeShop({ db, clock }: AppDeps, auth: AuthContext & { s
   const { slug } = change;
   const clash = () => new DomainError('conflict', `Another shop already uses the address /s/${slug}. Choose another.`);
   if (slug !== null && slug !== auth.shop.slug && (await isSlugTaken(db, slug, auth.shop.id))) throw clash();
-  const shop = await updateShop(db, auth.shop.id, {
-    ...(change.name && { name: change.name }),
-    settings: JSON.stringify(change.settings),
-    slug,
-    public_page: change.publicPage ? 1 : 0,
-    ...(change.description !== undefined && { description: change.description }),
-    ...(change.revisionApproval !== undefined && { revision_approval: change.revisionApproval ? 1 : 0 }),
-    ...(change.paidBeforeDownload !== undefined && { paid_before_download: change.paidBeforeDownload ? 1 : 0 }),
-  }).catch((error: unknown) => {
-    // Two owners taking the same address at once: the unique index decides, and the loser hears the same 409.
-    if (isUniqueViolation(error, 'slug')) throw clash();
-    throw error;
-  });
-  if (!shop) throw new DomainError('not_found', 'Shop not found.');
-  await recordAudit(db, { shopId: shop.id, actorUserId: auth.user.id, action: 'shop.settings_changed', subjectType: 'Shop', subjectId: shop.id, at: clock.now() });
-  return shop;
+  return writeWithAudit(
+    db,
+    async (trx) => {
+      const shop = await updateShop(trx, auth.shop.id, {
+        ...(change.name && { name: change.name }),
+        settings: JSON.stringify(change.settings),
+        slug,
+        public_page: change.publicPage ? 1 : 0,
+        ...(change.description !== undefined && { description: change.description }),
+        ...(change.revisionApproval !== undefined && { revision_approval: change.revisionApproval ? 1 : 0 }),
+        ...(change.paidBeforeDownload !== undefined && { paid_before_download: change.paidBeforeDownload ? 1 : 0 }),
+      }).catch((error: unknown) => {
+        // Two owners taking the same address at once: the unique index decides, and the loser hears the same 409.
+        if (isUniqueViolation(error, 'slug')) throw clash();
+        throw error;
+      });
+      if (!shop) throw new DomainError('not_found', 'Shop not found.');
+      return shop;
+    },
+    (shop) => ({ shopId: shop.id, actorUserId: auth.user.id, action: 'shop.settings_changed', subjectType: 'Shop', subjectId: shop.id, at: clock.now() }),
+  );
 }

@@ -2,7 +2,7 @@ import { insertVehicle, newId, updateVehicle, vehicleColumns } from '@revloop/db
 import type { VehicleInput } from '@revloop/domain/vehicles';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 
 /** Registers a vehicle for an owner the router has already authorized, and audits it; returns the new id. */
 export async function createVehicle(
@@ -12,16 +12,20 @@ export async function createVehicle(
   vehicle: VehicleInput,
 ): Promise<string> {
   const at = clock.now().toISOString();
-  const row = await insertVehicle(db, {
-    id: newId(),
-    shop_id: auth.shop.id,
-    owner_user_id: owner.userId,
-    dealer_id: owner.dealerId,
-    ...vehicleColumns(vehicle),
-    created_at: at,
-    updated_at: at,
-  });
-  await recordAudit(db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'vehicle.created', subjectType: 'Vehicle', subjectId: row.id, at: clock.now() });
+  const row = await writeWithAudit(
+    db,
+    (trx) =>
+      insertVehicle(trx, {
+        id: newId(),
+        shop_id: auth.shop.id,
+        owner_user_id: owner.userId,
+        dealer_id: owner.dealerId,
+        ...vehicleColumns(vehicle),
+        created_at: at,
+        updated_at: at,
+      }),
+    (inserted) => ({ shopId: auth.shop.id, actorUserId: auth.user.id, action: 'vehicle.created', subjectType: 'Vehicle', subjectId: inserted.id, at: clock.now() }),
+  );
   return row.id;
 }
 
