@@ -14,7 +14,7 @@ import {
 } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { AppDeps } from '../../context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 import { hashPassword } from './password';
 import { generateToken, hashToken, invalidateUserSessions } from './session.service';
 
@@ -30,20 +30,22 @@ export async function signUpShop(
   }
   const passwordHash = await hashPassword(input.password);
   const at = clock.now().toISOString();
-  const signedUp = await db.transaction().execute(async (trx) => {
-    const shop = await insertShop(trx, { id: newId(), name: input.shopName, created_at: at });
-    const user = await insertUser(trx, {
-      id: newId(),
-      email: input.email,
-      name: input.name,
-      password_hash: passwordHash,
-      created_at: at,
-    });
-    await insertMembership(trx, { id: newId(), shop_id: shop.id, user_id: user.id, role: 'owner', created_at: at });
-    return { user, shopId: shop.id };
-  });
-  await recordAudit(db, { shopId: signedUp.shopId, actorUserId: signedUp.user.id, action: 'shop.created', subjectType: 'Shop', subjectId: signedUp.shopId, at: clock.now() });
-  return signedUp;
+  return writeWithAudit(
+    db,
+    async (trx) => {
+      const shop = await insertShop(trx, { id: newId(), name: input.shopName, created_at: at });
+      const user = await insertUser(trx, {
+        id: newId(),
+        email: input.email,
+        name: input.name,
+        password_hash: passwordHash,
+        created_at: at,
+      });
+      await insertMembership(trx, { id: newId(), shop_id: shop.id, user_id: user.id, role: 'owner', created_at: at });
+      return { user, shopId: shop.id };
+    },
+    (signedUp) => ({ shopId: signedUp.shopId, actorUserId: signedUp.user.id, action: 'shop.created', subjectType: 'Shop', subjectId: signedUp.shopId, at: clock.now() }),
+  );
 }
 
 /** The shop a user signs in to: none for platform admins, else their oldest active membership. */

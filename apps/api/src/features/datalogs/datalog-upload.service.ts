@@ -5,7 +5,7 @@ import { headerSignature, mapHeaders, type DatalogMappingInput } from '@revloop/
 import type { JobState } from '@revloop/domain/jobs';
 import type { AppDeps } from '../../context';
 import { authorizeRow } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 import { jobSubject } from '../jobs/job.service';
 import { readLogHeaders, resolveMapping, type StoredMapping } from './datalog-mapping';
 import { datalogRowToDatalog } from './datalog.presenter';
@@ -39,32 +39,36 @@ export async function uploadDatalog(
     const mapping = await resolveMapping(db, auth.shop.id, headers, signature, own);
     const spec = await vehicleSpecOf(db, job);
     const blob = await blobs.adopt(upload.tempFile);
-    const row = await insertDatalog(db, {
-      id: newId(),
-      shop_id: auth.shop.id,
-      job_id: job.id,
-      round: job.round,
-      original_name: originalName,
-      sha256: blob.sha256,
-      size_bytes: blob.size,
-      header_signature: signature,
-      mapping: JSON.stringify(mapping),
-      fuel: JSON.stringify(fuelOf(spec)),
-      status: 'processing',
-      error: null,
-      report: null,
-      uploaded_by: auth.user.id,
-      created_at: clock.now().toISOString(),
-    });
-    await recordAudit(db, {
-      shopId: auth.shop.id,
-      actorUserId: auth.user.id,
-      action: 'datalog.uploaded',
-      subjectType: 'Job',
-      subjectId: job.id,
-      details: { datalogId: row.id, text: `Log ${row.original_name} uploaded (on ${job.round === 0 ? 'the stock calibration' : `revision ${job.round}`})` },
-      at: clock.now(),
-    });
+    const row = await writeWithAudit(
+      db,
+      (trx) =>
+        insertDatalog(trx, {
+          id: newId(),
+          shop_id: auth.shop.id,
+          job_id: job.id,
+          round: job.round,
+          original_name: originalName,
+          sha256: blob.sha256,
+          size_bytes: blob.size,
+          header_signature: signature,
+          mapping: JSON.stringify(mapping),
+          fuel: JSON.stringify(fuelOf(spec)),
+          status: 'processing',
+          error: null,
+          report: null,
+          uploaded_by: auth.user.id,
+          created_at: clock.now().toISOString(),
+        }),
+      (inserted) => ({
+        shopId: auth.shop.id,
+        actorUserId: auth.user.id,
+        action: 'datalog.uploaded',
+        subjectType: 'Job',
+        subjectId: job.id,
+        details: { datalogId: inserted.id, text: `Log ${inserted.original_name} uploaded (on ${job.round === 0 ? 'the stock calibration' : `revision ${job.round}`})` },
+        at: clock.now(),
+      }),
+    );
     // Queued after the row is written: the job outlives this process, and any instance may run it.
     await datalogAnalyzerOf(deps).start(row);
     return datalogRowToDatalog({ ...row, uploaded_by_name: auth.user.name }, undefined);
@@ -94,17 +98,22 @@ export async function confirmMapping(deps: AppDeps, auth: ShopAuth, datalogId: s
     ...(input.trimAxis && { trimAxis: input.trimAxis }),
   };
   const at = clock.now().toISOString();
-  await saveDatalogMapping(db, { shop_id: auth.shop.id, header_signature: row.header_signature, mapping: JSON.stringify({ ...input, units }), updated_at: at });
-  const updated = (await updateDatalog(db, auth.shop.id, row.id, { mapping: JSON.stringify(mapping), status: 'processing', error: null, report: null }))!;
-  await recordAudit(db, {
-    shopId: auth.shop.id,
-    actorUserId: auth.user.id,
-    action: 'datalog.mapping_confirmed',
-    subjectType: 'Job',
-    subjectId: job.id,
-    details: { datalogId: row.id, text: `Column mapping of ${row.original_name} confirmed; the log is checked again` },
-    at: clock.now(),
-  });
+  const updated = await writeWithAudit(
+    db,
+    async (trx) => {
+      await saveDatalogMapping(trx, { shop_id: auth.shop.id, header_signature: row.header_signature, mapping: JSON.stringify({ ...input, units }), updated_at: at });
+      return (await updateDatalog(trx, auth.shop.id, row.id, { mapping: JSON.stringify(mapping), status: 'processing', error: null, report: null }))!;
+    },
+    () => ({
+      shopId: auth.shop.id,
+      actorUserId: auth.user.id,
+      action: 'datalog.mapping_confirmed',
+      subjectType: 'Job',
+      subjectId: job.id,
+      details: { datalogId: row.id, text: `Column mapping of ${row.original_name} confirmed; the log is checked again` },
+      at: clock.now(),
+    }),
+  );
   await datalogAnalyzerOf(deps).start(updated);
   return datalogRowToDatalog({ ...updated, uploaded_by_name: row.uploaded_by_name }, undefined);
 }

@@ -22,7 +22,7 @@ import { parseCalibration, safeUploadName, type CalibrationFormat } from '@revlo
 import { JOB_STATE_LABELS } from '@revloop/domain/jobs';
 import type { AppDeps } from '../../context';
 import type { AuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 import { jobSubject, loadJob, moveJob, setJobFacts } from '../jobs/job.service';
 import { FORMAT_LABELS, fileLabel, type ApiCalibrationFile } from './file.presenter';
 import { presentFile } from './file.service';
@@ -91,7 +91,7 @@ export async function storeUpload(
     const blob = await blobs.adopt(upload.tempFile);
     stored = true;
     const at = clock.now();
-    const row = await insertCalibrationFile(db, {
+    const values = {
       id: newId(),
       shop_id: auth.shop.id,
       job_id: job.id,
@@ -112,21 +112,29 @@ export async function storeUpload(
       created_at: at.toISOString(),
       // The shop's setting when the draft is made decides whether it needs a second person's approval.
       approval_required: input.kind === 'revision' && auth.shop.revision_approval === 1 ? 1 : 0,
-    }).catch((error: unknown) => {
-      if (isUniqueViolation(error)) throw new DomainError('conflict', `Revision ${place?.number} of the ${input.module} was just uploaded by someone else. Reload and try again.`);
-      throw error;
-    });
+    };
+    // Compared before the row is written (it reads stored files, so it stays outside the transaction); a re-read is
+    // compared only with the job's reads and revisions, so the missing row changes nothing.
+    const pending: CalibrationFileRow = { ...values, approved_by_user_id: null, approved_at: null, sent_at: null, send_note: null };
+    const verification = input.kind === 'revision' ? null : await verifyFile(deps, auth, pending, job);
+    const row = await writeWithAudit(
+      db,
+      (trx) =>
+        insertCalibrationFile(trx, values).catch((error: unknown) => {
+          if (isUniqueViolation(error)) throw new DomainError('conflict', `Revision ${place?.number} of the ${input.module} was just uploaded by someone else. Reload and try again.`);
+          throw error;
+        }),
+      (inserted) => ({
+        shopId: auth.shop.id,
+        actorUserId: auth.user.id,
+        action: 'file.uploaded',
+        subjectType: 'Job',
+        subjectId: job.id,
+        details: { fileId: inserted.id, text: uploadTimelineText(inserted, parsed.format, verification) },
+        at,
+      }),
+    );
     const listRow = (await findCalibrationFile(db, auth.shop.id, row.id))!;
-    const verification = input.kind === 'revision' ? null : await verifyFile(deps, auth, listRow, job);
-    await recordAudit(db, {
-      shopId: auth.shop.id,
-      actorUserId: auth.user.id,
-      action: 'file.uploaded',
-      subjectType: 'Job',
-      subjectId: job.id,
-      details: { fileId: row.id, text: uploadTimelineText(row, parsed.format, verification) },
-      at,
-    });
     const flow = await followJobFlow(deps, auth, job, row);
     return { file: await presentFile(db, auth, listRow, job), verification, ...flow };
   } catch (error) {

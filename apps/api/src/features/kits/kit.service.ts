@@ -4,7 +4,7 @@ import { asSubject } from '@revloop/domain/auth';
 import { addDays, daysBetween, daysInRange, intersectRanges, KIT_AWAY_STATES, localDay, mergeRanges, type DayRange } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
 import { authorize, authorizeRow } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 import { rentalSubject, shopRentalSettings, type ShopAuth } from '../rentals/rental-records';
 import { lateDaysOf, summaryOf } from '../rentals/rental.service';
 import { DomainError } from '@revloop/domain';
@@ -48,26 +48,29 @@ export async function createKit(deps: AppDeps, auth: ShopAuth, input: KitCreate)
   authorize(auth, 'create', 'Kit');
   const now = deps.clock.now();
   const at = now.toISOString();
-  const row = await insertKit(deps.db, {
-    id: newId(),
-    shop_id: auth.shop.id,
-    name: input.name,
-    interface_serial: input.interfaceSerial,
-    laptop_asset_tag: input.laptopAssetTag,
-    contents: JSON.stringify(input.contents),
-    platforms: JSON.stringify(input.platforms),
-    condition_notes: input.conditionNotes,
-    status: input.status,
-    weekly_price_minor: input.weeklyPriceMinor,
-    deposit_minor: input.depositMinor,
-    late_fee_per_day_minor: input.lateFeePerDayMinor,
-    in_service_since: localDay(now, shopRentalSettings(auth.shop.settings).timeZone),
-    retired_on: null,
-    created_at: at,
-    updated_at: at,
-  });
-  await recordAudit(deps.db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'kit.created', subjectType: 'Kit', subjectId: row.id, details: { text: `Kit ${row.name} added` }, at: now });
-  return row;
+  return writeWithAudit(
+    deps.db,
+    (trx) =>
+      insertKit(trx, {
+        id: newId(),
+        shop_id: auth.shop.id,
+        name: input.name,
+        interface_serial: input.interfaceSerial,
+        laptop_asset_tag: input.laptopAssetTag,
+        contents: JSON.stringify(input.contents),
+        platforms: JSON.stringify(input.platforms),
+        condition_notes: input.conditionNotes,
+        status: input.status,
+        weekly_price_minor: input.weeklyPriceMinor,
+        deposit_minor: input.depositMinor,
+        late_fee_per_day_minor: input.lateFeePerDayMinor,
+        in_service_since: localDay(now, shopRentalSettings(auth.shop.settings).timeZone),
+        retired_on: null,
+        created_at: at,
+        updated_at: at,
+      }),
+    (row) => ({ shopId: auth.shop.id, actorUserId: auth.user.id, action: 'kit.created', subjectType: 'Kit', subjectId: row.id, details: { text: `Kit ${row.name} added` }, at: now }),
+  );
 }
 
 export async function patchKit(deps: AppDeps, auth: ShopAuth, id: string, input: KitPatch): Promise<KitRow> {
@@ -75,21 +78,25 @@ export async function patchKit(deps: AppDeps, auth: ShopAuth, id: string, input:
   authorizeRow(auth, 'update', 'Kit', { shopId: kit.shop_id }, 'Kit not found.');
   const now = deps.clock.now();
   const today = localDay(now, shopRentalSettings(auth.shop.settings).timeZone);
-  const updated = await updateKit(deps.db, auth.shop.id, kit.id, {
-    ...(input.name !== undefined && { name: input.name }),
-    ...(input.interfaceSerial !== undefined && { interface_serial: input.interfaceSerial }),
-    ...(input.laptopAssetTag !== undefined && { laptop_asset_tag: input.laptopAssetTag }),
-    ...(input.contents !== undefined && { contents: JSON.stringify(input.contents) }),
-    ...(input.platforms !== undefined && { platforms: JSON.stringify(input.platforms) }),
-    ...(input.conditionNotes !== undefined && { condition_notes: input.conditionNotes }),
-    ...(input.status !== undefined && { status: input.status, retired_on: input.status === 'retired' ? today : null }),
-    ...(input.weeklyPriceMinor !== undefined && { weekly_price_minor: input.weeklyPriceMinor }),
-    ...(input.depositMinor !== undefined && { deposit_minor: input.depositMinor }),
-    ...(input.lateFeePerDayMinor !== undefined && { late_fee_per_day_minor: input.lateFeePerDayMinor }),
-    updated_at: now.toISOString(),
-  });
   const changed = Object.keys(input).join(', ');
-  await recordAudit(deps.db, { shopId: auth.shop.id, actorUserId: auth.user.id, action: 'kit.updated', subjectType: 'Kit', subjectId: kit.id, details: { text: `Kit changed: ${changed}${input.status ? ` (now ${input.status.replace('_', ' ')})` : ''}` }, at: now });
+  const updated = await writeWithAudit(
+    deps.db,
+    (trx) =>
+      updateKit(trx, auth.shop.id, kit.id, {
+        ...(input.name !== undefined && { name: input.name }),
+        ...(input.interfaceSerial !== undefined && { interface_serial: input.interfaceSerial }),
+        ...(input.laptopAssetTag !== undefined && { laptop_asset_tag: input.laptopAssetTag }),
+        ...(input.contents !== undefined && { contents: JSON.stringify(input.contents) }),
+        ...(input.platforms !== undefined && { platforms: JSON.stringify(input.platforms) }),
+        ...(input.conditionNotes !== undefined && { condition_notes: input.conditionNotes }),
+        ...(input.status !== undefined && { status: input.status, retired_on: input.status === 'retired' ? today : null }),
+        ...(input.weeklyPriceMinor !== undefined && { weekly_price_minor: input.weeklyPriceMinor }),
+        ...(input.depositMinor !== undefined && { deposit_minor: input.depositMinor }),
+        ...(input.lateFeePerDayMinor !== undefined && { late_fee_per_day_minor: input.lateFeePerDayMinor }),
+        updated_at: now.toISOString(),
+      }),
+    () => ({ shopId: auth.shop.id, actorUserId: auth.user.id, action: 'kit.updated', subjectType: 'Kit', subjectId: kit.id, details: { text: `Kit changed: ${changed}${input.status ? ` (now ${input.status.replace('_', ' ')})` : ''}` }, at: now }),
+  );
   return updated!;
 }
 

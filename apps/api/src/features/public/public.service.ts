@@ -18,7 +18,7 @@ import { DomainError } from '@revloop/domain';
 import type { PackageModule } from '@revloop/domain/jobs';
 import type { AppDeps } from '../../context';
 import { authorize, loadAuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { writeWithAudit } from '../audit/audit.service';
 import { hashPassword } from '../auth/password';
 import { createSession, generateToken, hashToken } from '../auth/session.service';
 import { sessionPolicyOf } from '../auth/start-session';
@@ -98,15 +98,18 @@ export async function finishStartTune(deps: AppDeps, token: string): Promise<{ s
   await requireActivePackage(deps, shop.id, intake.packageId);
   await assertJobRoom(db, shop.id, clock.now());
 
-  const userId = await db.transaction().execute(async (trx) => {
-    const row = await consumePublicSignUp(trx, hashToken(token), at);
-    if (!row) throw invalidLink();
-    if (await findUserByEmail(trx, row.email)) throw accountExists();
-    const user = await insertUser(trx, { id: newId(), email: row.email, name: row.name, password_hash: row.password_hash, created_at: at });
-    await insertMembership(trx, { id: newId(), shop_id: shop.id, user_id: user.id, role: 'customer', dealer_id: null, created_at: at });
-    return user.id;
-  });
-  await recordAudit(db, { shopId: shop.id, actorUserId: userId, action: 'customer.signed_up', subjectType: 'User', subjectId: userId, details: { via: 'public_page' }, at: clock.now() });
+  const userId = await writeWithAudit(
+    db,
+    async (trx) => {
+      const row = await consumePublicSignUp(trx, hashToken(token), at);
+      if (!row) throw invalidLink();
+      if (await findUserByEmail(trx, row.email)) throw accountExists();
+      const user = await insertUser(trx, { id: newId(), email: row.email, name: row.name, password_hash: row.password_hash, created_at: at });
+      await insertMembership(trx, { id: newId(), shop_id: shop.id, user_id: user.id, role: 'customer', dealer_id: null, created_at: at });
+      return user.id;
+    },
+    (id) => ({ shopId: shop.id, actorUserId: id, action: 'customer.signed_up', subjectType: 'User', subjectId: id, details: { via: 'public_page' }, at: clock.now() }),
+  );
   const { token: sessionToken, session } = await createSession(db, sessionPolicyOf(deps.env), userId, shop.id, clock.now());
   const auth = await loadAuthContext(db, session.id, userId, shop.id);
   if (!auth?.shop) throw invalidLink();

@@ -6,9 +6,10 @@ import { formatMoney } from '@revloop/domain/billing';
 import { MERCHANT_HOLD_MS, lateFeeMinor, settleDeposit } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
 import { authorizeRow } from '../../http/auth-context';
+import { writeWithAudit } from '../audit/audit.service';
 import { fromUnix, idOf, stripeFor } from '../billing/stripe-client';
 import { jobLink } from '../jobs/job.service';
-import { addEntry, auditRental, loadRental, rentalSubject, type ShopAuth } from './rental-records';
+import { addEntry, auditRental, loadRental, rentalAuditEvents, rentalSubject, type ShopAuth } from './rental-records';
 
 // The deposit design is docs/decisions/012-kit-deposit-holds.md: the card is saved at booking (setup-mode Checkout),
 // the hold is placed off-session when the kit ships, re-placed by the sweep before it lapses, and settled on close.
@@ -149,18 +150,21 @@ export async function settleHold(deps: MoneyDeps, auth: ShopAuth, row: RentalRow
     chargeId = charge.id;
   }
   const from = (minor: number) => (minor <= plan.captureMinor ? 'from the deposit hold' : chargeId ? 'partly charged to your saved card' : '');
-  await deps.db.transaction().execute(async (trx) => {
-    if (late > 0) await addEntry(trx, row, 'late_fee', late, `${input.lateDays} late day${input.lateDays === 1 ? '' : 's'} × ${money(row, row.late_fee_per_day_minor)} ${from(late)}`.trim(), now, `${row.id}:late_fee`);
-    if (damage > 0) await addEntry(trx, row, 'capture', damage, `${input.capture!.reason} (${from(late + damage)})`, now, `${row.id}:capture`);
-    if (held > plan.captureMinor) await addEntry(trx, row, 'hold_released', held - plan.captureMinor, `${money(row, held - plan.captureMinor)} of the deposit hold released`, now, `${row.hold_intent_id}:released`);
-    await updateRental(trx, row.shop_id, row.id, {
-      deposit_status: plan.captureMinor > 0 || plan.chargeMinor > 0 ? 'captured' : held > 0 ? 'released' : row.deposit_status,
-      hold_minor: 0,
-      hold_expires_at: null,
-      updated_at: now.toISOString(),
-    });
-  });
-  await auditRental(deps.db, row, auth.user.id, 'rental.settled', `Deposit settled: ${money(row, plan.captureMinor + plan.chargeMinor)} taken, ${money(row, Math.max(0, held - plan.captureMinor))} released`, now);
+  await writeWithAudit(
+    deps.db,
+    async (trx) => {
+      if (late > 0) await addEntry(trx, row, 'late_fee', late, `${input.lateDays} late day${input.lateDays === 1 ? '' : 's'} × ${money(row, row.late_fee_per_day_minor)} ${from(late)}`.trim(), now, `${row.id}:late_fee`);
+      if (damage > 0) await addEntry(trx, row, 'capture', damage, `${input.capture!.reason} (${from(late + damage)})`, now, `${row.id}:capture`);
+      if (held > plan.captureMinor) await addEntry(trx, row, 'hold_released', held - plan.captureMinor, `${money(row, held - plan.captureMinor)} of the deposit hold released`, now, `${row.hold_intent_id}:released`);
+      await updateRental(trx, row.shop_id, row.id, {
+        deposit_status: plan.captureMinor > 0 || plan.chargeMinor > 0 ? 'captured' : held > 0 ? 'released' : row.deposit_status,
+        hold_minor: 0,
+        hold_expires_at: null,
+        updated_at: now.toISOString(),
+      });
+    },
+    () => rentalAuditEvents(row, auth.user.id, 'rental.settled', `Deposit settled: ${money(row, plan.captureMinor + plan.chargeMinor)} taken, ${money(row, Math.max(0, held - plan.captureMinor))} released`, now),
+  );
 }
 
 /** Sweep step: re-places holds that lapse within a day (or already lapsed) while the kit is still out. */

@@ -3,7 +3,7 @@ import { rentalScopeFor } from '@revloop/domain/auth';
 import { rentalSettings, type RentalEntryKind } from '@revloop/domain/rentals';
 import { parseShopSettings } from '@revloop/domain/shops';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
-import { recordAudit } from '../audit/audit.service';
+import { recordAudit, type AuditInput } from '../audit/audit.service';
 
 // What every part of the rentals feature shares: the viewer's rental, the shop's rental settings, money lines, audit.
 
@@ -33,11 +33,18 @@ export async function addEntry(db: Db, row: RentalRow, kind: RentalEntryKind, am
   return insertRentalEntry(db, { id: newId(), shop_id: row.shop_id, rental_id: row.id, kind, amount_minor: amountMinor, description, provider_ref: providerRef, at: at.toISOString() });
 }
 
-/** Every move is one event on the job's timeline and one in the kit's history. */
-export async function auditRental(db: Db, row: Pick<RentalRow, 'shop_id' | 'id' | 'job_id' | 'kit_id'>, actorUserId: string | null, action: string, text: string, at: Date): Promise<void> {
+type AuditedRental = Pick<RentalRow, 'shop_id' | 'id' | 'job_id' | 'kit_id'>;
+
+/** Every move is one event on the job's timeline and one in the kit's history (for `writeWithAudit`). */
+export function rentalAuditEvents(row: AuditedRental, actorUserId: string | null, action: string, text: string, at: Date): AuditInput[] {
   const details = { rentalId: row.id, kitId: row.kit_id, jobId: row.job_id, text };
-  await recordAudit(db, { shopId: row.shop_id, actorUserId, action, subjectType: 'Job', subjectId: row.job_id, details, at });
-  if (row.kit_id) await recordAudit(db, { shopId: row.shop_id, actorUserId, action, subjectType: 'Kit', subjectId: row.kit_id, details, at });
+  const event = (subjectType: string, subjectId: string): AuditInput => ({ shopId: row.shop_id, actorUserId, action, subjectType, subjectId, details, at });
+  return row.kit_id ? [event('Job', row.job_id), event('Kit', row.kit_id)] : [event('Job', row.job_id)];
+}
+
+/** The same events, written on the caller's transaction `trx`. */
+export async function auditRental(trx: Db, row: AuditedRental, actorUserId: string | null, action: string, text: string, at: Date): Promise<void> {
+  for (const event of rentalAuditEvents(row, actorUserId, action, text, at)) await recordAudit(trx, event);
 }
 
 

@@ -1,6 +1,7 @@
 import { newId, type Db } from '@revloop/db';
 import { blockedRange } from '@revloop/domain/rentals';
-import { auditRental } from './rental-records';
+import { writeWithAudit } from '../audit/audit.service';
+import { rentalAuditEvents } from './rental-records';
 
 export interface RentalRequest {
   shopId: string;
@@ -15,8 +16,8 @@ export interface RentalRequest {
 }
 
 /**
- * Writes a requested rental (no kit yet: the shop picks it) and its audit events on the caller's connection, so the
- * job intake can open the job and ask for the kit in one transaction. Returns the new rental's id.
+ * Writes a requested rental (no kit yet: the shop picks it) and its audit events in one transaction, the caller's when
+ * `db` is one, so the job intake can open the job and ask for the kit together. Returns the new rental's id.
  */
 export async function insertRentalRequest(db: Db, r: RentalRequest): Promise<string> {
   const at = r.now.toISOString();
@@ -41,7 +42,10 @@ export async function insertRentalRequest(db: Db, r: RentalRequest): Promise<str
     created_at: at,
     updated_at: at,
   };
-  await db.insertInto('rentals').values(row).execute();
-  await auditRental(db, row, r.actorUserId, 'rental.requested', `Kit asked for ${r.startDate} to ${r.dueDate}`, r.now);
+  await writeWithAudit(
+    db,
+    (trx) => trx.insertInto('rentals').values(row).execute(),
+    () => rentalAuditEvents(row, r.actorUserId, 'rental.requested', `Kit asked for ${r.startDate} to ${r.dueDate}`, r.now),
+  );
   return row.id;
 }

@@ -32,9 +32,10 @@ import {
 } from '@revloop/domain/rentals';
 import type { AppDeps } from '../../context';
 import { authorizeRow } from '../../http/auth-context';
+import { writeWithAudit } from '../audit/audit.service';
 import { loadJob } from '../jobs/job.service';
 import { placeHold, settleHold } from './rental-money';
-import { auditRental, loadRental, rentalSubject, shopRentalSettings, type ShopAuth } from './rental-records';
+import { auditRental, loadRental, rentalAuditEvents, rentalSubject, shopRentalSettings, type ShopAuth } from './rental-records';
 import { notifyRental } from './rental-notices';
 import { insertRentalRequest } from './rental-request';
 
@@ -198,9 +199,7 @@ export async function createRental(deps: AppDeps, auth: ShopAuth, input: RentalC
     });
     if (!result.ok) throw clashError(result.clashes);
   } else {
-    row.id = await deps.db.transaction().execute((trx) =>
-      insertRentalRequest(trx, { shopId: auth.shop.id, currency: auth.shop.currency, job, startDate: input.startDate, dueDate: input.dueDate, notes: input.notes, shippingDays, actorUserId: auth.user.id, now }),
-    );
+    row.id = await insertRentalRequest(deps.db, { shopId: auth.shop.id, currency: auth.shop.currency, job, startDate: input.startDate, dueDate: input.dueDate, notes: input.notes, shippingDays, actorUserId: auth.user.id, now });
   }
   await notifyRental(deps, row.id, row.shop_id, kit ? 'booked' : 'requested');
   return (await findRental(deps.db, auth.shop.id, row.id))!;
@@ -252,10 +251,17 @@ export async function moveRental(deps: AppDeps, auth: ShopAuth, id: string, inpu
     if (!result.ok) throw clashError(result.clashes);
   } else if (input.to === 'shipped') {
     const patch = { state: 'shipped' as const, carrier: input.carrier, tracking_number: input.trackingNumber, shipped_at: at, updated_at: at };
-    const updated = await updateRental(deps.db, auth.shop.id, row.id, patch, row.state);
-    if (!updated) throw moved();
-    await auditRental(deps.db, updated, auth.user.id, 'rental.shipped', `Kit shipped by ${input.carrier}, tracking ${input.trackingNumber}`, now);
-    await setKitStatusAfter(deps.db, updated, 'shipped', now);
+    const updated = await writeWithAudit(
+      deps.db,
+      async (trx) => {
+        const shipped = await updateRental(trx, auth.shop.id, row.id, patch, row.state);
+        if (!shipped) throw moved();
+        await setKitStatusAfter(trx, shipped, 'shipped', now);
+        return shipped;
+      },
+      (shipped) => rentalAuditEvents(shipped, auth.user.id, 'rental.shipped', `Kit shipped by ${input.carrier}, tracking ${input.trackingNumber}`, now),
+    );
+    // The hold is a call to the payment provider, so it follows the commit.
     if (updated.deposit_minor > 0) await placeHold(deps, updated);
   } else if (input.to === 'returned') {
     const patch = {
@@ -266,25 +272,43 @@ export async function moveRental(deps: AppDeps, auth: ShopAuth, id: string, inpu
       condition_notes: input.conditionNotes,
       updated_at: at,
     };
-    const updated = await updateRental(deps.db, auth.shop.id, row.id, patch, row.state);
-    if (!updated) throw moved();
     const missing = input.contents.filter((c) => !c.present).map((c) => c.item);
     const text = `Kit received back on ${input.receivedDate}, condition ${input.condition.replace('_', ' ')}${missing.length ? `; missing: ${missing.join(', ')}` : ''}`;
-    await auditRental(deps.db, updated, auth.user.id, 'rental.returned', text, now);
-    await setKitStatusAfter(deps.db, updated, 'returned', now);
+    await writeWithAudit(
+      deps.db,
+      async (trx) => {
+        const updated = await updateRental(trx, auth.shop.id, row.id, patch, row.state);
+        if (!updated) throw moved();
+        await setKitStatusAfter(trx, updated, 'returned', now);
+        return updated;
+      },
+      (updated) => rentalAuditEvents(updated, auth.user.id, 'rental.returned', text, now),
+    );
   } else if (input.to === 'closed') {
     const late = input.waiveLateFee ? 0 : lateDaysOf(row, localDay(now, timeZone));
     await settleHold(deps, auth, row, { lateDays: late, capture: input.capture ?? null });
-    const updated = await updateRental(deps.db, auth.shop.id, row.id, { state: 'closed', closed_at: at, updated_at: at }, 'returned');
-    if (!updated) throw moved();
     const charged = input.capture ? `; ${formatMoney(input.capture.amountMinor, row.currency)} taken: ${input.capture.reason}` : '';
-    await auditRental(deps.db, updated, auth.user.id, 'rental.closed', `Rental closed${late ? ` with ${late} late day${late === 1 ? '' : 's'}` : ''}${charged}`, now);
+    await writeWithAudit(
+      deps.db,
+      async (trx) => {
+        const updated = await updateRental(trx, auth.shop.id, row.id, { state: 'closed', closed_at: at, updated_at: at }, 'returned');
+        if (!updated) throw moved();
+        return updated;
+      },
+      (updated) => rentalAuditEvents(updated, auth.user.id, 'rental.closed', `Rental closed${late ? ` with ${late} late day${late === 1 ? '' : 's'}` : ''}${charged}`, now),
+    );
   } else {
     const patch = input.to === 'cancelled' ? { state: 'cancelled' as const, cancel_reason: input.reason, updated_at: at } : { state: input.to, delivered_at: at, updated_at: at };
-    const updated = await updateRental(deps.db, auth.shop.id, row.id, patch, row.state);
-    if (!updated) throw moved();
-    await auditRental(deps.db, updated, auth.user.id, `rental.${input.to}`, MOVE_TEXT[input.to], now);
-    await setKitStatusAfter(deps.db, updated, input.to, now);
+    await writeWithAudit(
+      deps.db,
+      async (trx) => {
+        const updated = await updateRental(trx, auth.shop.id, row.id, patch, row.state);
+        if (!updated) throw moved();
+        await setKitStatusAfter(trx, updated, input.to, now);
+        return updated;
+      },
+      (updated) => rentalAuditEvents(updated, auth.user.id, `rental.${input.to}`, MOVE_TEXT[input.to], now),
+    );
   }
   await notifyRental(deps, row.id, row.shop_id, input.to);
   return (await findRental(deps.db, auth.shop.id, row.id))!;
@@ -297,7 +321,10 @@ export async function acceptTerms(deps: AppDeps, auth: ShopAuth, id: string): Pr
   if (row.state !== 'requested' && row.state !== 'booked') throw new DomainError('invalid_transition', 'The terms are agreed before the kit ships.');
   if (row.terms_accepted_at) return row;
   const now = deps.clock.now();
-  await updateRental(deps.db, auth.shop.id, row.id, { terms_accepted_at: now.toISOString(), updated_at: now.toISOString() });
-  await auditRental(deps.db, row, auth.user.id, 'rental.terms_accepted', 'Rental terms agreed', now);
+  await writeWithAudit(
+    deps.db,
+    (trx) => updateRental(trx, auth.shop.id, row.id, { terms_accepted_at: now.toISOString(), updated_at: now.toISOString() }),
+    () => rentalAuditEvents(row, auth.user.id, 'rental.terms_accepted', 'Rental terms agreed', now),
+  );
   return (await findRental(deps.db, auth.shop.id, row.id))!;
 }
