@@ -1,5 +1,6 @@
 import { sql } from 'kysely';
-import { testEngine } from '@revloop/db/testing';
+import { createDb } from '@revloop/db';
+import { testDbUrl, testEngine } from '@revloop/db/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { createTwoShops } from '../../testing/factories';
 import { createTestApp, signIn, type TestApp } from '../../testing/test-app';
@@ -19,8 +20,16 @@ afterEach(async () => {
 
 async function refuseAuditEvents() {
   if (testEngine() === 'postgres') {
-    await sql`create function refuse_audit() returns trigger language plpgsql as $$ begin raise exception 'audit refused'; end $$`.execute(t.db);
-    await sql`create trigger refuse_audit before insert on audit_events for each row execute function refuse_audit()`.execute(t.db);
+    // The app's role may not create functions or triggers: the cluster's admin does, on this test's database.
+    const [base, query] = process.env.REVLOOP_PG_TEST_ADMIN_URL!.split('?') as [string, string?];
+    const name = testDbUrl(t.db).split('?')[0]!.split('/').pop()!;
+    const admin = createDb(`${base.slice(0, base.lastIndexOf('/'))}/${name}${query ? `?${query}` : ''}`, { poolSize: 1 });
+    try {
+      await sql`create or replace function refuse_audit() returns trigger language plpgsql as $$ begin raise exception 'audit refused'; end $$`.execute(admin);
+      await sql`create or replace trigger refuse_audit before insert on audit_events for each row execute function refuse_audit()`.execute(admin);
+    } finally {
+      await admin.destroy();
+    }
   } else {
     await sql`create trigger refuse_audit before insert on audit_events begin select raise(abort, 'audit refused'); end`.execute(t.db);
   }
