@@ -202,7 +202,8 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
   // open, so nothing half-written is committed and nothing stays locked before the next start.
   if (testEngine() === 'postgres') {
     await waitFor('the killed server’s sessions to end', async () => {
-      const [others] = await rows(sql<{ n: number }>`select count(*) as n from pg_stat_activity where datname = current_database() and pid <> pg_backend_pid()`);
+      const [others] = await rows(sql<{ n: number }>`select count(*) as n from pg_stat_activity
+        where datname = current_database() and backend_type = 'client backend' and pid <> pg_backend_pid()`);
       return others!.n === 0 ? true : undefined;
     });
   }
