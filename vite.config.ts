@@ -31,8 +31,9 @@ export default defineConfig({
       // The crash test starts and kills real servers in child processes: it keeps a worker of its own.
       { test: { name: 'api-crash', root: 'apps/api', include: ['src/features/recovery/crash.api.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 30000 } },
       { test: { name: 'db-pg', root: 'packages/db', include: ['src/**/*.test.ts'], environment: 'node', testTimeout: 20000, hookTimeout: 60000, ...onPostgres } },
-      // The API suite on PostgreSQL, every folder (DEVELOPERS.md "PostgreSQL"); REVLOOP_API_PG=0 leaves it out of a
-      // quick local run. Files share their worker's module cache, as in `api`; each test app copies the template.
+      // The API suite on PostgreSQL, every folder (DEVELOPERS.md "PostgreSQL"), and the crash test on PostgreSQL in a
+      // worker of its own; REVLOOP_API_PG=0 leaves both out of a quick local run. Files share their worker's module
+      // cache, as in `api`; each test app copies the template.
       ...(process.env.REVLOOP_API_PG === '0'
         ? []
         : [
@@ -44,6 +45,17 @@ export default defineConfig({
                 exclude: ['src/features/recovery/crash.api.test.ts'],
                 environment: 'node' as const,
                 isolate: false,
+                testTimeout: 30000,
+                hookTimeout: 60000,
+                ...onPostgres,
+              },
+            },
+            {
+              test: {
+                name: 'api-crash-pg',
+                root: 'apps/api',
+                include: ['src/features/recovery/crash.api.test.ts'],
+                environment: 'node' as const,
                 testTimeout: 30000,
                 hookTimeout: 60000,
                 ...onPostgres,

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
-# The PostgreSQL test projects (db-pg, api-pg) start a throwaway cluster from Debian's postgresql package. With
-# PG_TEST_URL set they use that server instead and need nothing installed here.
+# The PostgreSQL test projects (db-pg, api-pg, api-crash-pg) start a throwaway cluster from Debian's postgresql
+# package. With PG_TEST_URL set they use that server instead and need nothing installed here.
 set -euo pipefail
 if [ -n "${PG_TEST_URL:-}" ]; then exit 0; fi
 if ls /usr/lib/postgresql/*/bin/initdb >/dev/null 2>&1 || command -v initdb >/dev/null 2>&1; then exit 0; fi

@@ -22,7 +22,7 @@ phase() {
 phase "compile the CLI and datalog workers"; node apps/api/scripts/build-node.mjs
 phase "typecheck"; npm run -s typecheck
 phase "lint"; npm run -s lint
-phase "unit and API tests (db-pg and api-pg on a throwaway PostgreSQL cluster, or PG_TEST_URL)"
+phase "unit and API tests (db-pg, api-pg and api-crash-pg on one throwaway PostgreSQL cluster, or PG_TEST_URL)"
 status=0
 npx vitest run --reporter=default --reporter=json --outputFile.json=.tmp/vitest.json || status=$?
 phase "build web app"; npm run -s build

@@ -1,7 +1,9 @@
-// Vitest global setup of the PostgreSQL projects (db-pg, api-pg): one throwaway cluster for the whole run, in a temp
-// folder, reached over a unix socket in that folder (no TCP port), removed afterwards. It migrates one template
-// database as the app's role; each test database is a copy of it (CREATE DATABASE … TEMPLATE, see
-// packages/db/src/testing/postgres.ts).
+// Vitest global setup of the PostgreSQL projects (db-pg, api-pg, api-crash-pg): one throwaway cluster for the whole
+// run, in a temp folder, reached over a unix socket in that folder (no TCP port), removed afterwards. It migrates one
+// template database as the app's role; each test database is a copy of it (CREATE DATABASE … TEMPLATE, see
+// packages/db/src/testing/postgres.ts). Vitest calls a global setup once per project, all before the first test and
+// all teardowns after the last, in one process: the first call starts the cluster, later ones share it, and the last
+// teardown stops it.
 //
 // PG_TEST_URL=postgres://admin:pw@host:5432/postgres points the run at an existing server instead: the admin role
 // there must be allowed to create roles and databases. The run creates the role revloop_test_app and databases named
@@ -92,7 +94,27 @@ async function admin<T>(url: string, work: (client: pg.Client) => Promise<T>): P
   }
 }
 
+interface Shared {
+  ready: Promise<() => Promise<void>>;
+  users: number;
+}
+const SHARED = Symbol.for('revloop.tests.with-postgres');
+
 export default async function setup(): Promise<() => Promise<void>> {
+  const holder = globalThis as { [SHARED]?: Shared };
+  const shared = (holder[SHARED] ??= { ready: startAndMigrate(), users: 0 });
+  shared.users += 1;
+  const stop = await shared.ready;
+  return async () => {
+    shared.users -= 1;
+    if (shared.users > 0) return;
+    delete holder[SHARED];
+    await stop();
+  };
+}
+
+/** Starts the cluster (or reaches PG_TEST_URL), migrates the template, sets the addresses; resolves with its teardown. */
+async function startAndMigrate(): Promise<() => Promise<void>> {
   const cluster = process.env.PG_TEST_URL ? existingServer(process.env.PG_TEST_URL) : startCluster();
   const run = `${process.pid}`;
   const template = `${TEMPLATE}_${run}`;

@@ -4,8 +4,9 @@ import pg from 'pg';
 import { createDb, type Db } from '../client';
 import { migrateToLatest } from '../migrate';
 
-// Test databases for both engines. The PostgreSQL projects (db-pg, api-pg) set REVLOOP_TEST_DB=postgres, and their
-// global setup (tests/with-postgres.ts) leaves the server's addresses and a migrated template in the environment.
+// Test databases for both engines. The PostgreSQL projects (db-pg, api-pg, api-crash-pg) set REVLOOP_TEST_DB=postgres,
+// and their global setup (tests/with-postgres.ts) leaves the server's addresses and a migrated template in the
+// environment.
 
 export const testEngine = (): 'sqlite' | 'postgres' => (process.env.REVLOOP_TEST_DB === 'postgres' ? 'postgres' : 'sqlite');
 

@@ -5,7 +5,9 @@ import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import BetterSqlite3 from 'better-sqlite3';
+import { createDb, type Db } from '@revloop/db';
+import { testDbUrl, testEngine } from '@revloop/db/testing';
+import { sql, type RawBuilder } from 'kysely';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { generateLog } from '@revloop/domain/datalog/testing';
 import { DiskBlobStore } from '../../storage/blob-store';
@@ -19,11 +21,18 @@ import { createTestApp, TEST_PASSWORD } from '../../testing/test-app';
 // Which upload the kill cuts is left to chance, so nothing below depends on it: every upload the server acknowledged
 // must have its row and its file, no temp file may stay, and every log must end ready or failed. What recovery must
 // find is made certain instead: an upload stalled half-way, a log whose check was cut off, a file without a row.
+// In the api-crash-pg project the database is PostgreSQL (the test file's copy of the migrated template) and the
+// files stay on disk in the data folder; the checks are the same. They read rows and files only, never the queue's
+// own tables, so they hold whichever queue the server runs.
 
 const ROOT = fileURLToPath(new URL('../../../../../', import.meta.url));
 const SERVER = path.join(ROOT, 'apps/api/src/server.ts');
 
 let dataDir: string;
+/** The database the servers run on: the data folder's SQLite file, or a PostgreSQL address. */
+let dbSource: string;
+/** One connection of the test's own to that database, outside the app: on PostgreSQL no shop is named, so row-level security hides nothing. */
+let db: Db | undefined;
 let ownerEmail: string;
 /** Open jobs, one in each state before the first revision is judged. */
 let jobIds: string[];
@@ -34,7 +43,7 @@ async function startServer(port: number) {
   const lines: string[] = [];
   const proc = spawn(process.execPath, ['--import', 'tsx', SERVER], {
     cwd: ROOT,
-    env: serverEnv(port, dataDir, { LOG_LEVEL: 'info' }),
+    env: serverEnv(port, dataDir, { LOG_LEVEL: 'info', ...(testEngine() === 'postgres' && { DATABASE_URL: dbSource }) }),
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   child = proc;
@@ -138,6 +147,7 @@ beforeAll(async () => {
   dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'revloop-crash-'));
   const t = await createTestApp({}, { dataDir });
   try {
+    dbSource = testEngine() === 'postgres' ? testDbUrl(t.db) : path.join(dataDir, 'revloop.db');
     const shop = await createShop(t);
     ownerEmail = shop.owner.email;
     jobIds = [];
@@ -149,12 +159,15 @@ beforeAll(async () => {
 
 afterAll(async () => {
   if (child) await kill(child, 'SIGKILL');
+  await db?.destroy();
   fs.rmSync(dataDir, { recursive: true, force: true });
 });
 
 it('a server killed mid-upload and mid-check comes back whole: no lost upload, no temp file, every log checked', { timeout: 180_000 }, async () => {
   const port = await freePort();
   const first = await startServer(port);
+  // The server runs on the engine of this project.
+  expect(await (await fetch(`${first.base}/api/health/ready`)).json()).toEqual({ status: 'ok', database: testEngine() });
   const cookie = await signInCookie(first.base, ownerEmail);
   const jobAt = (i: number) => jobIds[i % jobIds.length]!;
 
@@ -183,13 +196,22 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
 
   // What the crash left, before anything cleans it: the stalled upload's temp file at least.
   expect(fs.readdirSync(tempDir).length).toBeGreaterThan(0);
-  const crashed = new BetterSqlite3(path.join(dataDir, 'revloop.db'));
+  db = createDb(dbSource, { poolSize: 1 });
+  const rows = async <T>(query: RawBuilder<T>): Promise<T[]> => (await query.execute(db!)).rows;
+  // PostgreSQL outlives its killed client: it ends the dead process's sessions and rolls back any transaction they had
+  // open, so nothing half-written is committed and nothing stays locked before the next start.
+  if (testEngine() === 'postgres') {
+    await waitFor('the killed server’s sessions to end', async () => {
+      const [others] = await rows(sql<{ n: number }>`select count(*) as n from pg_stat_activity
+        where datname = current_database() and backend_type = 'client backend' and pid <> pg_backend_pid()`);
+      return others!.n === 0 ? true : undefined;
+    });
+  }
   // A log whose check was cut off, certain whatever the kill hit: an acknowledged log of the first round set back as it
   // was while its check ran.
   const cutOff = acknowledged.find((a) => a.table === 'datalogs')!;
-  crashed.prepare("update datalogs set status = 'processing', error = null, report = null where id = ?").run(cutOff.id);
-  const unfinished = crashed.prepare("select count(*) as n from datalogs where status = 'processing'").get() as { n: number };
-  crashed.close();
+  await sql`update datalogs set status = 'processing', error = null, report = null where id = ${cutOff.id}`.execute(db);
+  const [unfinished] = await rows(sql<{ n: number }>`select count(*) as n from datalogs where status = 'processing'`);
   // A file stored just before its row would have been written, long enough ago to count as an orphan.
   const orphan = new DiskBlobStore(dataDir).pathOf('0'.repeat(64));
   fs.mkdirSync(path.dirname(orphan), { recursive: true });
@@ -204,20 +226,20 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
   });
   expect(recovery.tempFiles).toBeGreaterThan(0);
   // Every log left processing is checked again (its uploader, the owner, is still a member).
-  expect([recovery.datalogsRequeued, recovery.datalogsFailed]).toEqual([unfinished.n, 0]);
+  expect([recovery.datalogsRequeued, recovery.datalogsFailed]).toEqual([unfinished!.n, 0]);
   expect(recovery.orphanBlobs).toBe(1);
   expect(fs.existsSync(orphan)).toBe(false);
   expect(fs.readdirSync(tempDir)).toEqual([]);
 
-  const db = new BetterSqlite3(path.join(dataDir, 'revloop.db'), { readonly: true });
   try {
-    expect(db.pragma('integrity_check', { simple: true })).toBe('ok');
+    // SQLite's own check of the file after the kill (on PostgreSQL, see the sessions check above).
+    if (testEngine() === 'sqlite') expect(await rows(sql<{ integrity_check: string }>`pragma integrity_check`)).toEqual([{ integrity_check: 'ok' }]);
     for (const a of acknowledged) {
-      const row = db.prepare(`select sha256 from ${a.table} where id = ?`).get(a.id) as { sha256: string } | undefined;
-      expect(row, `${a.table} ${a.id} answered 2xx`).toEqual({ sha256: a.sha256 });
+      const found = await rows(sql<{ sha256: string }>`select sha256 from ${sql.table(a.table)} where id = ${a.id}`);
+      expect(found, `${a.table} ${a.id} answered 2xx`).toEqual([{ sha256: a.sha256 }]);
       expect(fs.existsSync(new DiskBlobStore(dataDir).pathOf(a.sha256))).toBe(true);
     }
-    const referenced = db.prepare('select sha256 from calibration_files union select sha256 from datalogs').all() as { sha256: string }[];
+    const referenced = await rows(sql<{ sha256: string }>`select sha256 from calibration_files union select sha256 from datalogs`);
     expect(referenced.filter((r) => !fs.existsSync(new DiskBlobStore(dataDir).pathOf(r.sha256)))).toEqual([]);
 
     // Nobody opens a log: the list of the job's logs (which starts nothing) is polled until every one has ended.
@@ -235,12 +257,10 @@ it('a server killed mid-upload and mid-check comes back whole: no lost upload, n
       },
       90_000,
     );
-    const left = db.prepare("select count(*) as n from datalogs where status = 'processing'").get() as { n: number };
-    expect(left.n).toBe(0);
+    expect(await rows(sql<{ n: number }>`select count(*) as n from datalogs where status = 'processing'`)).toEqual([{ n: 0 }]);
     // The log whose check was cut off was checked again to the end.
-    expect(db.prepare('select status from datalogs where id = ?').get(cutOff.id)).toEqual({ status: 'ready' });
+    expect(await rows(sql<{ status: string }>`select status from datalogs where id = ${cutOff.id}`)).toEqual([{ status: 'ready' }]);
   } finally {
-    db.close();
     await kill(second.proc, 'SIGTERM');
   }
 });
