@@ -22,7 +22,13 @@ export function KitPhotos({ kitId, photos, canEdit }: { kitId: string; photos: K
             <li key={p.id} className="flex flex-col gap-1">
               <img src={p.url} alt={`Kit photo ${p.originalName}`} className="aspect-square w-full rounded object-cover" loading="lazy" />
               {canEdit && (
-                <Button variant="ghost" size="sm" pending={remove.isPending && remove.variables?.photoId === p.id} onClick={() => remove.mutate({ kitId, photoId: p.id })}>
+                <Button
+                  variant="ghost"
+                  size="sm"
+                  aria-label={`Delete photo ${p.originalName}`}
+                  pending={remove.isPending && remove.variables?.photoId === p.id}
+                  onClick={() => remove.mutate({ kitId, photoId: p.id })}
+                >
                   Delete photo
                 </Button>
               )}
