@@ -1,4 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
+import { LAPTOP, overflowPx, PHONE } from './a11y';
 import { signIn } from './support';
 
 // Issue 13 part 3 in the browser: a retail customer's sent revision stays locked until the job is paid. The customer
@@ -54,10 +55,16 @@ test('a customer sees a revision locked until paid, pays through Checkout and do
   const card = page.getByRole('article', { name: new RegExp(`^Job ${job.number}:`) });
   await expect(card.getByText(payFirst)).toBeVisible();
   await expect(card.getByRole('button', { name: `Pay for job ${job.number}` })).toBeVisible();
+  await page.setViewportSize(PHONE);
+  expect(await overflowPx(page)).toBe(0);
+  await card.screenshot({ path: '.tmp/payment-lock-card-390.png' });
 
   await page.goto(`/jobs/${job.id}`);
   await expect(page.getByText(payFirst)).toBeVisible();
   await expect(page.getByRole('button', { name: 'Pay for this job' })).toBeVisible();
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '.tmp/payment-lock-next-step-390.png' });
+  await page.setViewportSize(LAPTOP);
   const locked = page.getByRole('group', { name: `${file.label} locked until paid` });
   await expect(locked).toBeVisible();
   await expect(locked.getByText(/unlocks when the job is paid/)).toBeVisible();

@@ -174,7 +174,6 @@ test('the owner adds a photo to the kit, sees it at 1366 and 390 px, and deletes
   await expect(photo).toBeVisible();
   // The image the page shows is the one uploaded: the browser decoded it to one pixel.
   await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(1);
-  await photo.scrollIntoViewIfNeeded();
   await page.screenshot({ path: '/tmp/rentals-kit-photo-1366.png', fullPage: true });
   await page.setViewportSize(PHONE);
   expect(await overflowPx(page)).toBe(0);
