@@ -100,6 +100,9 @@ describe('paid before download', () => {
     const payFirst = { nextStep: 'Pay for this job to unlock revision 1, then flash it, warm up and log as requested.', nextStepAction: 'pay' };
     expect((await customer.get(`/api/jobs/${job.id}`)).body.data).toMatchObject(payFirst);
     expect(await listed()).toMatchObject(payFirst);
+    // The in-app notice of the sent revision says the same.
+    const notices = (await customer.get('/api/notifications')).body.data as Array<{ title: string; body: string }>;
+    expect(notices.find((n) => n.title.startsWith(`Revision 1 is ready — Job ${job.number} `))?.body).toMatch(/ Pay for this job to unlock revision 1, then flash it, warm up and log as requested\.$/);
     // The bench is never locked out: its next step is its own.
     const owner = await signIn(t.app, two.shop.owner.email);
     expect((await owner.get(`/api/jobs/${job.id}`)).body.data).toMatchObject({ nextStep: 'Waiting for the customer to flash revision 1 and send a log.', nextStepAction: null });

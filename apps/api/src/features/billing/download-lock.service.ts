@@ -1,4 +1,4 @@
-import { findPackage, findUserById, listCustomerJobMoney, listJobPayments, updateJob, type CalibrationFileRow, type Db, type JobListRow, type ShopRow } from '@revloop/db';
+import { findPackage, findUserById, listJobPayments, updateJob, type CalibrationFileRow, type Db, type JobListRow, type ShopRow } from '@revloop/db';
 import type { JobPayments } from '@revloop/contract';
 import { DomainError } from '@revloop/domain';
 import { asSubject, type Actor } from '@revloop/domain/auth';
@@ -7,6 +7,7 @@ import type { AppDeps } from '../../context';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { loadJob } from '../jobs/job.service';
+import { customerLockedJobIds } from './customer-revision-locks';
 
 // Paid before download as the API asks it: the facts of a job gathered once, the domain's downloadLockFor decides.
 
@@ -45,23 +46,12 @@ const NONE: ReadonlySet<string> = new Set();
 
 /**
  * The signed-in customer's jobs whose sent revisions are locked until paid, as ids (all their jobs in this shop, or the
- * one named): what their next step says and offers. The domain's downloadLockFor decides each job; only a customer
- * meets the lock (the bench never does, and a dealer's jobs are paid from its balance), so anybody else gets none.
+ * one named): what their next step says and offers. Only a customer meets the lock (the bench never does, and a
+ * dealer's jobs are paid from its balance), so anybody else gets none.
  */
 export async function lockedJobIdsForCustomer(db: Db, auth: Pick<AuthContext, 'actor'> & { shop: ShopPaidSetting & { id: string } }, jobId?: string): Promise<ReadonlySet<string>> {
-  if (auth.actor.role !== 'customer' || auth.shop.paid_before_download !== 1) return NONE;
-  const rows = await listCustomerJobMoney(db, auth.shop.id, auth.actor.userId, jobId);
-  const locked = rows.filter(
-    (r) =>
-      downloadLockFor({
-        file: { kind: 'revision', draft: false },
-        job: { dealerId: r.dealer_id, paymentLockWaivedAt: r.payment_lock_waived_at },
-        shop: { paidBeforeDownload: true },
-        payments: { priceMinor: r.price_minor, paidMinor: r.paid_minor, refundedMinor: r.refunded_minor, currency: auth.shop.currency },
-        viewer: { shopStaff: false },
-      }).locked,
-  );
-  return new Set(locked.map((r) => r.job_id));
+  if (auth.actor.role !== 'customer') return NONE;
+  return customerLockedJobIds(db, auth.shop, auth.actor.userId, jobId);
 }
 
 /** The lock as the job's customer meets it on a sent revision: what the job page shows to the customer and to the owner. */
