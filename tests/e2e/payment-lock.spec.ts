@@ -1,4 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
+import { LAPTOP, overflowPx, PHONE } from './a11y';
 import { signIn } from './support';
 
 // Issue 13 part 3 in the browser: a retail customer's sent revision stays locked until the job is paid. The customer
@@ -9,7 +10,10 @@ interface ListedJob {
   id: string;
   number: number;
   state: string;
+  round: number;
   dealer: unknown;
+  nextStep: string;
+  nextStepAction: string | null;
 }
 interface ListedFile {
   id: string;
@@ -44,7 +48,23 @@ test('a customer sees a revision locked until paid, pays through Checkout and do
   expect(refused.status()).toBe(402);
   expect((await refused.json()).error.code).toBe('payment_required');
 
+  // The one-line next step says to pay first, on the customer's own jobs and on the job's head, with the job's checkout.
+  const payFirst = `Pay for this job to unlock revision ${job.round}, then flash it, warm up and log as requested.`;
+  expect(job).toMatchObject({ nextStep: payFirst, nextStepAction: 'pay' });
+  await page.goto('/jobs');
+  const card = page.getByRole('article', { name: new RegExp(`^Job ${job.number}:`) });
+  await expect(card.getByText(payFirst)).toBeVisible();
+  await expect(card.getByRole('button', { name: `Pay for job ${job.number}` })).toBeVisible();
+  await page.setViewportSize(PHONE);
+  expect(await overflowPx(page)).toBe(0);
+  await card.screenshot({ path: '.tmp/payment-lock-card-390.png' });
+
   await page.goto(`/jobs/${job.id}`);
+  await expect(page.getByText(payFirst)).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Pay for this job' })).toBeVisible();
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '.tmp/payment-lock-next-step-390.png' });
+  await page.setViewportSize(LAPTOP);
   const locked = page.getByRole('group', { name: `${file.label} locked until paid` });
   await expect(locked).toBeVisible();
   await expect(locked.getByText(/unlocks when the job is paid/)).toBeVisible();
@@ -67,6 +87,8 @@ test('a customer sees a revision locked until paid, pays through Checkout and do
     await expect(download).toBeVisible({ timeout: 1500 });
   }).toPass({ timeout: 20_000 });
   await expect(page.getByText('Locked until paid')).toHaveCount(0);
+  await expect(page.getByText(`Flash revision ${job.round}, warm up, then log as requested.`)).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Pay for this job' })).toHaveCount(0);
   const [saved] = await Promise.all([page.waitForEvent('download'), download.click()]);
   expect(saved.suggestedFilename()).toMatch(/-rev\d+\.(bin|hex|s19|s28|s37|srec|mot)$/);
   expect(await saved.path()).toBeTruthy();

@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+import zlib from 'node:zlib';
 import { expect, test, type Page } from '@playwright/test';
 import { LAPTOP, overflowPx, PHONE } from './a11y';
 import { useSession } from './support';
@@ -9,6 +11,31 @@ test.describe.configure({ mode: 'serial' });
 const KIT = `E2E kit ${Date.now()}`;
 const REASON = 'Cracked OBD connector housing';
 let jobId = '';
+
+/** A PNG chunk: length, type, data and the CRC-32 of type and data (PNG specification, W3C, section 5.3). */
+function pngChunk(type: string, data: Buffer): Buffer {
+  const body = Buffer.concat([Buffer.from(type, 'ascii'), data]);
+  const length = Buffer.alloc(4);
+  length.writeUInt32BE(data.length);
+  const crc = Buffer.alloc(4);
+  crc.writeUInt32BE(zlib.crc32(body));
+  return Buffer.concat([length, body, crc]);
+}
+
+/** A valid 1×1 PNG of one opaque colour, made from bytes: signature, IHDR (8-bit RGB), one zlib-packed row, IEND. */
+function onePixelPng(rgb: [number, number, number]): Buffer {
+  const header = Buffer.alloc(13);
+  header.writeUInt32BE(1, 0);
+  header.writeUInt32BE(1, 4);
+  header.set([8, 2, 0, 0, 0], 8);
+  const row = Buffer.from([0, ...rgb]);
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    pngChunk('IHDR', header),
+    pngChunk('IDAT', zlib.deflateSync(row)),
+    pngChunk('IEND', Buffer.alloc(0)),
+  ]);
+}
 
 async function payOnHostedPage(page: Page) {
   await expect(page.getByText('Local test payment page.')).toBeVisible();
@@ -133,4 +160,42 @@ test('the customer sees why part of the deposit was taken', async ({ page }) => 
   await expect(lines.getByText('$80.00')).toBeVisible();
   expect(await overflowPx(page)).toBe(0);
   await page.screenshot({ path: '/tmp/rentals-customer-390.png', fullPage: true });
+});
+
+test('the owner adds a photo to the kit, sees it at 1366 and 390 px, and deletes it', async ({ page }) => {
+  await page.setViewportSize(LAPTOP);
+  await useSession(page, 'owner@kestrel.test');
+  await page.goto('/kits');
+  await page.getByRole('row', { name: new RegExp(KIT) }).getByRole('link', { name: KIT }).click();
+  await expect(page.getByRole('heading', { level: 1, name: KIT })).toBeVisible();
+  await expect(page.getByText('No photos of this kit yet.')).toBeVisible();
+  await page.getByLabel(/^Add a photo/).setInputFiles({ name: 'kit-case.png', mimeType: 'image/png', buffer: onePixelPng([37, 99, 235]) });
+  const photo = page.getByRole('img', { name: 'Kit photo kit-case.png' });
+  await expect(photo).toBeVisible();
+  // The image the page shows is the one uploaded: the browser decoded it to one pixel.
+  await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(1);
+  await page.screenshot({ path: '/tmp/rentals-kit-photo-1366.png', fullPage: true });
+  await page.setViewportSize(PHONE);
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '/tmp/rentals-kit-photo-390.png', fullPage: true });
+  await page.getByRole('button', { name: 'Delete photo kit-case.png' }).click();
+  await expect(photo).toHaveCount(0);
+  await expect(page.getByText('No photos of this kit yet.')).toBeVisible();
+});
+
+test('the owner downloads the rental money lines as CSV from the Kits overview', async ({ page }) => {
+  await page.setViewportSize(LAPTOP);
+  await useSession(page, 'owner@kestrel.test');
+  await page.goto('/kits/overview');
+  await expect(page.getByRole('heading', { level: 1, name: 'Kits overview' })).toBeVisible();
+  await page.screenshot({ path: '/tmp/rentals-overview-1366.png', fullPage: true });
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Export money lines (CSV)' }).click()]);
+  expect(download.suggestedFilename()).toMatch(/\.csv$/);
+  const lines = fs.readFileSync((await download.path())!, 'utf8').trim().split('\r\n');
+  expect(lines[0]).toBe('Day,Time (UTC),Job,Customer,Kit,Line,Description,Amount,Currency,Rental');
+  // The deposit taken earlier in this story is among the lines, with the reason the customer saw.
+  expect(lines.some((line) => line.includes(KIT) && line.includes(REASON) && line.includes('80.00'))).toBe(true);
+  await page.setViewportSize(PHONE);
+  expect(await overflowPx(page)).toBe(0);
+  await page.screenshot({ path: '/tmp/rentals-overview-390.png', fullPage: true });
 });

@@ -1,5 +1,5 @@
 import { logRequestSchema } from '@revloop/domain/datalog';
-import { JOB_STATES, specialRequestsSchema, type AvailableTransition } from '@revloop/domain/jobs';
+import { JOB_STATES, NEXT_STEP_ACTIONS, specialRequestsSchema, type AvailableTransition } from '@revloop/domain/jobs';
 import { z } from 'zod';
 import { itemOf, joinedRefSchema, listOf, listWithMeta, personRefSchema, timestamp } from './envelope';
 
@@ -53,6 +53,8 @@ export const jobSchema = z.object({
   hoursInState: z.number(),
   stale: z.boolean(),
   nextStep: z.string(),
+  /** What the page offers beside the next step: `pay` opens the job's checkout (a customer's sent revision waits, locked until paid); null for nothing. */
+  nextStepAction: z.enum(NEXT_STEP_ACTIONS).nullable(),
   // The state machine computes the moves; the contract only carries them.
   transitions: z.array(z.custom<AvailableTransition>()),
   createdAt: timestamp,

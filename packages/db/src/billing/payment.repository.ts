@@ -128,3 +128,57 @@ export async function findRefundByProviderId(db: Db, shopId: string, stripeRefun
 export async function listPaymentRefunds(db: Db, shopId: string, paymentId: string): Promise<PaymentRefundRow[]> {
   return db.selectFrom('payment_refunds').selectAll().where('shop_id', '=', shopId).where('payment_id', '=', paymentId).orderBy('created_at').execute();
 }
+
+/** One job's money as paid before download reads it: its package's retail price, what was paid and what of that was refunded. */
+export interface JobMoneyRow {
+  job_id: string;
+  dealer_id: string | null;
+  payment_lock_waived_at: string | null;
+  price_minor: number;
+  paid_minor: number;
+  refunded_minor: number;
+}
+
+/**
+ * The money of a customer's jobs in one read (or of one of them, with `jobId`): what the customer side needs to tell
+ * which jobs keep their sent revisions locked until paid. Sums come back as numbers on both dialects.
+ */
+export async function listCustomerJobMoney(db: Db, shopId: string, customerUserId: string, jobId?: string): Promise<JobMoneyRow[]> {
+  let query = db
+    .selectFrom('jobs')
+    .leftJoin('packages', (join) => join.onRef('packages.id', '=', 'jobs.package_id').onRef('packages.shop_id', '=', 'jobs.shop_id'))
+    .select((eb) => [
+      'jobs.id as job_id',
+      'jobs.dealer_id',
+      'jobs.payment_lock_waived_at',
+      eb.fn.coalesce('packages.retail_price_minor', eb.lit(0)).as('price_minor'),
+      eb.fn
+        .coalesce(
+          eb
+            .selectFrom('payments')
+            .select((e) => e.fn.sum<number>('payments.amount_minor').as('s'))
+            .whereRef('payments.shop_id', '=', 'jobs.shop_id')
+            .whereRef('payments.job_id', '=', 'jobs.id')
+            .where('payments.status', '=', 'paid'),
+          eb.lit(0),
+        )
+        .as('paid_minor'),
+      eb.fn
+        .coalesce(
+          eb
+            .selectFrom('payment_refunds')
+            .innerJoin('payments', 'payments.id', 'payment_refunds.payment_id')
+            .select((e) => e.fn.sum<number>('payment_refunds.amount_minor').as('s'))
+            .whereRef('payments.shop_id', '=', 'jobs.shop_id')
+            .whereRef('payments.job_id', '=', 'jobs.id')
+            .where('payments.status', '=', 'paid'),
+          eb.lit(0),
+        )
+        .as('refunded_minor'),
+    ])
+    .where('jobs.shop_id', '=', shopId)
+    .where('jobs.customer_user_id', '=', customerUserId);
+  if (jobId !== undefined) query = query.where('jobs.id', '=', jobId);
+  const rows = await query.orderBy('jobs.id').execute();
+  return rows.map((r) => ({ ...r, price_minor: Number(r.price_minor), paid_minor: Number(r.paid_minor), refunded_minor: Number(r.refunded_minor) }));
+}

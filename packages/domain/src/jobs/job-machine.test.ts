@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { defineAbilityFor } from '../auth/ability';
 import type { Actor } from '../auth/roles';
-import { type JobFacts, applyTransition, canMarkReady, nextStep } from './job-machine';
+import { type JobFacts, applyTransition, canMarkReady, nextStep, nextStepAction } from './job-machine';
 import { assertMoveNote, assertTransition, availableTransitions } from './job-moves';
 import {
   JOB_STATES,
@@ -256,6 +256,31 @@ describe('labels, next steps and staleness', () => {
     expect(nextStep(base('on_bench', { round: 1, hasRevisionForRound: false }), 'shop')).toBe(
       'Prepare revision 2 from the log of revision 1.',
     );
+  });
+
+  it('asks the customer to pay first while the sent revision is locked until the job is paid', () => {
+    const locked = { revisionsLocked: true };
+    expect(nextStep(base('with_customer', { round: 1 }), 'customer', locked)).toBe(
+      'Pay for this job to unlock revision 1, then flash it, warm up and log as requested.',
+    );
+    expect(nextStepAction(base('with_customer', { round: 1 }), 'customer', locked)).toBe('pay');
+    expect(nextStep(base('dialed_in', { round: 3 }), 'customer', locked)).toBe(
+      'Finished: pay for this job to unlock revision 3, the final calibration, then flash it.',
+    );
+    expect(nextStepAction(base('dialed_in', { round: 3 }), 'customer', locked)).toBe('pay');
+    // Paid, waived or never locked: the usual sentence and nothing to click.
+    expect(nextStep(base('with_customer', { round: 1 }), 'customer', { revisionsLocked: false })).toBe(
+      'Flash revision 1, warm up, then log as requested.',
+    );
+    expect(nextStepAction(base('with_customer', { round: 1 }), 'customer')).toBeNull();
+    // Nothing sent yet, or the work is elsewhere: the lock changes nothing.
+    expect(nextStep(base('on_bench', { round: 0 }), 'customer', locked)).toBe('A tuner is preparing revision 1.');
+    expect(nextStepAction(base('log_review', { round: 1 }), 'customer', locked)).toBeNull();
+    // The lock is the customer's: the shop and a dealer (whose jobs are paid from its balance) read as before.
+    expect(nextStep(base('with_customer', { round: 1, hasLogForRound: false }), 'shop', locked)).toBe(
+      'Waiting for the customer to flash revision 1 and send a log.',
+    );
+    expect(nextStepAction(base('with_customer', { round: 1 }), 'dealer', locked)).toBeNull();
   });
 
   it('has a sentence for every state and audience', () => {

@@ -148,10 +148,40 @@ export function applyTransition(facts: JobFacts, to: JobState, actor?: Actor): J
   return next;
 }
 
+/**
+ * What the customer side adds to a job's next step, beside the machine's facts: the billing rules decide it (paid
+ * before download, `downloadLockFor` in billing/download-lock.rules.ts) and the API passes it in.
+ */
+export interface NextStepContext {
+  /** The job's sent revisions are locked for its customer until the job is paid. */
+  revisionsLocked?: boolean;
+}
+
+/** The moves a next step may offer beside its sentence: `pay` opens the job's own checkout. */
+export const NEXT_STEP_ACTIONS = ['pay'] as const;
+export type NextStepAction = (typeof NEXT_STEP_ACTIONS)[number];
+
+/** The customer must pay before the next step can be taken: a sent revision waits, locked until the job is paid. */
+const mustPayFirst = (facts: JobFacts, audience: Audience, context: NextStepContext): boolean =>
+  audience === 'customer' &&
+  context.revisionsLocked === true &&
+  facts.round > 0 &&
+  (facts.state === 'with_customer' || facts.state === 'dialed_in');
+
+/** The move the page offers beside the next step for this audience, or null when the sentence is all. */
+export function nextStepAction(facts: JobFacts, audience: Audience, context: NextStepContext = {}): NextStepAction | null {
+  return mustPayFirst(facts, audience, context) ? 'pay' : null;
+}
+
 /** One plain sentence telling this audience what happens next. */
-export function nextStep(facts: JobFacts, audience: Audience): string {
+export function nextStep(facts: JobFacts, audience: Audience, context: NextStepContext = {}): string {
   const { state, round } = facts;
   const coming = round + 1;
+  if (mustPayFirst(facts, audience, context)) {
+    return state === 'dialed_in'
+      ? `Finished: pay for this job to unlock revision ${round}, the final calibration, then flash it.`
+      : `Pay for this job to unlock revision ${round}, then flash it, warm up and log as requested.`;
+  }
   if (audience === 'shop') {
     switch (state) {
       case 'intake':

@@ -93,6 +93,26 @@ describe('paid before download', () => {
     expect((await request(t.app).get(linkTo(revision.id))).status).toBe(200);
   });
 
+  it('tells the customer to pay first in the job’s next step, on the job and in their list, until it is paid', async () => {
+    const job = await retailJob();
+    const customer = await signIn(t.app, job.customer.email);
+    const listed = async () => ((await customer.get('/api/jobs?pageSize=100')).body.data as Array<{ id: string; nextStep: string; nextStepAction: string | null }>).find((j) => j.id === job.id)!;
+    const payFirst = { nextStep: 'Pay for this job to unlock revision 1, then flash it, warm up and log as requested.', nextStepAction: 'pay' };
+    expect((await customer.get(`/api/jobs/${job.id}`)).body.data).toMatchObject(payFirst);
+    expect(await listed()).toMatchObject(payFirst);
+    // The in-app notice of the sent revision says the same.
+    const notices = (await customer.get('/api/notifications')).body.data as Array<{ title: string; body: string }>;
+    expect(notices.find((n) => n.title.startsWith(`Revision 1 is ready — Job ${job.number} `))?.body).toMatch(/ Pay for this job to unlock revision 1, then flash it, warm up and log as requested\.$/);
+    // The bench is never locked out: its next step is its own.
+    const owner = await signIn(t.app, two.shop.owner.email);
+    expect((await owner.get(`/api/jobs/${job.id}`)).body.data).toMatchObject({ nextStep: 'Waiting for the customer to flash revision 1 and send a log.', nextStepAction: null });
+    // A payment is not a write to the job, yet the customer's list (cached per viewer) answers anew.
+    await payJob(t, job);
+    const flash = { nextStep: 'Flash revision 1, warm up, then log as requested.', nextStepAction: null };
+    expect(await listed()).toMatchObject(flash);
+    expect((await customer.get(`/api/jobs/${job.id}`)).body.data).toMatchObject(flash);
+  });
+
   it('opens when payment lands through Checkout and its webhook', async () => {
     const job = await retailJob();
     const customer = await signIn(t.app, job.customer.email);

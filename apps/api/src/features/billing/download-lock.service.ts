@@ -7,6 +7,7 @@ import type { AppDeps } from '../../context';
 import { authorizeRow, type AuthContext } from '../../http/auth-context';
 import { recordAudit } from '../audit/audit.service';
 import { loadJob } from '../jobs/job.service';
+import { customerLockedJobIds } from './customer-revision-locks';
 
 // Paid before download as the API asks it: the facts of a job gathered once, the domain's downloadLockFor decides.
 
@@ -39,6 +40,18 @@ export async function downloadLocksFor(db: Db, shop: ShopPaidSetting & { id: str
       payments,
       viewer,
     });
+}
+
+const NONE: ReadonlySet<string> = new Set();
+
+/**
+ * The signed-in customer's jobs whose sent revisions are locked until paid, as ids (all their jobs in this shop, or the
+ * one named): what their next step says and offers. Only a customer meets the lock (the bench never does, and a
+ * dealer's jobs are paid from its balance), so anybody else gets none.
+ */
+export async function lockedJobIdsForCustomer(db: Db, auth: Pick<AuthContext, 'actor'> & { shop: ShopPaidSetting & { id: string } }, jobId?: string): Promise<ReadonlySet<string>> {
+  if (auth.actor.role !== 'customer') return NONE;
+  return customerLockedJobIds(db, auth.shop, auth.actor.userId, jobId);
 }
 
 /** The lock as the job's customer meets it on a sent revision: what the job page shows to the customer and to the owner. */

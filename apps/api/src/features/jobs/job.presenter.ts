@@ -1,7 +1,7 @@
 import type { Job } from '@revloop/contract';
 import type { JobListRow, JobMessageListRow, JobRow } from '@revloop/db';
 import type { Actor, AppAbility } from '@revloop/domain/auth';
-import { JOB_STATE_LABELS, availableTransitions, nextStep, staleAfterHours, type JobFacts } from '@revloop/domain/jobs';
+import { JOB_STATE_LABELS, availableTransitions, nextStep, nextStepAction, staleAfterHours, type JobFacts } from '@revloop/domain/jobs';
 
 export const factsOf = (row: JobRow): JobFacts => ({
   shopId: row.shop_id,
@@ -29,13 +29,21 @@ export const jobSubject = (row: JobRow) => ({
 
 const audienceOf = (actor: Actor) => (actor.role === 'customer' ? 'customer' : actor.role === 'dealer' ? 'dealer' : 'shop');
 
-/** API shape of a job for this viewer: what it is, where it stands, and what they can do next. */
-export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: AppAbility }, now: Date): Job {
+const NO_LOCKS: ReadonlySet<string> = new Set();
+
+/**
+ * API shape of a job for this viewer: what it is, where it stands, and what they can do next. `lockedJobIds` names the
+ * customer's jobs whose sent revisions wait, locked until paid (billing's lockedJobIdsForCustomer): their next step
+ * says to pay first.
+ */
+export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: AppAbility }, now: Date, lockedJobIds: ReadonlySet<string> = NO_LOCKS): Job {
   const facts = factsOf(row);
+  const audience = audienceOf(viewer.actor);
+  const stepContext = { revisionsLocked: lockedJobIds.has(row.id) };
   const hoursInState = (now.getTime() - Date.parse(row.state_changed_at)) / 3_600_000;
   const staleAfter = staleAfterHours(row.state);
   // Drafts are the shop's alone: the customer side learns nothing of them, not even that one is uploaded.
-  const shopSide = audienceOf(viewer.actor) === 'shop';
+  const shopSide = audience === 'shop';
   return {
     id: row.id,
     number: row.number,
@@ -56,7 +64,8 @@ export function jobRowToJob(row: JobListRow, viewer: { actor: Actor; ability: Ap
     stateChangedAt: row.state_changed_at,
     hoursInState: Math.max(0, Math.round(hoursInState * 10) / 10),
     stale: staleAfter !== null && hoursInState > staleAfter,
-    nextStep: nextStep(facts, audienceOf(viewer.actor)),
+    nextStep: nextStep(facts, audience, stepContext),
+    nextStepAction: nextStepAction(facts, audience, stepContext),
     // The same machine moves filtered by the same ability the server checks a move against (domain job-moves.ts).
     transitions: availableTransitions(facts, viewer.ability),
     createdAt: row.created_at,

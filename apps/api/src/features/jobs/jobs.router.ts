@@ -1,5 +1,5 @@
 import { Router, type Response } from 'express';
-import { eachJobBatch, jobListVersion, listJobs, type JobListFilter } from '@revloop/db';
+import { eachJobBatch, jobListVersion, listJobs, type JobListFilter, type JobListRow, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import { asSubject, jobScopeFor } from '@revloop/domain/auth';
 import { csvLine } from '@revloop/domain/csv';
@@ -18,6 +18,7 @@ import { loadJob } from './job-lookup.service';
 import { jobMessages, postJobMessage } from './job-messages.service';
 import { timelineFor } from './job-timeline.service';
 import { assignJob, changeLogRequest, moveJob, takeJob } from './job-workflow.service';
+import { lockedJobIdsForCustomer } from '../billing/download-lock.service';
 
 function filterFrom(q: z.infer<typeof listQuerySchema>, auth: AuthContext): JobListFilter {
   return {
@@ -50,6 +51,9 @@ export function createJobsRouter(deps: AppDeps): Router {
   const router = Router();
   const { db, clock } = deps;
   const listCache = new JobListCache();
+  /** One job as this viewer gets it, its next step reading the customer's paid-before-download lock. */
+  const present = async (auth: AuthContext & { shop: ShopRow }, job: JobListRow) =>
+    jobRowToJob(job, auth, clock.now(), await lockedJobIdsForCustomer(db, auth, job.id));
 
   router.get('/', async (req, res) => {
     const auth = requireShop(req);
@@ -58,7 +62,10 @@ export function createJobsRouter(deps: AppDeps): Router {
     const now = clock.now();
     // Everything the answer depends on besides the data: the viewer (scope, role, transitions) and the parsed query.
     const { userId, role, dealerId, shopReadOnly, platformAdmin } = auth.actor;
-    const key = JSON.stringify([auth.shop.id, userId, role, dealerId, shopReadOnly, platformAdmin, q]);
+    // A customer's next steps also read which of their jobs wait to be paid; payments are no job-list write, so the
+    // locked jobs are part of the key (one small read of the customer's own jobs) and a payment misses the cache.
+    const locked = await lockedJobIdsForCustomer(db, auth);
+    const key = JSON.stringify([auth.shop.id, userId, role, dealerId, shopReadOnly, platformAdmin, q, [...locked]]);
     // Read before the rows: an answer may be newer than its version tag, never older.
     const version = await jobListVersion(db, auth.shop.id);
     const entry =
@@ -71,7 +78,7 @@ export function createJobsRouter(deps: AppDeps): Router {
           limit: q.pageSize,
         });
         const body = JSON.stringify({
-          data: rows.map((r) => jobRowToJob(r, auth, now)),
+          data: rows.map((r) => jobRowToJob(r, auth, now, locked)),
           meta: { total, page: q.page, pageSize: q.pageSize, pageCount: Math.max(1, Math.ceil(total / q.pageSize)) },
         });
         const until = rows.reduce((at, r) => Math.min(at, jobAnswerChangesAt(r, now)), Number.POSITIVE_INFINITY);
@@ -104,7 +111,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     authorize(auth, 'create', 'Job');
     const input = parseInput(jobIntakeSchema, req.body);
     const job = await openJob(deps, auth, input);
-    res.status(201).json({ data: jobRowToJob(job, auth, clock.now()) });
+    res.status(201).json({ data: await present(auth, job) });
   });
 
   router.get('/:id', async (req, res) => {
@@ -112,7 +119,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     const job = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'read', 'Job', jobSubject(job));
     const timeline = await timelineFor(db, auth, job);
-    res.json({ data: { ...jobRowToJob(job, auth, clock.now()), timeline } });
+    res.json({ data: { ...(await present(auth, job)), timeline } });
   });
 
   router.post('/:id/transitions', async (req, res) => {
@@ -122,7 +129,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     // Send revision e-mails a signed link to each draft it sends.
     const extraEmailLines = current.state === 'on_bench' && to === 'with_customer' ? await revisionLinkLines(deps, current) : undefined;
     const job = await moveJob(deps, auth, req.params.id, to, { kitOutOverride: kitOutOverride ?? false, note, extraEmailLines });
-    res.json({ data: jobRowToJob(job, auth, clock.now()) });
+    res.json({ data: await present(auth, job) });
   });
 
   router.post('/:id/assign', async (req, res) => {
@@ -131,7 +138,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     authorizeRow(auth, 'assign', 'Job', jobSubject(current));
     const { tunerId } = parseInput(assignSchema, req.body);
     const job = await assignJob(deps, auth, req.params.id, tunerId);
-    res.json({ data: jobRowToJob(job, auth, clock.now()) });
+    res.json({ data: await present(auth, job) });
   });
 
   router.post('/:id/take', async (req, res) => {
@@ -139,7 +146,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     const current = await loadJob(db, auth, req.params.id);
     authorizeRow(auth, 'take', 'Job', jobSubject(current));
     const job = await takeJob(deps, auth, req.params.id);
-    res.json({ data: jobRowToJob(job, auth, clock.now()) });
+    res.json({ data: await present(auth, job) });
   });
 
   router.put('/:id/log-request', async (req, res) => {
@@ -148,7 +155,7 @@ export function createJobsRouter(deps: AppDeps): Router {
     authorizeRow(auth, 'update', 'Job', jobSubject(current));
     const logRequest = parseInput(logRequestSchema, req.body);
     const job = await changeLogRequest(deps, auth, current, logRequest);
-    res.json({ data: jobRowToJob(job, auth, clock.now()) });
+    res.json({ data: await present(auth, job) });
   });
 
   router.get('/:id/messages', async (req, res) => {

@@ -7,6 +7,7 @@ import { formatDate } from '../../../lib/format';
 import { PROGRESS_STATES, progressIndex } from './job-format';
 import { JobStateBadge } from './job-state-badge';
 import { STATE_STYLES, StateIcon } from './job-state-style';
+import { NextStepLine } from './next-step-line';
 
 /** The normal path of a job as numbered steps, the current one named for screen readers too. */
 export function JobSteps({ job }: { job: Job }) {
@@ -52,10 +53,7 @@ export function JobProgressCard({ job, showCustomer = false }: { job: Job; showC
         <JobStateBadge state={job.state} />
       </header>
       <JobSteps job={job} />
-      <p className="rounded-lg bg-accent-50 px-3 py-2 text-sm text-accent-900">
-        <span className="font-medium">Next: </span>
-        {job.nextStep}
-      </p>
+      <NextStepLine job={job} heading="Next:" payLabel={`Pay for job ${job.number}`} />
     </article>
   );
 }

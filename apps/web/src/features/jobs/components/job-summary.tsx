@@ -8,6 +8,7 @@ import { JobActions } from './job-actions';
 import { formatTimeInState } from './job-format';
 import { JobSteps } from './job-progress';
 import { JobStateBadge, StaleBadge } from './job-state-badge';
+import { NextStepLine } from './next-step-line';
 
 /** The head of the job page: who and what, where it stands, the next step in plain words and the moves at hand. */
 export function JobSummary({ job, canSeeVehicle }: { job: Job; canSeeVehicle: boolean }) {
@@ -50,10 +51,7 @@ export function JobSummary({ job, canSeeVehicle }: { job: Job; canSeeVehicle: bo
           <dd className="text-ink-900">{job.round === 0 ? 'No revision sent yet' : `Revision ${job.round} sent`}</dd>
         </dl>
         <JobSteps job={job} />
-        <p className="rounded-lg bg-accent-50 px-3 py-2 text-sm text-accent-900">
-          <span className="font-medium">Next step: </span>
-          {job.nextStep}
-        </p>
+        <NextStepLine job={job} heading="Next step:" payLabel="Pay for this job" />
         <JobActions job={job} />
       </div>
     </Card>

@@ -36,28 +36,34 @@ export function KitOverviewView({ overview }: { overview: KitOverview }) {
         <RentalList title="Due this week" rentals={overview.dueThisWeek} empty="Nothing due in the next 7 days." />
         <RentalList title="Overdue" rentals={overview.overdue} empty="Nothing overdue." />
       </div>
-      <ScrollRegion label="Kits utilisation and revenue">
-        <table className="w-full min-w-[40rem] text-left text-sm">
-          <caption className="p-2 text-left text-sm text-ink-600">
-            Per kit from {formatDate(overview.from)} to {formatDate(overview.to)}: utilisation is days out ÷ days in service; revenue is rental fees, late fees and deposit captures ({overview.currency}).
-          </caption>
-          <KitTableHead columns={['Kit', 'Status', 'Days out', 'Days in service', 'Utilisation', 'Revenue']} />
-          <tbody className="divide-y divide-ink-100">
-            {overview.kits.map((k) => (
-              <tr key={k.kitId}>
-                <th scope="row" className="px-4 py-3 font-medium">
-                  <TextLink to={paths.kits.detail.getHref(k.kitId)}>{k.name}</TextLink>
-                </th>
-                <td className="px-4 py-3">{KIT_STATUS_LABELS[k.status]}</td>
-                <td className="px-4 py-3 tabular-nums">{k.daysOut}</td>
-                <td className="px-4 py-3 tabular-nums">{k.daysInService}</td>
-                <td className="px-4 py-3 tabular-nums">{k.utilisation === null ? '—' : `${(k.utilisation * 100).toFixed(0)} %`}</td>
-                <td className="px-4 py-3 tabular-nums">{formatMoney(k.revenueMinor, overview.currency)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </ScrollRegion>
+      {/* The explanation wraps to the page, not to the table's width: on a phone the table scrolls sideways, the words do not. */}
+      <div className="flex flex-col gap-2">
+        <p id="kit-overview-note" className="px-2 text-sm text-ink-600">
+          Per kit from {formatDate(overview.from)} to {formatDate(overview.to)}: utilisation is days out ÷ days in service; revenue is rental fees, late fees and deposit captures ({overview.currency}).
+        </p>
+        <ScrollRegion label="Kits utilisation and revenue">
+          <table className="w-full min-w-[40rem] text-left text-sm" aria-describedby="kit-overview-note">
+            <caption className="sr-only">
+              Utilisation and revenue per kit, {formatDate(overview.from)} to {formatDate(overview.to)}
+            </caption>
+            <KitTableHead columns={['Kit', 'Status', 'Days out', 'Days in service', 'Utilisation', 'Revenue']} />
+            <tbody className="divide-y divide-ink-100">
+              {overview.kits.map((k) => (
+                <tr key={k.kitId}>
+                  <th scope="row" className="px-4 py-3 font-medium">
+                    <TextLink to={paths.kits.detail.getHref(k.kitId)}>{k.name}</TextLink>
+                  </th>
+                  <td className="px-4 py-3">{KIT_STATUS_LABELS[k.status]}</td>
+                  <td className="px-4 py-3 tabular-nums">{k.daysOut}</td>
+                  <td className="px-4 py-3 tabular-nums">{k.daysInService}</td>
+                  <td className="px-4 py-3 tabular-nums">{k.utilisation === null ? '—' : `${(k.utilisation * 100).toFixed(0)} %`}</td>
+                  <td className="px-4 py-3 tabular-nums">{formatMoney(k.revenueMinor, overview.currency)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollRegion>
+      </div>
     </div>
   );
 }
