@@ -27,7 +27,8 @@ export interface QueueHandler {
 /**
  * A durable work queue: jobs are rows that outlive the process, claimed with a lease, retried with backoff, and run
  * once in effect (idempotent handlers; one unfinished job per key). `TableQueue` keeps them in the app's own
- * database (SQLite or PostgreSQL) and runs them in this process; see docs/decisions/014 for pg-boss on PostgreSQL.
+ * database and runs them in this process (SQLite); `PgBossQueue` (pg-boss-queue.ts) runs on PostgreSQL. `queueFor`
+ * picks one (docs/decisions/014).
  */
 export interface WorkQueue {
   register(queue: string, handler: QueueHandler): void;

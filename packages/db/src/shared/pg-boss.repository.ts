@@ -1,0 +1,64 @@
+import { CompiledQuery, sql } from 'kysely';
+import type { Db } from '../client';
+
+// The SQL the app's PostgreSQL queue (apps/api/src/queue/pg-boss-queue.ts) runs beside pg-boss's own: pg-boss 10 keeps
+// its jobs in the schema `pgboss` of the app's database (table `job`, partitioned by queue name). Read and written
+// only here and by pg-boss; no row-level security there (no shop_id), the handlers scope their own work.
+
+/** pg-boss's schema; it creates and migrates it itself when it starts. */
+export const PG_BOSS_SCHEMA = 'pgboss';
+
+/** What pg-boss runs its SQL through (its `db` option): here a Kysely database or transaction of ours. */
+export interface PgBossExecutor {
+  executeSql(text: string, values?: unknown[]): Promise<{ rows: any[] }>;
+}
+
+/**
+ * pg-boss's statements through `db`. Without values the text goes as one simple query, which pg-boss's own
+ * multi-statement commands (BEGIN; lock; …; COMMIT) need.
+ */
+export function pgBossExecutor(db: Db): PgBossExecutor {
+  return {
+    executeSql: async (text, values) => {
+      const result = await db.executeQuery(CompiledQuery.raw(text, values ?? []));
+      return { rows: result.rows as any[] };
+    },
+  };
+}
+
+/**
+ * Runs `work` in a transaction that holds a lock on (queue, key), so the check "is a job for this key still open?"
+ * and the insert that follows are one step for every instance enqueueing the same key.
+ */
+export function withQueueKeyLock<T>(db: Db, queue: string, key: string, work: (trx: Db) => Promise<T>): Promise<T> {
+  return db.transaction().execute(async (trx) => {
+    await sql`select pg_advisory_xact_lock(hashtextextended(${`revloop-queue:${queue}:${key}`}, 0))`.execute(trx);
+    return work(trx);
+  });
+}
+
+/** True when the queue has a job for `key` that is waiting, waiting to retry, or running. */
+export async function hasOpenPgBossJob(db: Db, queue: string, key: string): Promise<boolean> {
+  const { rows } = await sql<{ one: number }>`select 1 as one from ${sql.table(`${PG_BOSS_SCHEMA}.job`)}
+    where name = ${queue} and singleton_key = ${key} and state < 'completed' limit 1`.execute(db);
+  return rows.length > 0;
+}
+
+/** How many jobs of these queues whose data carries one of `keys` are still waiting, waiting to retry or running. */
+export async function countOpenPgBossJobs(db: Db, queues: string[], keys: string[]): Promise<number> {
+  if (keys.length === 0) return 0;
+  const { rows } = await sql<{ n: number }>`select count(*) as n from ${sql.table(`${PG_BOSS_SCHEMA}.job`)}
+    where name = any(${queues}::text[]) and state < 'completed' and data->>'key' = any(${keys}::text[])`.execute(db);
+  return Number(rows[0]?.n ?? 0);
+}
+
+/**
+ * The heartbeat of a running job: pg-boss's supervisor fails (and so retries) an active job whose started_on plus
+ * its expiry has passed, so a worker that renews started_on keeps its job and a worker that died stops renewing it.
+ * False when the job is no longer running here (it expired and was put back, or it ended).
+ */
+export async function renewPgBossJob(db: Db, queue: string, id: string): Promise<boolean> {
+  const result = await sql`update ${sql.table(`${PG_BOSS_SCHEMA}.job`)} set started_on = now()
+    where name = ${queue} and id = ${id}::uuid and state = 'active'`.execute(db);
+  return Number(result.numAffectedRows ?? 0) === 1;
+}
