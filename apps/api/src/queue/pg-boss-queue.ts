@@ -13,7 +13,10 @@ export interface PgBossQueueOptions {
   expireInSeconds?: number;
   /** How often one instance of the cluster runs pg-boss's supervisor (expired jobs back to the queue, archiving). */
   maintenanceIntervalSeconds?: number;
-  /** Delay before retry n is between base × 2^(n−1) and base × 2^n seconds (pg-boss's backoff, with jitter). */
+  /**
+   * Delay before retry n is between base × 2^(n−1) and base × 2^n seconds (pg-boss's backoff, with jitter; it takes
+   * whole seconds). 0 retries at once, without backoff (tests).
+   */
   retryDelaySeconds?: number;
   /** How long `stop` waits for running handlers; jobs still running then are left to expire and run elsewhere. */
   stopTimeoutMs?: number;
@@ -108,7 +111,7 @@ export class PgBossQueue implements WorkQueue {
         singletonKey: key,
         retryLimit: Math.max(0, (handler?.maxAttempts ?? 5) - 1),
         retryDelay: this.options.retryDelaySeconds,
-        retryBackoff: true,
+        retryBackoff: this.options.retryDelaySeconds > 0,
         expireInSeconds: this.options.expireInSeconds,
         db: pgBossExecutor(trx),
       });
