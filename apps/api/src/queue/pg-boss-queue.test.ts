@@ -1,6 +1,8 @@
 import { randomBytes } from 'node:crypto';
 import { pino } from 'pino';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { sql } from 'kysely';
+import { createDb } from '@revloop/db';
 import { copyTemplate, testDbUrl, testEngine } from '@revloop/db/testing';
 import { PgBossQueue, type PgBossQueueOptions } from './pg-boss-queue';
 import type { QueueJobContext } from './work-queue';
@@ -156,6 +158,29 @@ describe.skipIf(testEngine() !== 'postgres')('PgBossQueue (pg-boss on PostgreSQL
     b.start();
     await a.settled(name, ['slow'], 15_000);
     expect(runs).toEqual(['a']);
+  });
+
+  it('two instances starting together on a database without the pgboss schema create it once and both work', async () => {
+    // A database where the app's role may create schemas (as the deploy guide's owner may), without pgboss yet.
+    const name = new URL(url).pathname.slice(1);
+    const admin = createDb(process.env.REVLOOP_PG_TEST_ADMIN_URL!.replace(/\/postgres$/, `/${name}`), { poolSize: 1 });
+    try {
+      await sql`drop schema pgboss cascade`.execute(admin);
+      await sql`grant create on database ${sql.id(name)} to ${sql.id(new URL(url).username)}`.execute(admin);
+    } finally {
+      await admin.destroy();
+    }
+    const queue = queueName();
+    const ran: string[] = [];
+    const [a, b] = [newQueue(), newQueue()];
+    a.register(queue, { run: async (_p, job) => void ran.push(`a:${job.key}`) });
+    b.register(queue, { run: async (_p, job) => void ran.push(`b:${job.key}`) });
+    const added = await Promise.all([a.enqueue(queue, 'one', null), b.enqueue(queue, 'one', null), b.enqueue(queue, 'two', null)]);
+    expect(added.filter(Boolean)).toHaveLength(2);
+    a.start();
+    b.start();
+    await a.settled(queue, ['one', 'two'], 10_000);
+    expect(ran.map((r) => r.slice(2)).sort()).toEqual(['one', 'two']);
   });
 
   it('settled gives up with an error when a job stays open past its timeout', async () => {

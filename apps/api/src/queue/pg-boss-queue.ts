@@ -1,6 +1,6 @@
 import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
-import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, withQueueKeyLock, type Db } from '@revloop/db';
+import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, holdingQueueSetupLock, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, withQueueKeyLock, type Db } from '@revloop/db';
 import type { QueueHandler, QueueJobContext, WorkQueue } from './work-queue';
 
 export interface PgBossQueueOptions {
@@ -180,11 +180,13 @@ export class PgBossQueue implements WorkQueue {
       made = (async () => {
         await this.bossStarted();
         const exhausted = exhaustedQueueOf(queue);
-        // The dead-letter queue must exist first: a job's failure inserts into it.
-        await this.boss.createQueue(exhausted, { name: exhausted, policy: 'standard' });
-        await this.boss.createQueue(queue, { name: queue, policy: 'stately', deadLetter: exhausted });
-        // createQueue leaves an existing queue as it was; these settings must hold on one made by an older release too.
-        await this.boss.updateQueue(queue, { name: queue, policy: 'stately', deadLetter: exhausted });
+        await holdingQueueSetupLock(this.db, async () => {
+          // The dead-letter queue must exist first: a job's failure inserts into it.
+          await this.boss.createQueue(exhausted, { name: exhausted, policy: 'standard' });
+          await this.boss.createQueue(queue, { name: queue, policy: 'stately', deadLetter: exhausted });
+          // createQueue leaves an existing queue as it was; these settings must hold on one an older release made too.
+          await this.boss.updateQueue(queue, { name: queue, policy: 'stately', deadLetter: exhausted });
+        });
       })();
       // A failed attempt (database down at start) is tried again by the next caller.
       made.catch(() => this.queuesMade.delete(queue));

@@ -15,13 +15,23 @@ export interface PgBossExecutor {
 
 /**
  * pg-boss's statements through `db`. Without values the text goes as one simple query, which pg-boss's own
- * multi-statement commands (BEGIN; lock; …; COMMIT) need.
+ * multi-statement commands (BEGIN; lock; …; COMMIT) need. When one of those fails half-way (two instances creating
+ * the schema at once: the second's CREATE TYPE finds it there), the connection is left inside the aborted
+ * transaction, so it is rolled back before it goes back to the pool.
  */
 export function pgBossExecutor(db: Db): PgBossExecutor {
+  const query = CompiledQuery.raw;
   return {
     executeSql: async (text, values) => {
-      const result = await db.executeQuery(CompiledQuery.raw(text, values ?? []));
-      return { rows: result.rows as any[] };
+      if (db.isTransaction) return { rows: (await db.executeQuery(query(text, values ?? []))).rows as any[] };
+      return db.connection().execute(async (connection) => {
+        try {
+          return { rows: (await connection.executeQuery(query(text, values ?? []))).rows as any[] };
+        } catch (error) {
+          await connection.executeQuery(query('rollback')).catch(() => undefined);
+          throw error;
+        }
+      });
     },
   };
 }
@@ -34,6 +44,18 @@ export function withQueueKeyLock<T>(db: Db, queue: string, key: string, work: (t
   return db.transaction().execute(async (trx) => {
     await sql`select pg_advisory_xact_lock(hashtextextended(${`revloop-queue:${queue}:${key}`}, 0))`.execute(trx);
     return work(trx);
+  });
+}
+
+/**
+ * Runs `work` (pg-boss's createQueue and updateQueue, on other connections) while this transaction holds a lock that
+ * every instance takes for it: pg-boss 10 makes a table partition per queue, and two instances doing that at once can
+ * deadlock each other.
+ */
+export function holdingQueueSetupLock<T>(db: Db, work: () => Promise<T>): Promise<T> {
+  return db.transaction().execute(async (trx) => {
+    await sql`select pg_advisory_xact_lock(hashtextextended('revloop-queue:setup', 0))`.execute(trx);
+    return work();
   });
 }
 
