@@ -141,6 +141,30 @@ describe.skipIf(testEngine() !== 'postgres')('PgBossQueue (pg-boss on PostgreSQL
     expect(Date.now() - t0).toBeLessThan(12_000);
   });
 
+  it('calls onExhausted on another instance when the last attempt was cut off by a stopped instance', async () => {
+    const name = queueName();
+    let startedOnA: () => void = () => undefined;
+    const onA = new Promise<void>((resolve) => (startedOnA = resolve));
+    const a = newQueue({ stopTimeoutMs: 100 });
+    a.register(name, { maxAttempts: 1, run: () => (startedOnA(), new Promise<void>(() => undefined)) });
+    const exhaustedOnB: Array<{ job: QueueJobContext; message: string }> = [];
+    const b = newQueue();
+    b.register(name, {
+      maxAttempts: 1,
+      run: async () => {
+        throw new Error('B should not run it: it had one attempt');
+      },
+      onExhausted: async (_p, job, error) => void exhaustedOnB.push({ job, message: (error as Error).message }),
+    });
+    a.start();
+    await a.enqueue(name, 'cut', null);
+    await onA;
+    await a.stop();
+    b.start();
+    await b.settled(name, ['cut'], 15_000);
+    expect(exhaustedOnB).toEqual([{ job: { key: 'cut', attempt: 1, final: true }, message: expect.stringMatching(/timeout/) }]);
+  });
+
   it('keeps a job that runs longer than its expiry on its instance (the heartbeat renews the claim)', async () => {
     const name = queueName();
     // Claims of 2 s renewed every 0.67 s; the handler runs 3.5 s, through at least one supervisor round.
