@@ -10,7 +10,7 @@ export const PG_BOSS_SCHEMA = 'pgboss';
 
 /** What pg-boss runs its SQL through (its `db` option): here a Kysely database or transaction of ours. */
 export interface PgBossExecutor {
-  executeSql(text: string, values?: unknown[]): Promise<{ rows: any[] }>;
+  executeSql(text: string, values?: unknown[]): Promise<{ rows: unknown[] }>;
 }
 
 /**
@@ -23,10 +23,10 @@ export function pgBossExecutor(db: Db): PgBossExecutor {
   const query = CompiledQuery.raw;
   return {
     executeSql: async (text, values) => {
-      if (db.isTransaction) return { rows: (await db.executeQuery(query(text, values ?? []))).rows as any[] };
+      if (db.isTransaction) return { rows: (await db.executeQuery(query(text, values ?? []))).rows };
       return db.connection().execute(async (connection) => {
         try {
-          return { rows: (await connection.executeQuery(query(text, values ?? []))).rows as any[] };
+          return { rows: (await connection.executeQuery(query(text, values ?? []))).rows };
         } catch (error) {
           await connection.executeQuery(query('rollback')).catch(() => undefined);
           throw error;
