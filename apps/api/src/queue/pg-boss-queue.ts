@@ -69,6 +69,8 @@ export class PgBossQueue implements WorkQueue {
   private readonly inFlight = new Set<Promise<void>>();
   private readonly heartbeats = new Set<NodeJS.Timeout>();
   private readonly queuesMade = new Map<string, Promise<void>>();
+  /** Queue set-ups run one after another here, so they never hold more than two connections between them. */
+  private setups: Promise<unknown> = Promise.resolve();
   private started: Promise<void> | undefined;
   private timer: NodeJS.Timeout | undefined;
   private stopped = true;
@@ -81,7 +83,8 @@ export class PgBossQueue implements WorkQueue {
     private readonly logger: Logger,
     options: PgBossQueueOptions = {},
   ) {
-    this.options = { ...PG_BOSS_DEFAULTS, ...options };
+    // Two connections at least: a queue set-up holds one (its lock) while pg-boss uses another.
+    this.options = { ...PG_BOSS_DEFAULTS, ...options, poolSize: Math.max(2, options.poolSize ?? PG_BOSS_DEFAULTS.poolSize) };
     // Its own small pool, so queue polling never waits behind requests for a connection (and the reverse).
     this.db = createDb(connectionString, { poolSize: this.options.poolSize });
     this.boss = new PgBoss({
@@ -169,7 +172,14 @@ export class PgBossQueue implements WorkQueue {
 
   /** Starts pg-boss once (creating its schema when missing). */
   private bossStarted(): Promise<void> {
-    this.started ??= this.boss.start().then(() => undefined);
+    this.started ??= this.boss.start().then(
+      () => undefined,
+      (error: unknown) => {
+        // The next caller tries again (the database was down, say).
+        this.started = undefined;
+        throw error;
+      },
+    );
     return this.started;
   }
 
@@ -177,7 +187,7 @@ export class PgBossQueue implements WorkQueue {
   private queueMade(queue: string): Promise<void> {
     let made = this.queuesMade.get(queue);
     if (!made) {
-      made = (async () => {
+      made = this.setups.then(async () => {
         await this.bossStarted();
         const exhausted = exhaustedQueueOf(queue);
         await holdingQueueSetupLock(this.db, async () => {
@@ -187,7 +197,8 @@ export class PgBossQueue implements WorkQueue {
           // createQueue leaves an existing queue as it was; these settings must hold on one an older release made too.
           await this.boss.updateQueue(queue, { name: queue, policy: 'stately', deadLetter: exhausted });
         });
-      })();
+      });
+      this.setups = made.catch(() => undefined);
       // A failed attempt (database down at start) is tried again by the next caller.
       made.catch(() => this.queuesMade.delete(queue));
       this.queuesMade.set(queue, made);
