@@ -1,6 +1,6 @@
 import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
-import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, holdingQueueSetupLock, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, withQueueKeyLock, type Db } from '@revloop/db';
+import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, holdingQueueSetupLock, listPgBossQueues, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, withQueueKeyLock, type Db } from '@revloop/db';
 import type { QueueHandler, QueueJobContext, WorkQueue } from './work-queue';
 
 export interface PgBossQueueOptions {
@@ -78,15 +78,23 @@ export class PgBossQueue implements WorkQueue {
   private ticking: Promise<void> | undefined;
   private tickAgain = false;
 
+  /** False when the queue runs on a pool it was given (and leaves open). */
+  private readonly ownsDb: boolean;
+
+  /**
+   * `connection`: a PostgreSQL address, for a small pool of the queue's own, so queue polling never waits behind
+   * requests for a connection (and the reverse); or an open database whose pool it shares (test apps), which needs at
+   * least two connections.
+   */
   constructor(
-    connectionString: string,
+    connection: string | Db,
     private readonly logger: Logger,
     options: PgBossQueueOptions = {},
   ) {
     // Two connections at least: a queue set-up holds one (its lock) while pg-boss uses another.
     this.options = { ...PG_BOSS_DEFAULTS, ...options, poolSize: Math.max(2, options.poolSize ?? PG_BOSS_DEFAULTS.poolSize) };
-    // Its own small pool, so queue polling never waits behind requests for a connection (and the reverse).
-    this.db = createDb(connectionString, { poolSize: this.options.poolSize });
+    this.ownsDb = typeof connection === 'string';
+    this.db = typeof connection === 'string' ? createDb(connection, { poolSize: this.options.poolSize }) : connection;
     this.boss = new PgBoss({
       db: pgBossExecutor(this.db),
       schema: PG_BOSS_SCHEMA,
@@ -154,7 +162,7 @@ export class PgBossQueue implements WorkQueue {
     await this.started?.catch(() => undefined);
     // Not graceful in pg-boss's sense: it would fail its own workers' jobs, and it has none (this class claims them).
     await this.boss.stop({ graceful: false, close: false }).catch((err: unknown) => this.logger.error({ err }, 'pg-boss did not stop cleanly'));
-    await this.db.destroy();
+    if (this.ownsDb) await this.db.destroy();
   }
 
   async settled(queue: string, keys: string[], timeoutMs = 120_000): Promise<void> {
@@ -190,6 +198,9 @@ export class PgBossQueue implements WorkQueue {
       made = this.setups.then(async () => {
         await this.bossStarted();
         const exhausted = exhaustedQueueOf(queue);
+        const found = await listPgBossQueues(this.db, [queue, exhausted]);
+        const main = found.find((q) => q.name === queue);
+        if (found.length === 2 && main?.policy === 'stately' && main.dead_letter === exhausted) return;
         await holdingQueueSetupLock(this.db, async () => {
           // The dead-letter queue must exist first: a job's failure inserts into it.
           await this.boss.createQueue(exhausted, { name: exhausted, policy: 'standard' });

@@ -119,7 +119,8 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
   // The queue the server would pick (pg-boss on PostgreSQL), polling often and retrying at once so tests stay quick.
   const queue = queueFor(db, onPg ? { DATABASE_URL: testDbUrl(db) } : {}, logger, {
     table: { pollMs: 50, backoffBaseMs: 50 },
-    pgBoss: { pollMs: 100, retryDelaySeconds: 0, poolSize: 2 },
+    pgBoss: { pollMs: 100, retryDelaySeconds: 0 },
+    pgBossOnAppPool: true,
   });
   const deps: AppDeps = {
     db,

@@ -59,6 +59,13 @@ export function holdingQueueSetupLock<T>(db: Db, work: () => Promise<T>): Promis
   });
 }
 
+/** The queues of these names pg-boss has, with the settings PgBossQueue sets (a cheap check before making them). */
+export async function listPgBossQueues(db: Db, names: string[]): Promise<Array<{ name: string; policy: string | null; dead_letter: string | null }>> {
+  const { rows } = await sql<{ name: string; policy: string | null; dead_letter: string | null }>`select name, policy, dead_letter
+    from ${sql.table(`${PG_BOSS_SCHEMA}.queue`)} where name = any(${names}::text[])`.execute(db);
+  return rows;
+}
+
 /** True when the queue has a job for `key` that is waiting, waiting to retry, or running. */
 export async function hasOpenPgBossJob(db: Db, queue: string, key: string): Promise<boolean> {
   const { rows } = await sql<{ one: number }>`select 1 as one from ${sql.table(`${PG_BOSS_SCHEMA}.job`)}
