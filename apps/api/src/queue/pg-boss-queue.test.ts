@@ -66,6 +66,26 @@ describe.skipIf(testEngine() !== 'postgres')('PgBossQueue (pg-boss on PostgreSQL
     expect(runs.filter((k) => k === 'same')).toHaveLength(2);
   });
 
+  it("runs at most the handler's concurrency at once on an instance", async () => {
+    const queue = newQueue();
+    const name = queueName();
+    let now = 0;
+    let most = 0;
+    queue.register(name, {
+      concurrency: 2,
+      run: async () => {
+        most = Math.max(most, ++now);
+        await new Promise((r) => setTimeout(r, 300));
+        now -= 1;
+      },
+    });
+    const keys = ['c1', 'c2', 'c3', 'c4', 'c5'];
+    for (const key of keys) await queue.enqueue(name, key, null);
+    queue.start();
+    await queue.settled(name, keys, 10_000);
+    expect(most).toBe(2);
+  });
+
   it('retries a failed job after a backoff, then succeeds without calling onExhausted', async () => {
     const queue = newQueue();
     const name = queueName();
