@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
 import { randomBytes } from 'node:crypto';
 import { pino } from 'pino';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
@@ -84,6 +85,18 @@ describe.skipIf(testEngine() !== 'postgres')('PgBossQueue (pg-boss on PostgreSQL
     queue.start();
     await queue.settled(name, keys, 10_000);
     expect(most).toBe(2);
+  });
+
+  it('runs a job outside the async context of the request that enqueued it', async () => {
+    const requestScope = new AsyncLocalStorage<string>();
+    const queue = newQueue();
+    const name = queueName();
+    const seen: Array<string | undefined> = [];
+    queue.register(name, { run: async () => void seen.push(requestScope.getStore()) });
+    queue.start();
+    await requestScope.run('shop-a request', () => queue.enqueue(name, 'scoped', null));
+    await queue.settled(name, ['scoped'], 10_000);
+    expect(seen).toEqual([undefined]);
   });
 
   it('retries a failed job after a backoff, then succeeds without calling onExhausted', async () => {

@@ -1,3 +1,4 @@
+import { AsyncResource } from 'node:async_hooks';
 import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, holdingQueueSetupLock, listPgBossQueues, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, withQueueKeyLock, type Db } from '@revloop/db';
@@ -73,6 +74,11 @@ export class PgBossQueue implements WorkQueue {
   private setups: Promise<unknown> = Promise.resolve();
   private started: Promise<void> | undefined;
   private timer: NodeJS.Timeout | undefined;
+  /**
+   * Claim rounds run in the async context the queue was made in (server start-up), not in that of the request whose
+   * enqueue woke them: a job must not inherit a request's shop scope (packages/db's per-context scope).
+   */
+  private readonly runTick = AsyncResource.bind(() => void this.tick());
   private stopped = true;
   private closed = false;
   private ticking: Promise<void> | undefined;
@@ -223,7 +229,7 @@ export class PgBossQueue implements WorkQueue {
 
   private schedule(ms: number): void {
     clearTimeout(this.timer);
-    this.timer = setTimeout(() => void this.tick(), ms);
+    this.timer = setTimeout(this.runTick, ms);
     this.timer.unref();
   }
 

@@ -1,3 +1,4 @@
+import { AsyncResource } from 'node:async_hooks';
 import { randomUUID } from 'node:crypto';
 import type { Logger } from 'pino';
 import { claimQueueJob, enqueueQueueJob, extendQueueLease, finishQueueJob, listQueueJobs, type Db, type QueueJobRow } from '@revloop/db';
@@ -55,6 +56,11 @@ export class TableQueue implements WorkQueue {
   private readonly running = new Map<string, number>();
   private readonly inFlight = new Set<Promise<void>>();
   private timer: NodeJS.Timeout | undefined;
+  /**
+   * Claim rounds run in the async context the queue was made in (server start-up), not in that of the request whose
+   * enqueue woke them: a job must not inherit a request's shop scope (packages/db's per-context scope).
+   */
+  private readonly runTick = AsyncResource.bind(() => void this.tick());
   private stopped = true;
   private readonly leaseMs: number;
   private readonly pollMs: number;
@@ -112,7 +118,7 @@ export class TableQueue implements WorkQueue {
 
   private schedule(ms: number): void {
     clearTimeout(this.timer);
-    this.timer = setTimeout(() => void this.tick(), ms);
+    this.timer = setTimeout(this.runTick, ms);
     this.timer.unref();
   }
 
