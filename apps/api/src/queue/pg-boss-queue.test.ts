@@ -198,6 +198,43 @@ describe.skipIf(testEngine() !== 'postgres')('PgBossQueue (pg-boss on PostgreSQL
     expect(exhaustedOnB).toEqual([{ job: { key: 'cut', attempt: 1, final: true }, message: expect.stringMatching(/timeout/) }]);
   });
 
+  it('a run whose claim lapsed does not end the job that another instance now runs', async () => {
+    const name = queueName();
+    const raw = createDb(url, { poolSize: 1 });
+    const stateOf = async () => (await sql<{ state: string }>`select state::text as state from pgboss.job where name = ${name}`.execute(raw)).rows.map((r) => r.state);
+    let releaseA: () => void = () => undefined;
+    let releaseB: () => void = () => undefined;
+    let startedOnA: () => void = () => undefined;
+    let startedOnB: () => void = () => undefined;
+    const onA = new Promise<void>((resolve) => (startedOnA = resolve));
+    const onB = new Promise<void>((resolve) => (startedOnB = resolve));
+    const attemptsOnB: number[] = [];
+    const a = newQueue();
+    a.register(name, { run: () => (startedOnA(), new Promise<void>((resolve) => (releaseA = resolve))) });
+    const b = newQueue();
+    b.register(name, { run: (_p, job) => (attemptsOnB.push(job.attempt), startedOnB(), new Promise<void>((resolve) => (releaseB = resolve))) });
+    try {
+      a.start();
+      await a.enqueue(name, 'lapsed', null);
+      await onA;
+      // A's claim lapses as if its heartbeat had stalled past the expiry; the supervisor puts the job back and B takes it.
+      await sql`update pgboss.job set started_on = now() - interval '1 minute' where name = ${name}`.execute(raw);
+      b.start();
+      await onB;
+      releaseA();
+      await new Promise((r) => setTimeout(r, 500));
+      expect(await stateOf()).toEqual(['active']);
+      releaseB();
+      await b.settled(name, ['lapsed'], 10_000);
+      expect(await stateOf()).toEqual(['completed']);
+      expect(attemptsOnB).toEqual([2]);
+    } finally {
+      releaseA();
+      releaseB();
+      await raw.destroy();
+    }
+  });
+
   it('keeps a job that runs longer than its expiry on its instance (the heartbeat renews the claim)', async () => {
     const name = queueName();
     // Claims of 2 s renewed every 0.67 s; the handler runs 3.5 s, through at least one supervisor round.

@@ -1,7 +1,7 @@
 import { AsyncResource } from 'node:async_hooks';
 import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
-import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, holdingQueueSetupLock, listPgBossQueues, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, withQueueKeyLock, type Db } from '@revloop/db';
+import { countOpenPgBossJobs, createDb, hasOpenPgBossJob, holdingQueueSetupLock, listPgBossQueues, pgBossExecutor, PG_BOSS_SCHEMA, renewPgBossJob, whilePgBossJobIsOurs, withQueueKeyLock, type Db, type PgBossExecutor } from '@revloop/db';
 import type { QueueHandler, QueueJobContext, WorkQueue } from './work-queue';
 
 export interface PgBossQueueOptions {
@@ -45,6 +45,13 @@ interface JobData {
 interface JobOutput {
   message?: string;
   value?: { message?: string };
+}
+
+type Job = PgBoss.JobWithMetadata<JobData>;
+
+/** One run of a claimed job: `end` stops its heartbeat and records its outcome, if the job is still this run's. */
+interface Run {
+  end(outcome: (connection: { db: PgBossExecutor }) => Promise<unknown>): Promise<void>;
 }
 
 /** Where pg-boss moves a job that failed for good (its dead-letter queue); `onExhausted` runs from there. */
@@ -252,8 +259,8 @@ export class PgBossQueue implements WorkQueue {
         this.tickAgain = false;
         for (const [queue, handler] of this.handlers) {
           await this.queueMade(queue);
-          await this.claim(queue, handler.concurrency ?? 1, (job) => this.execute(queue, handler, job));
-          await this.claim(exhaustedQueueOf(queue), 1, (job) => this.exhaust(queue, handler, job));
+          await this.claim(queue, handler.concurrency ?? 1, (job, run) => this.execute(queue, handler, job, run));
+          await this.claim(exhaustedQueueOf(queue), 1, (job, run) => this.exhaust(queue, handler, job, run));
         }
       } while (this.tickAgain && !this.stopped);
     } catch (error) {
@@ -261,27 +268,46 @@ export class PgBossQueue implements WorkQueue {
     }
   }
 
-  private async claim(name: string, limit: number, run: (job: PgBoss.JobWithMetadata<JobData>) => Promise<void>): Promise<void> {
+  private async claim(name: string, limit: number, run: (job: Job, run: Run) => Promise<void>): Promise<void> {
     const free = limit - (this.running.get(name) ?? 0);
     if (free <= 0 || this.stopped) return;
     const jobs = await this.boss.fetch<JobData>(name, { batchSize: free, includeMetadata: true });
     for (const job of jobs) this.launch(name, job, run);
   }
 
-  private launch(name: string, job: PgBoss.JobWithMetadata<JobData>, run: (job: PgBoss.JobWithMetadata<JobData>) => Promise<void>): void {
+  private launch(name: string, job: Job, run: (job: Job, run: Run) => Promise<void>): void {
     this.running.set(name, (this.running.get(name) ?? 0) + 1);
+    let startedOn = job.startedOn;
+    let beat: Promise<unknown> = Promise.resolve();
     // Renews the claim while the handler runs; a worker that dies stops renewing and pg-boss puts the job back.
     const heartbeat = setInterval(
-      () => void renewPgBossJob(this.db, name, job.id).catch(() => undefined),
+      () => {
+        beat = beat.then(async () => {
+          const renewed = await renewPgBossJob(this.db, name, job.id, startedOn).catch(() => startedOn);
+          if (renewed) startedOn = renewed;
+          else clearInterval(heartbeat);
+        });
+      },
       Math.max(250, Math.floor((this.options.expireInSeconds * 1000) / 3)),
     );
     heartbeat.unref();
     this.heartbeats.add(heartbeat);
-    const done = run(job)
+    const stopBeating = async () => {
+      clearInterval(heartbeat);
+      this.heartbeats.delete(heartbeat);
+      await beat;
+    };
+    const handle: Run = {
+      end: async (outcome) => {
+        await stopBeating();
+        const ours = await whilePgBossJobIsOurs(this.db, name, job.id, startedOn, (trx) => outcome({ db: pgBossExecutor(trx) }));
+        if (!ours) this.logger.warn({ queue: name, key: job.data.key }, 'queue job was taken over while it ran here (its claim lapsed); this run leaves it to the other');
+      },
+    };
+    const done = run(job, handle)
       .catch((err: unknown) => this.logger.error({ err, queue: name, key: job.data.key }, 'queue job could not be recorded'))
-      .finally(() => {
-        clearInterval(heartbeat);
-        this.heartbeats.delete(heartbeat);
+      .finally(async () => {
+        await stopBeating();
         this.running.set(name, (this.running.get(name) ?? 1) - 1);
         this.inFlight.delete(done);
         this.poke();
@@ -289,7 +315,7 @@ export class PgBossQueue implements WorkQueue {
     this.inFlight.add(done);
   }
 
-  private async execute(queue: string, handler: QueueHandler, job: PgBoss.JobWithMetadata<JobData>): Promise<void> {
+  private async execute(queue: string, handler: QueueHandler, job: Job, run: Run): Promise<void> {
     const context: QueueJobContext = { key: job.data.key, attempt: job.retryCount + 1, final: job.retryCount >= job.retryLimit };
     try {
       await handler.run(job.data.payload, context);
@@ -298,25 +324,26 @@ export class PgBossQueue implements WorkQueue {
       if (context.final) this.logger.error({ err: error, queue, key: context.key }, 'queue job failed for good');
       else this.logger.warn({ err: error, queue, key: context.key, attempt: context.attempt }, 'queue job failed; it will be retried');
       // pg-boss decides: back to the queue after the backoff, or (last attempt) failed and copied to the exhausted queue.
-      await this.boss.fail(queue, job.id, { message });
+      await run.end((connection) => this.boss.fail(queue, job.id, { message }, connection));
       return;
     }
-    await this.boss.complete(queue, job.id);
+    await run.end((connection) => this.boss.complete(queue, job.id, {}, connection));
   }
 
   /** A job that failed for good (an error on its last attempt, or it expired on it): records that once. */
-  private async exhaust(queue: string, handler: QueueHandler, job: PgBoss.JobWithMetadata<JobData>): Promise<void> {
+  private async exhaust(queue: string, handler: QueueHandler, job: Job, run: Run): Promise<void> {
     const output = (job.output ?? {}) as JobOutput;
     const error = new Error(output.message ?? output.value?.message ?? 'the job failed');
     const context: QueueJobContext = { key: job.data.key, attempt: job.retryLimit + 1, final: true };
     if (output.value?.message) this.logger.error({ err: error, queue, key: context.key }, 'queue job failed for good');
+    const exhausted = exhaustedQueueOf(queue);
     try {
       await handler.onExhausted?.(job.data.payload, context, error);
     } catch (err) {
       this.logger.error({ err, queue, key: context.key }, 'queue failure could not be recorded');
-      await this.boss.fail(exhaustedQueueOf(queue), job.id, { message: err instanceof Error ? err.message : String(err) });
+      await run.end((connection) => this.boss.fail(exhausted, job.id, { message: err instanceof Error ? err.message : String(err) }, connection));
       return;
     }
-    await this.boss.complete(exhaustedQueueOf(queue), job.id);
+    await run.end((connection) => this.boss.complete(exhausted, job.id, {}, connection));
   }
 }

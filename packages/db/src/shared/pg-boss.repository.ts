@@ -81,13 +81,34 @@ export async function countOpenPgBossJobs(db: Db, queues: string[], keys: string
   return Number(rows[0]?.n ?? 0);
 }
 
+// A run is told apart from a later run of the same job (after its claim expired) by the started_on it last wrote;
+// timestamps come back to JavaScript in whole milliseconds, hence the tolerance.
+const sameRun = (startedOn: Date) => sql<boolean>`abs(extract(epoch from (started_on - ${startedOn}::timestamptz))) < 0.002`;
+
 /**
  * The heartbeat of a running job: pg-boss's supervisor fails (and so retries) an active job whose started_on plus
  * its expiry has passed, so a worker that renews started_on keeps its job and a worker that died stops renewing it.
- * False when the job is no longer running here (it expired and was put back, or it ended).
+ * Renews only this run's claim (`startedOn`: what the fetch or the last renewal gave) and returns the new one;
+ * undefined when the job is no longer this run's (it expired and was put back or taken by another run, or it ended).
  */
-export async function renewPgBossJob(db: Db, queue: string, id: string): Promise<boolean> {
-  const result = await sql`update ${sql.table(`${PG_BOSS_SCHEMA}.job`)} set started_on = now()
-    where name = ${queue} and id = ${id}::uuid and state = 'active'`.execute(db);
-  return Number(result.numAffectedRows ?? 0) === 1;
+export async function renewPgBossJob(db: Db, queue: string, id: string, startedOn: Date): Promise<Date | undefined> {
+  const { rows } = await sql<{ started_on: Date }>`update ${sql.table(`${PG_BOSS_SCHEMA}.job`)} set started_on = now()
+    where name = ${queue} and id = ${id}::uuid and state = 'active' and ${sameRun(startedOn)}
+    returning started_on`.execute(db);
+  return rows[0]?.started_on;
+}
+
+/**
+ * Runs `work` (pg-boss's complete or fail, through the transaction) only while the job is still active in this run
+ * (`startedOn` as for renewPgBossJob), holding its row, so a run whose claim expired cannot end a later run's job.
+ * False, without running `work`, when the job is no longer this run's.
+ */
+export function whilePgBossJobIsOurs(db: Db, queue: string, id: string, startedOn: Date, work: (trx: Db) => Promise<unknown>): Promise<boolean> {
+  return db.transaction().execute(async (trx) => {
+    const { rows } = await sql<{ one: number }>`select 1 as one from ${sql.table(`${PG_BOSS_SCHEMA}.job`)}
+      where name = ${queue} and id = ${id}::uuid and state = 'active' and ${sameRun(startedOn)} for update`.execute(trx);
+    if (rows.length === 0) return false;
+    await work(trx);
+    return true;
+  });
 }
