@@ -13,7 +13,8 @@ import { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
-import { createDb, migrateToLatest } from '../packages/db/src/index';
+import PgBoss from 'pg-boss';
+import { createDb, migrateToLatest, pgBossExecutor, PG_BOSS_SCHEMA } from '../packages/db/src/index';
 
 export const APP_ROLE = 'revloop_test_app';
 const APP_PASSWORD = 'revloop_test_app';
@@ -128,6 +129,11 @@ async function startAndMigrate(): Promise<() => Promise<void>> {
   const db = createDb(cluster.appUrl(template), { poolSize: 1 });
   try {
     await migrateToLatest(db);
+    // pg-boss's schema, as a server on PostgreSQL creates it at its first start (PgBossQueue). It is made here because
+    // the copies belong to the admin role, where the app's role may not create a schema; in the template it may.
+    const boss = new PgBoss({ db: pgBossExecutor(db), schema: PG_BOSS_SCHEMA, migrate: true, supervise: false, schedule: false });
+    await boss.start();
+    await boss.stop({ graceful: false, close: false });
   } finally {
     await db.destroy();
   }

@@ -12,7 +12,7 @@ import { createSmtpMailer } from './features/mail/mailer';
 import { MAIL_QUEUE } from './features/mail/mail-outbox.service';
 import { recoverAtStartup } from './features/recovery/recover.service';
 import { systemClock } from './http/clock';
-import { TableQueue } from './queue/work-queue';
+import { queueFor } from './queue/queue-for';
 import { runRentalSweep } from './features/rentals/rental-notices';
 import { blobStoreOf } from './storage/blob-store-of';
 import { loadSharedSecrets } from './storage/shared-secrets';
@@ -42,7 +42,8 @@ const stripeFake = env.LOCAL_STRIPE
     })
   : undefined;
 
-const queue = new TableQueue(db, logger);
+// pg-boss on PostgreSQL, the table queue on SQLite; every instance works the queue.
+const queue = queueFor(db, env, logger);
 const deps: AppDeps = {
   db,
   queue,

@@ -52,3 +52,4 @@ export { backfillJobStints } from './migrations/2026-12-03-015-report-tables';
 export * from './shared/shared-state.table';
 export * from './shared/shared-state.repository';
 export * from './shared/queue.repository';
+export * from './shared/pg-boss.repository';

@@ -1,3 +1,4 @@
+import { AsyncResource } from 'node:async_hooks';
 import { randomUUID } from 'node:crypto';
 import type { Logger } from 'pino';
 import { claimQueueJob, enqueueQueueJob, extendQueueLease, finishQueueJob, listQueueJobs, type Db, type QueueJobRow } from '@revloop/db';
@@ -27,7 +28,8 @@ export interface QueueHandler {
 /**
  * A durable work queue: jobs are rows that outlive the process, claimed with a lease, retried with backoff, and run
  * once in effect (idempotent handlers; one unfinished job per key). `TableQueue` keeps them in the app's own
- * database (SQLite or PostgreSQL) and runs them in this process; see docs/decisions/014 for pg-boss on PostgreSQL.
+ * database and runs them in this process (SQLite); `PgBossQueue` (pg-boss-queue.ts) runs on PostgreSQL. `queueFor`
+ * picks one (docs/decisions/014).
  */
 export interface WorkQueue {
   register(queue: string, handler: QueueHandler): void;
@@ -54,6 +56,11 @@ export class TableQueue implements WorkQueue {
   private readonly running = new Map<string, number>();
   private readonly inFlight = new Set<Promise<void>>();
   private timer: NodeJS.Timeout | undefined;
+  /**
+   * Claim rounds run in the async context the queue was made in (server start-up), not in that of the request whose
+   * enqueue woke them: a job must not inherit a request's shop scope (packages/db's per-context scope).
+   */
+  private readonly runTick = AsyncResource.bind(() => void this.tick());
   private stopped = true;
   private readonly leaseMs: number;
   private readonly pollMs: number;
@@ -111,7 +118,7 @@ export class TableQueue implements WorkQueue {
 
   private schedule(ms: number): void {
     clearTimeout(this.timer);
-    this.timer = setTimeout(() => void this.tick(), ms);
+    this.timer = setTimeout(this.runTick, ms);
     this.timer.unref();
   }
 

@@ -6,7 +6,7 @@ import path from 'node:path';
 import { pino } from 'pino';
 import request from 'supertest';
 import { createDb, migrateToLatest, snapshotDb, type Db } from '@revloop/db';
-import { copyTemplate, testEngine } from '@revloop/db/testing';
+import { copyTemplate, testDbUrl, testEngine } from '@revloop/db/testing';
 import { createApp } from '../app';
 import type { AppDeps } from '../context';
 import { loadEnv, type Env } from '../env';
@@ -15,7 +15,7 @@ import { startStripeFake, type StripeFakeControl } from '@revloop/stand-ins/stri
 import { SignInThrottle } from '../features/auth/sign-in-throttle';
 import { createSmtpMailer } from '../features/mail/mailer';
 import type { Clock } from '../http/clock';
-import { TableQueue } from '../queue/work-queue';
+import { queueFor } from '../queue/queue-for';
 import { DiskBlobStore } from '../storage/blob-store';
 
 export const TEST_ORIGIN = 'http://localhost:8080';
@@ -116,7 +116,12 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
   });
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: env.MAIL_FROM });
   const logger = pino({ level: 'silent' });
-  const queue = new TableQueue(db, logger, { pollMs: 50, backoffBaseMs: 50 });
+  // The queue the server would pick (pg-boss on PostgreSQL), polling often and retrying at once so tests stay quick.
+  const queue = queueFor(db, onPg ? { DATABASE_URL: testDbUrl(db) } : {}, logger, {
+    table: { pollMs: 50, backoffBaseMs: 50 },
+    pgBoss: { pollMs: 100, retryDelaySeconds: 0 },
+    pgBossOnAppPool: true,
+  });
   const deps: AppDeps = {
     db,
     env,

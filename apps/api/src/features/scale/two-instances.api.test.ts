@@ -164,12 +164,16 @@ it('two instances on one database and one object store behave as one', { timeout
     return row && row.status !== 'processing' ? row : undefined;
   });
   expect(seen.status).toBe('ready');
-  // The row turns ready just before its queue job is marked done.
+  // The row turns ready just before its queue job is marked done: one job, one attempt. On PostgreSQL the queue is
+  // pg-boss (schema pgboss), on SQLite the table queue.
   const jobs = await waitFor('the analysis job to end', async () => {
-    const rows = await readDb(sql<{ state: string; attempts: number }>`select state, attempts from queue_jobs where queue = 'datalog-analysis' and key = ${uploaded!.id}`);
-    return rows.every((r) => r.state !== 'running' && r.state !== 'queued') ? rows : undefined;
+    const rows =
+      testEngine() === 'postgres'
+        ? await readDb(sql<{ state: string; attempts: number }>`select state::text as state, retry_count + 1 as attempts from pgboss.job where name = 'datalog-analysis' and singleton_key = ${uploaded!.id}`)
+        : await readDb(sql<{ state: string; attempts: number }>`select state, attempts from queue_jobs where queue = 'datalog-analysis' and key = ${uploaded!.id}`);
+    return rows.every((r) => ['done', 'completed', 'failed'].includes(r.state)) ? rows : undefined;
   });
-  expect(jobs).toEqual([{ state: 'done', attempts: 1 }]);
+  expect(jobs).toEqual([{ state: testEngine() === 'postgres' ? 'completed' : 'done', attempts: 1 }]);
   const analysed = await readDb(sql<{ n: number }>`select count(*) as n from audit_events where action = 'datalog.analysed' and details like ${`%${uploaded!.id}%`}`);
   expect(analysed[0]!.n).toBe(1);
 
