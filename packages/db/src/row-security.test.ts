@@ -2,6 +2,7 @@ import { sql } from 'kysely';
 import { afterEach, describe, expect, it } from 'vitest';
 import { createDb, type Db } from './client';
 import { insertDealer } from './dealers/dealer.repository';
+import { isUniqueViolation } from './errors';
 import { newId, nowIso } from './ids';
 import { currentShopScope, inShopScope, outsideShopScope, shopScope } from './row-security';
 import { testDbUrl, testEngine } from './testing/postgres';
@@ -111,6 +112,15 @@ describe.skipIf(testEngine() !== 'postgres')('row-level security on PostgreSQL',
       expect(seen).toHaveLength(12 * 8);
       for (const { wanted, got } of seen) expect(got).toEqual(wanted ? [wanted] : [shopA, shopB].sort());
     }
+  });
+
+  it('a unique clash with another shop’s row is still recognised, though PostgreSQL hides the clashing value', async () => {
+    const { db, shopA, shopB } = await twoShops();
+    await db.updateTable('shops').set({ slug: 'taken' }).where('id', '=', shopB).execute();
+    const error = await inShopScope(db, shopA, () => db.updateTable('shops').set({ slug: 'taken' }).where('id', '=', shopA).execute()).catch((e: unknown) => e);
+    expect(String((error as { detail?: string }).detail ?? '')).not.toContain('taken');
+    expect(isUniqueViolation(error, 'slug')).toBe(true);
+    expect(isUniqueViolation(error, 'name')).toBe(false);
   });
 
   it('every table with a shop_id has a forced policy, and the app’s role cannot bypass it', async () => {
