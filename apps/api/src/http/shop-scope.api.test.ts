@@ -1,12 +1,12 @@
 import express from 'express';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { shopScope } from '@revloop/db';
+import { insertMembership, newId, shopScope } from '@revloop/db';
 import { testEngine } from '@revloop/db/testing';
 import { sessionPolicyOf, secureCookiesOf } from '../features/auth/start-session';
 import { DiskBlobStore } from '../storage/blob-store';
 import { singleFileUpload } from '../storage/upload';
-import { createJob, createPlatformAdmin, createShop, type TestShop } from '../testing/factories';
+import { createJob, createMember, createPlatformAdmin, createShop, type TestShop } from '../testing/factories';
 import {
   createTestApp,
   sessionCookieOf,
@@ -95,6 +95,15 @@ describe.skipIf(testEngine() !== 'postgres')('row-level security per request on 
       }),
     );
     for (const { shop, body } of answers) expect(body.shops).toEqual([shop]);
+  });
+
+  it('a session read in the shop it had before, but now in another, is read again and runs in its new shop', async () => {
+    const person = await createMember(t, shopA, 'tuner');
+    await insertMembership(t.db, { id: newId(), shop_id: shopB.id, user_id: person.id, role: 'tuner', created_at: t.clock.now().toISOString() });
+    const cookie = await cookieOf(person.email);
+    expect((await request(probe).get('/unfiltered').set('Cookie', cookie)).body.scope).toBe(shopA.id);
+    await t.db.updateTable('sessions').set({ shop_id: shopB.id }).where('user_id', '=', person.id).execute();
+    expect((await request(probe).get('/unfiltered').set('Cookie', cookie)).body).toEqual({ scope: shopB.id, shops: [shopB.id] });
   });
 
   it('a request without a shop (signed out, platform admin) runs unscoped', async () => {
