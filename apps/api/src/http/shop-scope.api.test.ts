@@ -4,7 +4,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { insertMembership, newId, shopScope } from '@revloop/db';
 import { testEngine } from '@revloop/db/testing';
 import { sessionPolicyOf, secureCookiesOf } from '../features/auth/start-session';
-import { DiskBlobStore } from '../storage/blob-store';
 import { singleFileUpload } from '../storage/upload';
 import { createJob, createMember, createPlatformAdmin, createShop, type TestShop } from '../testing/factories';
 import {
@@ -34,7 +33,9 @@ beforeAll(async () => {
     }),
     shopScopeMiddleware(t.db),
   );
-  const unfilteredJobs = async (_req: express.Request, res: express.Response) => {
+  const unfilteredJobs = async (req: express.Request, res: express.Response) => {
+    // The upload's temporary file goes at once: the data folder is shared with the worker's other test files.
+    await t.blobs.discard(req.file?.path);
     const rows = await t.db.selectFrom('jobs').select('shop_id').distinct().execute();
     res.json({ scope: shopScope(), shops: rows.map((r) => r.shop_id).sort() });
   };
@@ -42,7 +43,7 @@ beforeAll(async () => {
   // After multer has streamed a body of several chunks (its callback comes from stream events), the scope still holds.
   probe.post(
     '/unfiltered-after-upload',
-    singleFileUpload(new DiskBlobStore(t.env.DATA_DIR), 'file', () => 2 << 20),
+    singleFileUpload(t.blobs, 'file', () => 2 << 20),
     unfilteredJobs,
   );
   probe.use(errorHandler);
