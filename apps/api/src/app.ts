@@ -37,6 +37,7 @@ import { createVehiclesRouter } from './features/vehicles/vehicles.router';
 import { sessionMiddleware } from './http/auth-context';
 import { errorHandler } from './http/error-handler';
 import { sameOrigin } from './http/same-origin';
+import { shopScopeMiddleware, unscopedRoutes } from './http/shop-scope';
 
 /** Builds the app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {
@@ -85,6 +86,11 @@ export function createApp(deps: AppDeps): Express {
       secureCookies: secureCookiesOf(deps.env),
     }),
   );
+  // From here on a shop member's request runs in its shop's scope: PostgreSQL row-level security guards every query.
+  api.use(shopScopeMiddleware(deps.db));
+  // No one shop's work, so unscoped even for a signed-in member: signing in or up (into any shop), another shop's
+  // public page (by its slug), the platform admin's pages over every shop.
+  api.use(['/auth', '/public', '/admin'], unscopedRoutes(deps.db));
   api.use((req, res, next) => {
     // Signed-in answers are one person's data: no shared cache or back-button copy may keep them.
     if (req.auth) res.set('Cache-Control', 'no-store');

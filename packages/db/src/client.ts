@@ -1,7 +1,8 @@
 import BetterSqlite3 from 'better-sqlite3';
-import { Kysely, PostgresAdapter, PostgresDialect, SqliteDialect, sql } from 'kysely';
+import { Kysely, PostgresAdapter, PostgresDialect, SqliteDialect, sql, type PostgresPool } from 'kysely';
 import pg from 'pg';
 import type { Database } from './database';
+import { shopScope } from './shop-scope-store';
 
 export type Db = Kysely<Database>;
 
@@ -43,6 +44,35 @@ const pgTypes = {
   }) as typeof pg.types.getTypeParser,
 };
 
+/**
+ * The pool as Kysely sees it: every connection handed out (for one query, or once for a whole transaction) carries the
+ * shop scope of the async context that asked for it (inShopScope in row-security.ts) in the session setting
+ * `app.shop_id`, which the row-level security policies read; '' when unscoped. Each connection remembers the value it
+ * was last given, so a request whose connections already carry its shop pays no extra round trip. (A wrapper rather than
+ * Kysely's onReserveConnection hook: a failed set_config must release the connection, or the pool would lose it.)
+ */
+function shopScopedPool(pool: pg.Pool): PostgresPool {
+  const given = new WeakMap<pg.PoolClient, string>();
+  return {
+    async connect() {
+      const client = await pool.connect();
+      // Read after the await: the caller's async context is back, so this is the caller's scope.
+      const wanted = shopScope() ?? '';
+      if ((given.get(client) ?? '') !== wanted) {
+        try {
+          await client.query("select set_config('app.shop_id', $1, false)", [wanted]);
+        } catch (error) {
+          client.release(error instanceof Error ? error : true);
+          throw error;
+        }
+        given.set(client, wanted);
+      }
+      return client;
+    },
+    end: () => pool.end(),
+  };
+}
+
 export interface CreateDbOptions {
   /** PostgreSQL only: most connections the pool opens (default 10). */
   poolSize?: number;
@@ -58,7 +88,7 @@ export function createDb(source: string | Buffer, options: CreateDbOptions = {})
     const pool = new pg.Pool({ connectionString: source, max: options.poolSize ?? 10, types: pgTypes });
     // An idle client that loses its server (restart, failover) emits here; the pool drops it and opens another.
     pool.on('error', () => {});
-    return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+    return new Kysely<Database>({ dialect: new PostgresDialect({ pool: shopScopedPool(pool) }) });
   }
   const sqlite = new BetterSqlite3(source);
   sqlite.pragma('journal_mode = WAL');

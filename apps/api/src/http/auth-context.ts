@@ -1,12 +1,15 @@
 import type { Request, RequestHandler } from 'express';
 import {
+  dialectOf,
   findMembershipOfUser,
   findSessionContext,
+  inShopScope,
   findShopById,
   findShopSubscription,
   findUserById,
   type Db,
   type MembershipRow,
+  type SessionContextRows,
   type ShopRow,
   type ShopSubscriptionRow,
   type UserRow,
@@ -93,18 +96,40 @@ function authContextOf(
   return { sessionId, user, shop, membership, actor, readOnlyReason, ability: defineAbilityFor(actor) };
 }
 
+const SESSION_SHOP_HINTS = 10_000;
+
+/**
+ * Reads a session with its user, membership, shop and billing. On PostgreSQL it first asks in the shop scope the
+ * session had last time on this instance (a hint): the pooled connections of a shop's requests usually carry that
+ * shop already, so the lookup costs no `set_config` round trip (http/shop-scope.ts). A session seen in that scope is
+ * complete there (its rows are that shop's, or have none); one not seen is asked for again unscoped.
+ */
+async function lookUpSession(db: Db, id: string, hints: Map<string, string> | null): Promise<SessionContextRows | undefined> {
+  const hint = hints?.get(id);
+  const rows = (hint ? await inShopScope(db, hint, () => findSessionContext(db, id)) : undefined) ?? (await findSessionContext(db, id));
+  if (hints) {
+    hints.delete(id);
+    if (rows?.session.shop_id) hints.set(id, rows.session.shop_id);
+    if (hints.size > SESSION_SHOP_HINTS) hints.delete(hints.keys().next().value!);
+  }
+  return rows;
+}
+
 /** Reads the session cookie on every request (one joined query); a renewed session gets a fresh cookie. */
 export function sessionMiddleware(deps: { db: Db; clock: Clock; policy: SessionPolicy; secureCookies: boolean }): RequestHandler {
+  const hints = dialectOf(deps.db) === 'postgres' ? new Map<string, string>() : null;
   return async (req, res, next) => {
     const token = readCookie(req.headers.cookie, SESSION_COOKIE);
     if (!token) return next();
-    const rows = await findSessionContext(deps.db, hashToken(token));
+    const rows = await lookUpSession(deps.db, hashToken(token), hints);
     if (!rows) return next();
-    const result = await checkSession(deps.db, deps.policy, rows.session, deps.clock.now());
+    // The session's own row: written in its shop's scope, which the connection most likely carries already.
+    const inItsShop = <T>(work: () => Promise<T>) => (rows.session.shop_id ? inShopScope(deps.db, rows.session.shop_id, work) : work());
+    const result = await inItsShop(() => checkSession(deps.db, deps.policy, rows.session, deps.clock.now()));
     if (!result) return next();
     const auth = authContextOf(result.session.id, result.session.shop_id, rows);
     if (!auth) {
-      await invalidateSession(deps.db, result.session.id);
+      await inItsShop(() => invalidateSession(deps.db, result.session.id));
       return next();
     }
     req.auth = auth;

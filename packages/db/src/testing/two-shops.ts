@@ -1,7 +1,10 @@
 import type { Db } from '../client';
 import { newId, nowIso } from '../ids';
+import { insertJob } from '../jobs/job.repository';
+import { insertPackage } from '../packages/package.repository';
 import { insertShop } from '../shops/shop.repository';
 import { insertMembership, insertUser } from '../users/user.repository';
+import { insertVehicle } from '../vehicles/vehicle.repository';
 import { createTestDb } from './postgres';
 
 /** A fresh database (in-memory SQLite, or PostgreSQL in db-pg) with two shops, each with one owner: the fixture for tenant-isolation tests. */
@@ -16,4 +19,27 @@ export async function twoShops(): Promise<{ db: Db; shopA: string; shopB: string
   await insertMembership(db, { id: newId(), shop_id: shopA, user_id: ownerA, role: 'owner', created_at: at });
   await insertMembership(db, { id: newId(), shop_id: shopB, user_id: ownerB, role: 'owner', created_at: at });
   return { db, shopA, shopB, ownerA, ownerB };
+}
+
+/** A job in `shopId` with its own vehicle and package (the least a job row needs), for tests that read jobs raw. */
+export async function jobIn(db: Db, shopId: string, customerId: string, goals = 'More power') {
+  const at = nowIso();
+  const vehicle = await insertVehicle(db, { id: newId(), shop_id: shopId, owner_user_id: customerId, vin: '1M8GDM9AXKP042788', model_year: 1989, description: 'Test coupe', spec: '{}', created_at: at, updated_at: at });
+  const pkg = await insertPackage(db, { id: newId(), shop_id: shopId, name: 'Stage', modules: '["ECM"]', retail_price_minor: 50000, dealer_price_minor: 40000, rounds_included: 3, created_at: at });
+  return insertJob(db, {
+    id: newId(),
+    shop_id: shopId,
+    number: 1001,
+    vehicle_id: vehicle.id,
+    customer_user_id: customerId,
+    package_id: pkg.id,
+    assigned_tuner_id: null,
+    state: 'ready',
+    goals,
+    log_request: '{}',
+    cautions_accepted_at: at,
+    state_changed_at: at,
+    created_at: at,
+    updated_at: at,
+  });
 }

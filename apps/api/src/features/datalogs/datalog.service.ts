@@ -5,7 +5,9 @@ import {
   workProgressOf,
   findJob,
   findVehicle,
+  inShopScope,
   inTransaction,
+  outsideShopScope,
   updateDatalog,
   type DatalogRow,
   type DatalogListRow,
@@ -75,10 +77,13 @@ export class DatalogAnalyzer {
     deps.queue.register(DATALOG_QUEUE, {
       concurrency: 2,
       maxAttempts: 3,
-      run: (payload) => this.runJob(payload as AnalysisJob),
+      // A job is its log's shop's work: row-level security keeps it to that shop (PostgreSQL), as a request would be.
+      run: (payload) => inShopScope(deps.db, (payload as AnalysisJob).shopId, () => this.runJob(payload as AnalysisJob)),
       onExhausted: async (payload) => {
         const job = payload as AnalysisJob;
-        await updateDatalog(deps.db, job.shopId, job.datalogId, { status: 'failed', error: 'The log could not be analysed.', report: null });
+        await inShopScope(deps.db, job.shopId, () =>
+          updateDatalog(deps.db, job.shopId, job.datalogId, { status: 'failed', error: 'The log could not be analysed.', report: null }),
+        );
       },
     });
   }
@@ -94,7 +99,10 @@ export class DatalogAnalyzer {
 
   /** Queues the analysis of a "processing" log; false when a job for it is already queued or running. */
   start(row: { id: string; shop_id: string }): Promise<boolean> {
-    return this.deps.queue.enqueue(DATALOG_QUEUE, row.id, { datalogId: row.id, shopId: row.shop_id } satisfies AnalysisJob);
+    // Unscoped: the queue's poller that this wakes is system work for every shop, and would keep the request's scope.
+    return outsideShopScope(this.deps.db, () =>
+      this.deps.queue.enqueue(DATALOG_QUEUE, row.id, { datalogId: row.id, shopId: row.shop_id } satisfies AnalysisJob),
+    );
   }
 
   /** Settles when the given logs have no open analysis job (tests and start-up recovery). */

@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTwoShops } from '../../testing/factories';
-import { createTestApp, linkFromMail, signIn, type TestApp } from '../../testing/test-app';
+import { createTestApp, linkFromMail, signIn, TEST_PASSWORD, type TestApp } from '../../testing/test-app';
 
 let t: TestApp;
 let w: Awaited<ReturnType<typeof createTwoShops>>;
@@ -47,5 +47,18 @@ describe('/api/invitations', () => {
     expect((await other.delete(`/api/invitations/${sent.body.data.id}`)).status).toBe(404);
     expect((await other.get('/api/invitations')).body.data).toEqual([]);
     expect((await owner.get('/api/invitations')).body.data.map((i: { id: string }) => i.id)).toContain(sent.body.data.id);
+  });
+
+  it('a person signed in to another shop opens the invitation and joins with it', async () => {
+    const owner = await signIn(t.app, w.people.owner.email);
+    const elsewhere = await signIn(t.app, w.other.owner.email);
+    expect((await owner.post('/api/invitations').send({ email: w.other.owner.email, role: 'tuner' })).status).toBe(201);
+    const token = linkFromMail(t.mailbox, w.other.owner.email).split('/invitations/')[1]!;
+    const lookup = await elsewhere.get(`/api/invitations/lookup/${token}`);
+    expect(lookup.status).toBe(200);
+    expect(lookup.body.data).toMatchObject({ role: 'tuner', shopName: w.shop.name, existingAccount: true });
+    const accepted = await elsewhere.post('/api/invitations/accept').send({ token, name: w.other.owner.name, password: TEST_PASSWORD });
+    expect(accepted.status).toBe(200);
+    expect((await elsewhere.get('/api/me')).body).toMatchObject({ shop: { id: w.shop.id }, role: 'tuner' });
   });
 });

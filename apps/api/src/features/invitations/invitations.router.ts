@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import type { Invitation, SentInvitation } from '@revloop/contract';
-import { findInvitation, listPendingInvitations } from '@revloop/db';
+import { findInvitation, listPendingInvitations, outsideShopScope } from '@revloop/db';
 import { acceptInvitationSchema, emailSchema, SHOP_ROLES } from '@revloop/domain/auth';
 import { z } from 'zod';
 import type { AppDeps } from '../../context';
@@ -20,15 +20,18 @@ export function createInvitationsRouter(deps: AppDeps): Router {
   const router = Router();
   const { db, clock } = deps;
 
+  // Unscoped: the invitation is to its own shop, which need not be the shop the person is signed in to now.
   router.get('/lookup/:token', async (req, res) => {
-    const { view } = await lookupInvitation(db, req.params.token, clock.now());
+    const { view } = await outsideShopScope(db, () => lookupInvitation(db, req.params.token, clock.now()));
     res.json({ data: view });
   });
 
   router.post('/accept', async (req, res) => {
     const { token, name, password } = parseInput(acceptSchema, req.body);
-    const { userId, shopId } = await acceptInvitation(deps, token, { name, password });
-    await startSession(deps, req, res, userId, shopId, 200);
+    await outsideShopScope(db, async () => {
+      const { userId, shopId } = await acceptInvitation(deps, token, { name, password });
+      await startSession(deps, req, res, userId, shopId, 200);
+    });
   });
 
   router.get('/', async (req, res) => {

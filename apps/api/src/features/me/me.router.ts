@@ -3,6 +3,7 @@ import { z } from 'zod';
 import type { AppDeps } from '../../context';
 import { loadAuthContext, requireAuth } from '../../http/auth-context';
 import { parseInput } from '../../http/validate';
+import { outsideShopScope } from '@revloop/db';
 import { toMe, updateMe } from './me.service';
 import { nameSchema } from '@revloop/domain/text';
 
@@ -26,7 +27,8 @@ export function createMeRouter({ db }: AppDeps): Router {
   router.patch('/', async (req, res) => {
     const auth = requireAuth(req);
     const input = parseInput(updateMeSchema, req.body);
-    await updateMe(db, auth.user.id, input);
+    // Unscoped: the person's name shows on the jobs of every shop they belong to, whose job lists it marks changed.
+    await outsideShopScope(db, () => updateMe(db, auth.user.id, input));
     const fresh = await loadAuthContext(db, auth.sessionId, auth.user.id, auth.shop?.id ?? null);
     res.json(await toMe(db, fresh ?? auth));
   });

@@ -1,4 +1,4 @@
-import { isSlugTaken, isUniqueViolation, updateShop, type ShopRow } from '@revloop/db';
+import { isSlugTaken, isUniqueViolation, outsideShopScope, updateShop, type ShopRow } from '@revloop/db';
 import { DomainError } from '@revloop/domain';
 import type { ShopSettings } from '@revloop/domain/shops';
 import type { AppDeps } from '../../context';
@@ -21,7 +21,8 @@ export interface ShopChange {
 export async function changeShop({ db, clock }: AppDeps, auth: AuthContext & { shop: ShopRow }, change: ShopChange): Promise<ShopRow> {
   const { slug } = change;
   const clash = () => new DomainError('conflict', `Another shop already uses the address /s/${slug}. Choose another.`);
-  if (slug !== null && slug !== auth.shop.slug && (await isSlugTaken(db, slug, auth.shop.id))) throw clash();
+  // Unscoped: whether any other shop uses the address (only yes or no comes back).
+  if (slug !== null && slug !== auth.shop.slug && (await outsideShopScope(db, () => isSlugTaken(db, slug, auth.shop.id)))) throw clash();
   return writeWithAudit(
     db,
     async (trx) => {
