@@ -38,8 +38,8 @@ describe.skipIf(testEngine() !== 'postgres')('row-level security on PostgreSQL',
     const { db, shopA, shopB, ownerA, ownerB } = await twoShops();
     await dealerIn(db, shopA, 'Dealer of A');
     const ofB = await dealerIn(db, shopB, 'Dealer of B');
-    await jobIn(db, shopA, ownerA, 'Job of A');
-    await jobIn(db, shopB, ownerB, 'Job of B');
+    await jobIn(db, shopA, ownerA, { goals: 'Job of A' });
+    await jobIn(db, shopB, ownerB, { goals: 'Job of B' });
 
     await inShopScope(db, shopA, async () => {
       // Deliberately no `where shop_id = …`: the policy alone keeps shop B out.

@@ -1,11 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { insertDealer } from '../dealers/dealer.repository';
 import { newId, nowIso } from '../ids';
-import { twoShops } from '../testing/two-shops';
+import { jobIn, twoShops } from '../testing/two-shops';
 import { appendLedgerEntry, dealerBalance, listLedgerEntries } from './ledger.repository';
-import { insertJob } from '../jobs/job.repository';
-import { insertPackage } from '../packages/package.repository';
-import { insertVehicle } from '../vehicles/vehicle.repository';
 import { findPayment, findPaymentWithRefunds, insertPayment, insertPaymentRefund, listCustomerJobMoney, listJobPayments, markPaymentPaid } from './payment.repository';
 import { claimStripeEvent } from './stripe-event.repository';
 import { findShopSubscription, insertShopSubscription, listShopsWithoutSubscription, upsertSubscriptionInvoice, listSubscriptionInvoices } from './subscription.repository';
@@ -14,22 +11,14 @@ async function dealerIn(db: Awaited<ReturnType<typeof twoShops>>['db'], shopId: 
   return insertDealer(db, { id: newId(), shop_id: shopId, name: 'Garage', contact_name: 'G', contact_email: 'g@example.test', created_at: nowIso() });
 }
 
-/** A retail job of `customerId` in the shop, its package priced at `priceMinor`. */
-async function jobIn(db: Awaited<ReturnType<typeof twoShops>>['db'], shopId: string, customerId: string, number: number, priceMinor: number) {
-  const at = nowIso();
-  const vehicle = await insertVehicle(db, { id: newId(), shop_id: shopId, owner_user_id: customerId, vin: '1M8GDM9AXKP042788', model_year: 1989, description: 'Test coupe', spec: '{}', created_at: at, updated_at: at });
-  const pkg = await insertPackage(db, { id: newId(), shop_id: shopId, name: `Stage ${number}`, modules: '["ECM"]', retail_price_minor: priceMinor, dealer_price_minor: 0, rounds_included: 3, created_at: at });
-  return insertJob(db, { id: newId(), shop_id: shopId, number, vehicle_id: vehicle.id, customer_user_id: customerId, package_id: pkg.id, assigned_tuner_id: null, state: 'with_customer', goals: '', log_request: '{}', cautions_accepted_at: at, state_changed_at: at, created_at: at, updated_at: at });
-}
-
 describe('billing repositories', () => {
   it('reads the money of a customer’s jobs in one query: price, paid and refunded per job, only paid payments, only theirs', async () => {
     const { db, shopA, shopB, ownerA, ownerB } = await twoShops();
     const at = nowIso();
-    const paidJob = await jobIn(db, shopA, ownerA, 1001, 50000);
-    const unpaidJob = await jobIn(db, shopA, ownerA, 1002, 30000);
-    await jobIn(db, shopA, ownerB, 1003, 10000);
-    await jobIn(db, shopB, ownerA, 1001, 10000);
+    const paidJob = await jobIn(db, shopA, ownerA, { number: 1001, priceMinor: 50000, state: 'with_customer' });
+    const unpaidJob = await jobIn(db, shopA, ownerA, { number: 1002, priceMinor: 30000, state: 'with_customer' });
+    await jobIn(db, shopA, ownerB, { number: 1003, priceMinor: 10000, state: 'with_customer' });
+    await jobIn(db, shopB, ownerA, { number: 1001, priceMinor: 10000, state: 'with_customer' });
     const payment = { shop_id: shopA, purpose: 'job' as const, job_id: paidJob.id, payer_user_id: ownerA, currency: 'USD', created_at: at };
     const paid = await insertPayment(db, { ...payment, id: newId(), amount_minor: 30000, status: 'paid', stripe_checkout_session_id: 'cs_m1', paid_at: at });
     await insertPayment(db, { ...payment, id: newId(), amount_minor: 20000, status: 'open', stripe_checkout_session_id: 'cs_m2' });

@@ -1,10 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { newId, nowIso } from '../ids';
-import { insertJob } from '../jobs/job.repository';
-import { insertPackage } from '../packages/package.repository';
-import { twoShops } from '../testing/two-shops';
-import { insertVehicle } from '../vehicles/vehicle.repository';
-import type { Db } from '../client';
+import { jobIn, twoShops } from '../testing/two-shops';
 import {
   findCalibrationFile,
   findRevisionsWithImage,
@@ -15,13 +11,6 @@ import {
   modulesRevisedForRound,
 } from './calibration-file.repository';
 import type { InsertableCalibrationFileRow } from './calibration-file.table';
-
-async function jobIn(db: Db, shopId: string, userId: string, number: number) {
-  const at = nowIso();
-  const vehicle = await insertVehicle(db, { id: newId(), shop_id: shopId, owner_user_id: userId, vin: '1M8GDM9AXKP042788', model_year: 1989, description: 'Test coupe', spec: '{}', created_at: at, updated_at: at });
-  const pkg = await insertPackage(db, { id: newId(), shop_id: shopId, name: 'Stage', modules: '["ECM"]', retail_price_minor: 50000, dealer_price_minor: 40000, rounds_included: 3, created_at: at });
-  return insertJob(db, { id: newId(), shop_id: shopId, number, vehicle_id: vehicle.id, customer_user_id: userId, package_id: pkg.id, assigned_tuner_id: null, state: 'on_bench', goals: '', log_request: '{}', cautions_accepted_at: at, state_changed_at: at, created_at: at, updated_at: at });
-}
 
 const file = (shopId: string, jobId: string, userId: string, over: Partial<InsertableCalibrationFileRow> = {}): InsertableCalibrationFileRow => ({
   id: newId(),
@@ -47,7 +36,7 @@ const file = (shopId: string, jobId: string, userId: string, over: Partial<Inser
 describe('calibration file repository', () => {
   it('reads and lists only the shop’s own files', async () => {
     const { db, shopA, shopB, ownerB } = await twoShops();
-    const job = await jobIn(db, shopB, ownerB, 1001);
+    const job = await jobIn(db, shopB, ownerB, { number: 1001, state: 'on_bench' });
     const row = await insertCalibrationFile(db, file(shopB, job.id, ownerB));
     expect(await findCalibrationFile(db, shopA, row.id)).toBeUndefined();
     expect(await listJobFiles(db, shopA, job.id)).toEqual([]);
@@ -57,7 +46,7 @@ describe('calibration file repository', () => {
 
   it('finds the latest revision and read of a module, and the modules revised for a round', async () => {
     const { db, shopB, ownerB } = await twoShops();
-    const job = await jobIn(db, shopB, ownerB, 1001);
+    const job = await jobIn(db, shopB, ownerB, { number: 1001, state: 'on_bench' });
     const read = await insertCalibrationFile(db, file(shopB, job.id, ownerB));
     const rev1 = await insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1, parent_file_id: read.id }));
     await insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 2, for_round: 2, parent_file_id: rev1.id }));
@@ -70,16 +59,16 @@ describe('calibration file repository', () => {
 
   it('refuses a second revision with the same number for a job and module', async () => {
     const { db, shopB, ownerB } = await twoShops();
-    const job = await jobIn(db, shopB, ownerB, 1001);
+    const job = await jobIn(db, shopB, ownerB, { number: 1001, state: 'on_bench' });
     await insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1 }));
     await expect(insertCalibrationFile(db, file(shopB, job.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1 }))).rejects.toThrow(/unique constraint/i);
   });
 
   it('matches revisions of other jobs in the same shop only', async () => {
     const { db, shopA, shopB, ownerA, ownerB } = await twoShops();
-    const jobB1 = await jobIn(db, shopB, ownerB, 1001);
-    const jobB2 = await jobIn(db, shopB, ownerB, 1002);
-    const jobA = await jobIn(db, shopA, ownerA, 1001);
+    const jobB1 = await jobIn(db, shopB, ownerB, { number: 1001, state: 'on_bench' });
+    const jobB2 = await jobIn(db, shopB, ownerB, { number: 1002, state: 'on_bench' });
+    const jobA = await jobIn(db, shopA, ownerA, { number: 1001, state: 'on_bench' });
     await insertCalibrationFile(db, file(shopB, jobB1.id, ownerB, { kind: 'revision', revision_number: 1, for_round: 1 }));
     await insertCalibrationFile(db, file(shopA, jobA.id, ownerA, { kind: 'revision', revision_number: 1, for_round: 1 }));
     const image = { crc32: 0xcbf43926, imageBytes: 9 };

@@ -1,38 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { newId, nowIso } from '../ids';
-import { insertPackage } from '../packages/package.repository';
-import { twoShops } from '../testing/two-shops';
-import { insertVehicle } from '../vehicles/vehicle.repository';
-import { findJob, insertJob, jobListVersion, listJobs, updateJob } from './job.repository';
-
-async function jobIn(db: Awaited<ReturnType<typeof twoShops>>['db'], shopId: string, customerId: string, tunerId: string | null) {
-  const at = nowIso();
-  const vehicle = await insertVehicle(db, { id: newId(), shop_id: shopId, owner_user_id: customerId, vin: '1M8GDM9AXKP042788', model_year: 1989, description: 'Test coupe', spec: '{}', created_at: at, updated_at: at });
-  const pkg = await insertPackage(db, { id: newId(), shop_id: shopId, name: 'Stage', modules: '["ECM"]', retail_price_minor: 50000, dealer_price_minor: 40000, rounds_included: 3, created_at: at });
-  return insertJob(db, {
-    id: newId(),
-    shop_id: shopId,
-    number: 1001,
-    vehicle_id: vehicle.id,
-    customer_user_id: customerId,
-    package_id: pkg.id,
-    assigned_tuner_id: tunerId,
-    state: 'ready',
-    goals: 'More power',
-    log_request: '{}',
-    cautions_accepted_at: at,
-    state_changed_at: at,
-    created_at: at,
-    updated_at: at,
-  });
-}
+import { nowIso } from '../ids';
+import { jobIn, twoShops } from '../testing/two-shops';
+import { findJob, jobListVersion, listJobs, updateJob } from './job.repository';
 
 const page = { sort: 'number' as const, direction: 'desc' as const, offset: 0, limit: 50 };
 
 describe('job repository', () => {
   it('reads, lists and updates only the shop’s own jobs', async () => {
     const { db, shopA, shopB, ownerB } = await twoShops();
-    const job = await jobIn(db, shopB, ownerB, null);
+    const job = await jobIn(db, shopB, ownerB);
     expect(await findJob(db, shopA, job.id)).toBeUndefined();
     expect((await listJobs(db, shopA, { kind: 'shop' }, {}, page)).total).toBe(0);
     expect(await updateJob(db, shopA, job.id, { state: 'cancelled' })).toBeUndefined();
@@ -42,7 +18,7 @@ describe('job repository', () => {
   it('applies role scopes inside the query', async () => {
     const { db, shopB, ownerB, ownerA } = await twoShops();
     // Assigned to a user who is not the one asking.
-    const job = await jobIn(db, shopB, ownerB, ownerA);
+    const job = await jobIn(db, shopB, ownerB, { tunerId: ownerA });
     expect(await findJob(db, shopB, job.id, { kind: 'tuner', userId: 'me' })).toBeUndefined();
     expect(await findJob(db, shopB, job.id, { kind: 'customer', userId: 'not-the-customer' })).toBeUndefined();
     expect(await findJob(db, shopB, job.id, { kind: 'customer', userId: ownerB })).toBeDefined();
@@ -51,7 +27,7 @@ describe('job repository', () => {
 
   it('refuses a move when the job is no longer in the expected state', async () => {
     const { db, shopB, ownerB } = await twoShops();
-    const job = await jobIn(db, shopB, ownerB, null);
+    const job = await jobIn(db, shopB, ownerB);
     expect(await updateJob(db, shopB, job.id, { state: 'on_bench' }, 'intake')).toBeUndefined();
     expect((await updateJob(db, shopB, job.id, { state: 'on_bench' }, 'ready'))?.state).toBe('on_bench');
   });
@@ -61,7 +37,7 @@ describe('job list version', () => {
   it('moves with every write a job list shows, only in the shops the write touches', async () => {
     const { db, shopA, shopB, ownerA, ownerB } = await twoShops();
     const versions = async () => [await jobListVersion(db, shopA), await jobListVersion(db, shopB)];
-    const job = await jobIn(db, shopB, ownerB, null);
+    const job = await jobIn(db, shopB, ownerB);
     const [a0, b0] = await versions();
     await updateJob(db, shopB, job.id, { state: 'on_bench' });
     const [a1, b1] = await versions();

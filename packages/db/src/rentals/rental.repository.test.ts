@@ -1,9 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { newId, nowIso } from '../ids';
-import { insertJob } from '../jobs/job.repository';
-import { insertPackage } from '../packages/package.repository';
-import { twoShops } from '../testing/two-shops';
-import { insertVehicle } from '../vehicles/vehicle.repository';
+import { jobIn, twoShops } from '../testing/two-shops';
 import type { Db } from '../client';
 import {
   claimRentalReminder,
@@ -17,13 +14,6 @@ import {
   updateKit,
   updateRental,
 } from './rental.repository';
-
-async function jobIn(db: Db, shopId: string, customerId: string) {
-  const at = nowIso();
-  const vehicle = await insertVehicle(db, { id: newId(), shop_id: shopId, owner_user_id: customerId, vin: '1M8GDM9AXKP042788', model_year: 1989, description: 'Test coupe', spec: '{}', created_at: at, updated_at: at });
-  const pkg = await insertPackage(db, { id: newId(), shop_id: shopId, name: 'Stage', modules: '["ECM"]', retail_price_minor: 50000, dealer_price_minor: 40000, rounds_included: 3, created_at: at });
-  return insertJob(db, { id: newId(), shop_id: shopId, number: 1001, vehicle_id: vehicle.id, customer_user_id: customerId, package_id: pkg.id, assigned_tuner_id: null, state: 'ready', goals: '', log_request: '{}', cautions_accepted_at: at, state_changed_at: at, created_at: at, updated_at: at });
-}
 
 async function kitIn(db: Db, shopId: string) {
   const at = nowIso();
