@@ -281,11 +281,12 @@ export function percentile(values: number[], p: number): number {
 /**
  * /api/me, a light request, while the board list runs at TARGET_RPS. The target is about the server's answer time, so
  * /api/me is sent by its own process at an even 20 per second (one connection, one request at a time) and its p99 is
- * over the answers as sent. Not autocannon in this process: there the board's 500 answers of ~300 kB a second keep
- * the bench's own event loop busy, so /api/me's time included waiting for the client to read it; autocannon's rate
- * limit sends each second's quota in a burst at the second's start (20 /api/me requests back to back, inside the
- * board's own burst); and its coordinated-omission fill (expected interval ceil(1/rate) = 1 ms) adds a sample for
- * every millisecond below each answer, so its "p99" is near the slowest answer. The server's own figures (time from
+ * over the answers as sent. Not autocannon beside the board's autocannon in this process, as before: its rate limit
+ * sends each second's quota back to back at the second's start (20 /api/me requests in a row, inside the board's own
+ * burst of 500); its coordinated-omission fill (expected interval ceil(1/rate) = 1 ms) adds a sample for every
+ * millisecond below each answer, so its "p99" was near the slowest one or two answers; and it gave 10–76 ms by what
+ * ran before it, while the server handled the same requests in under 6 ms (DEVELOPERS.md, "Board and /api/me under
+ * load"). The server's own figures (time from
  * the request's headers to the answer's hand-over, and event-loop delay) come from scripts/bench/server-probe.ts.
  */
 async function measureMe(server: ChildProcess, base: string, headers: { cookie: string }, probeFile: string): Promise<Figure[]> {
@@ -303,8 +304,10 @@ async function measureMe(server: ChildProcess, base: string, headers: { cookie: 
 
   // First, where the bench measured it before: right after the Customers list's requests.
   if (process.env.BENCH_ME_AUTOCANNON === '1') await measureMeTheFormerWay(server, base, headers, probeFile);
+  else await readProbe(server, probeFile); // drops what the probe held from the earlier runs
 
-  // A second's pause before each phase, so the previous run's last requests are answered before it starts.
+  console.log(`  /api/me: sent by its own process at an even ${ME_PER_SECOND}/s; the target is on that client's p99 (server-side figures beside it)`);
+  // A second's pause before each phase, so it starts on an idle server.
   const settle = () => new Promise((r) => setTimeout(r, 1000));
   await settle();
 
@@ -340,7 +343,7 @@ async function measureMe(server: ChildProcess, base: string, headers: { cookie: 
  * process beside the board's autocannon, with this process's own event-loop delay and the server probe's figures.
  */
 async function measureMeTheFormerWay(server: ChildProcess, base: string, headers: { cookie: string }, probeFile: string): Promise<void> {
-  // No pause before it, as before: the previous run's unanswered requests are still being worked through.
+  // No pause before it, as before.
   const loop = monitorEventLoopDelay({ resolution: 10 });
   loop.enable();
   const [, me] = await Promise.all([

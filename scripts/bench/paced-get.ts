@@ -29,8 +29,14 @@ function once(): Promise<void> {
   });
 }
 
+/** The bench has gone (it failed): do not wait for it. */
+function gone(): void {
+  process.exit(1);
+}
+
 // Started from the bench with an IPC channel: say ready (tsx has loaded), then wait for the word to begin.
 if (process.send) {
+  process.once('disconnect', gone);
   process.send('ready');
   await new Promise((r) => process.once('message', r));
 }
@@ -43,4 +49,5 @@ for (let k = 0; k < count; k++) {
 }
 agent.destroy();
 process.stdout.write(JSON.stringify({ times, failed }));
+process.off('disconnect', gone);
 process.disconnect?.();

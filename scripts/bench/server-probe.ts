@@ -34,7 +34,9 @@ if (file) {
     // The histogram holds each whole timer interval, so the 10 ms resolution is taken off: what is left is the delay.
     const ms = (ns: number) => Math.max(0, ns / 1e6 - 10);
     const eventLoop = { p50: ms(loop.percentile(50)), p99: ms(loop.percentile(99)), max: ms(loop.max), mean: ms(loop.mean) };
-    fs.writeFileSync(file, JSON.stringify({ eventLoop, gc, times }));
+    // Written whole, then renamed: the bench reads it as soon as the name appears.
+    fs.writeFileSync(`${file}.tmp`, JSON.stringify({ eventLoop, gc, times }));
+    fs.renameSync(`${file}.tmp`, file);
     times = {};
     gc = { count: 0, total: 0, max: 0 };
     loop = monitorEventLoopDelay({ resolution: 10 });
