@@ -31,16 +31,18 @@ test('a customer sees a revision locked until paid, pays through Checkout and do
   const jobs = ((await (await page.request.get('/api/jobs?pageSize=100')).json()).data as ListedJob[]).filter(
     (j) => j.dealer === null && j.state !== 'cancelled' && j.state !== 'dialed_in',
   );
-  // The first open job is the one the billing story pays; this story takes another with a locked revision.
+  // The first open job is the one the billing story pays; this story takes another with a locked revision, waiting for
+  // the customer to flash it. This file runs right after billing.spec.ts (flows run in file order), before the log
+  // stories move the demo customer's job on.
   let found: { job: ListedJob; file: ListedFile } | null = null;
-  for (const job of jobs.slice(1)) {
+  for (const job of jobs.slice(1).filter((j) => j.state === 'with_customer')) {
     const file = (await filesOf(page, job.id)).find((f) => f.kind === 'revision' && f.lock.locked);
     if (file) {
       found = { job, file };
       break;
     }
   }
-  if (!found) throw new Error('no second open job of the demo customer with a revision locked until paid');
+  if (!found) throw new Error('no second open job of the demo customer waiting with a revision locked until paid');
   const { job, file } = found;
 
   // The download answers 402 with its reason until the job is paid.
