@@ -39,7 +39,10 @@ export async function mainPagesOf(page: Page): Promise<MainPage[]> {
   if (!has('/jobs')) return pages;
 
   pages.push({ name: 'jobs table', url: '/jobs?view=table' }, { name: 'intake', url: '/jobs/new' });
-  const jobs = await listOf(page, '/api/jobs?view=table&pageSize=100');
+  // Finished jobs first: the flows project changes open jobs on the other worker meanwhile (a tuner's open job can be
+  // taken or reassigned between this list and the page), while a dialed-in job stays where it is.
+  const listed = await listOf(page, '/api/jobs?view=table&pageSize=100');
+  const jobs = [...listed.filter((job) => job.state === 'dialed_in'), ...listed.filter((job) => job.state !== 'dialed_in')];
   let withDiff: { job: string; a: string; b: string } | undefined;
   let report: string | undefined;
   for (const job of jobs) {
